@@ -1,0 +1,253 @@
+//! `Artwork`: the single geometric truth that every check and every writer reads.
+//!
+//! Contract (docs/contracts.md): a flat list of polygons, each tagged with its [`Layer`]
+//! (which also says the plate), its [`Role`] and the net the generator meant it for; all
+//! coordinates in mm in the front-plate frame (as the viewer sees the display, for both
+//! plates: writers mirror, the artwork never does). Polygons are valid, counter-clockwise
+//! outside, and may have holes. Beside the polygons the artwork carries the *intent* —
+//! the net list, the pins and the designed pixels — which the checks compare against what
+//! they re-derive from the polygons.
+
+use crate::finding::Finding;
+use crate::geom::{Polygon, Pt, Region};
+use crate::layout::{LayerMap, PlateId, Rules};
+
+/// A drawn layer. ITO and mark layers belong to one plate; the seal, transfer dots and
+/// window lie between the plates.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Layer {
+    /// ITO on the front (segment) plate.
+    FrontIto,
+    /// ITO on the back (common) plate.
+    BackIto,
+    /// Alignment marks on the front plate (etched in its ITO).
+    FrontMarks,
+    /// Alignment marks on the back plate (etched in its ITO).
+    BackMarks,
+    /// Seal glue line.
+    Seal,
+    /// Conductive transfer dots in the seal.
+    TransferDots,
+    /// Front glass outline.
+    FrontGlass,
+    /// Back glass outline.
+    BackGlass,
+    /// Viewing window.
+    Window,
+}
+
+impl Layer {
+    /// Every layer, in layer-map order.
+    pub const ALL: [Layer; 9] = [
+        Layer::FrontIto,
+        Layer::BackIto,
+        Layer::FrontMarks,
+        Layer::BackMarks,
+        Layer::Seal,
+        Layer::TransferDots,
+        Layer::FrontGlass,
+        Layer::BackGlass,
+        Layer::Window,
+    ];
+
+    /// Name used in the layer map, the report and the layout's `gds_layers` key.
+    pub fn name(self) -> &'static str {
+        match self {
+            Layer::FrontIto => "front_ito",
+            Layer::BackIto => "back_ito",
+            Layer::FrontMarks => "front_marks",
+            Layer::BackMarks => "back_marks",
+            Layer::Seal => "seal",
+            Layer::TransferDots => "transfer_dots",
+            Layer::FrontGlass => "front_glass",
+            Layer::BackGlass => "back_glass",
+            Layer::Window => "window",
+        }
+    }
+
+    /// The plate whose mask carries this layer, if any.
+    pub fn plate(self) -> Option<PlateId> {
+        match self {
+            Layer::FrontIto | Layer::FrontMarks | Layer::FrontGlass => Some(PlateId::Front),
+            Layer::BackIto | Layer::BackMarks | Layer::BackGlass => Some(PlateId::Back),
+            Layer::Seal | Layer::TransferDots | Layer::Window => None,
+        }
+    }
+
+    /// True for the layers that are etched ITO (and so printed on that plate's film).
+    pub fn is_etched(self) -> bool {
+        matches!(self, Layer::FrontIto | Layer::BackIto | Layer::FrontMarks | Layer::BackMarks)
+    }
+
+    /// The ITO layer of a plate.
+    pub fn ito(plate: PlateId) -> Layer {
+        match plate {
+            PlateId::Front => Layer::FrontIto,
+            PlateId::Back => Layer::BackIto,
+        }
+    }
+}
+
+/// What a polygon is for (intent only; checks never use it to decide connectivity).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Role {
+    /// A segment, legend or icon electrode on the front plate.
+    Segment,
+    /// A common electrode (backplane) on the back plate.
+    Common,
+    /// A lead drawn by segmask.
+    Lead,
+    /// A bus trace drawn by the user.
+    Bus,
+    /// A contact pad on the ledge.
+    Pad,
+    /// The ITO pad under a transfer dot.
+    TransferPad,
+    /// An alignment mark.
+    Mark,
+    /// Seal, dot, glass or window outline.
+    Outline,
+}
+
+/// One polygon of the artwork.
+#[derive(Debug, Clone)]
+pub struct Shape {
+    /// Layer (and so plate).
+    pub layer: Layer,
+    /// Purpose.
+    pub role: Role,
+    /// Net the generator meant it for (`None` for marks and outlines).
+    pub net: Option<String>,
+    /// The polygon, mm.
+    pub polygon: Polygon,
+}
+
+/// Kind of a net.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum NetKind {
+    /// Front-plate SEG line driving one or more elements.
+    Segment,
+    /// Back-plate common electrode (COM).
+    Common,
+}
+
+/// An intended net.
+#[derive(Debug, Clone)]
+pub struct Net {
+    /// Unique name (`D1.a`, `COM1`, …).
+    pub name: String,
+    /// Plate its electrodes are on.
+    pub plate: PlateId,
+    /// Segment or common.
+    pub kind: NetKind,
+    /// 0-based COM index for commons, SEG line index for segment nets.
+    pub index: u32,
+    /// What it drives, for people ("digit 1 segment a", "common electrode 1").
+    pub drives: String,
+}
+
+/// A contact pad on the ledge and the net on it.
+#[derive(Debug, Clone)]
+pub struct Pin {
+    /// Pin number.
+    pub number: u32,
+    /// Net on this pin.
+    pub net: String,
+    /// The pad polygon (front plate).
+    pub pad: Polygon,
+}
+
+/// A designed pixel: where the display is meant to switch for one element.
+#[derive(Debug, Clone)]
+pub struct Pixel {
+    /// Element name (same as its segment net under static drive).
+    pub element: String,
+    /// Front-plate net (SEG line).
+    pub seg_net: String,
+    /// Back-plate net (COM).
+    pub com_net: String,
+    /// The element's outline on the front plate.
+    pub region: Region,
+}
+
+/// A transfer dot joining a back-plate net to a front-plate net at one place.
+#[derive(Debug, Clone)]
+pub struct TransferDot {
+    /// Centre.
+    pub at: Pt,
+    /// The dot outline (also present as a `TransferDots` shape).
+    pub dot: Polygon,
+}
+
+/// A non-ITO text placed on a film and as a GDSII TEXT (plate labels).
+#[derive(Debug, Clone)]
+pub struct Label {
+    /// Plate whose film and structure carry it.
+    pub plate: PlateId,
+    /// Text.
+    pub text: String,
+    /// Lower-left of the text, mm.
+    pub at: Pt,
+    /// Cap height, mm.
+    pub height: f64,
+}
+
+/// All geometry of both plates, plus the intent it was made for.
+#[derive(Debug, Clone)]
+pub struct Artwork {
+    /// Layout name.
+    pub name: String,
+    /// Every polygon.
+    pub shapes: Vec<Shape>,
+    /// Intended nets.
+    pub nets: Vec<Net>,
+    /// Pads and their nets.
+    pub pins: Vec<Pin>,
+    /// Designed pixels.
+    pub pixels: Vec<Pixel>,
+    /// Transfer dots.
+    pub transfer_dots: Vec<TransferDot>,
+    /// Region filled with liquid crystal (inside the seal's inner edge).
+    pub lc_region: Polygon,
+    /// Viewing window.
+    pub window: Polygon,
+    /// Ledge: front glass not covered by back glass.
+    pub ledge: Region,
+    /// Front glass outline.
+    pub front_glass: Polygon,
+    /// Back glass outline.
+    pub back_glass: Polygon,
+    /// Plate labels.
+    pub labels: Vec<Label>,
+    /// Rules in effect.
+    pub rules: Rules,
+    /// GDSII layer map.
+    pub layers: LayerMap,
+    /// Problems found while generating (unroutable leads and the like).
+    pub generation_findings: Vec<Finding>,
+}
+
+impl Artwork {
+    /// Polygons on one layer.
+    pub fn on_layer(&self, layer: Layer) -> impl Iterator<Item = &Shape> {
+        self.shapes.iter().filter(move |s| s.layer == layer)
+    }
+
+    /// The glass outline of a plate.
+    pub fn glass(&self, plate: PlateId) -> &Polygon {
+        match plate {
+            PlateId::Front => &self.front_glass,
+            PlateId::Back => &self.back_glass,
+        }
+    }
+
+    /// The net with this name.
+    pub fn net(&self, name: &str) -> Option<&Net> {
+        self.nets.iter().find(|n| n.name == name)
+    }
+
+    /// GDSII (layer, datatype) of a layer.
+    pub fn gds_layer(&self, layer: Layer) -> (i16, i16) {
+        self.layers.entries.get(layer.name()).copied().unwrap_or((0, 0))
+    }
+}

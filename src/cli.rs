@@ -1,0 +1,91 @@
+//! Command-line interface: parses arguments, runs the pipeline, prints diagnostics.
+//!
+//! Exit codes: 0 clean, 1 rule errors found, 2 bad input, I/O error or bug.
+
+use clap::{Parser, Subcommand};
+use segmask::finding::{Finding, Severity};
+use segmask::pipeline::Built;
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+/// Turns a segment-LCD layout into ITO artwork for both plates, checks it, and writes
+/// films, GDSII and the pin map.
+#[derive(Parser)]
+#[command(name = "segmask", version, about)]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand)]
+enum Command {
+    /// Build the artwork and write films, preview, GDSII, pin map and report.
+    Build {
+        /// Layout file (YAML).
+        layout: PathBuf,
+        /// Output folder (created if missing).
+        #[arg(long, default_value = "out")]
+        out: PathBuf,
+        /// Write films and GDSII even while rule errors stand (the report is always written).
+        #[arg(long)]
+        masks_despite_errors: bool,
+        /// Date printed on films and stored in GDSII, YYYY-MM-DD [default: today].
+        #[arg(long)]
+        date: Option<String>,
+    },
+    /// Build the artwork in memory and print the findings; writes nothing.
+    Check {
+        /// Layout file (YAML).
+        layout: PathBuf,
+    },
+}
+
+/// Runs the command line and returns the process exit code.
+pub fn run() -> ExitCode {
+    let cli = Cli::parse();
+    let result = match cli.command {
+        Command::Build { layout, out, masks_despite_errors, date } => {
+            build(&layout, &out, masks_despite_errors, date)
+        }
+        Command::Check { layout } => check(&layout),
+    };
+    match result {
+        Ok(code) => code,
+        Err(e) => {
+            eprintln!("{e}");
+            ExitCode::from(2)
+        }
+    }
+}
+
+fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>) -> segmask::Result<ExitCode> {
+    let built = segmask::pipeline::build_layout_file(layout)?;
+    print_findings(layout, &built);
+    let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
+    let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks };
+    let files = segmask::emit::render_outputs(&built.artwork, &built.findings, &opts)?;
+    segmask::emit::write_atomically(out, &files)?;
+    for f in &files {
+        eprintln!("wrote {}", out.join(&f.name).display());
+    }
+    Ok(exit_for(&built.findings))
+}
+
+fn check(layout: &Path) -> segmask::Result<ExitCode> {
+    let built = segmask::pipeline::build_layout_file(layout)?;
+    print_findings(layout, &built);
+    Ok(exit_for(&built.findings))
+}
+
+fn print_findings(layout: &Path, built: &Built) {
+    for f in &built.findings {
+        eprintln!("{}", segmask::emit::diagnostic(layout, f));
+    }
+    let errors = segmask::finding::count(&built.findings, Severity::Error);
+    let warnings = segmask::finding::count(&built.findings, Severity::Warning);
+    eprintln!("{}: {errors} error(s), {warnings} warning(s)", built.layout.name);
+}
+
+fn exit_for(findings: &[Finding]) -> ExitCode {
+    if findings.iter().any(|f| f.severity == Severity::Error) { ExitCode::from(1) } else { ExitCode::SUCCESS }
+}

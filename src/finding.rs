@@ -1,0 +1,98 @@
+//! Findings: what the checks (and the generator) report about a design.
+//!
+//! A finding is plain data — rule, severity, nets, place, measured and required values —
+//! so that the terminal, the preview and the JSON report all show the same thing.
+
+use crate::geom::Pt;
+use crate::layout::PlateId;
+
+/// How bad a finding is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum Severity {
+    /// Must be fixed before making masks.
+    Error,
+    /// Probably wrong, or visible only under the bezel.
+    Warning,
+    /// For information.
+    Note,
+}
+
+impl Severity {
+    /// Lower-case name.
+    pub fn name(self) -> &'static str {
+        match self {
+            Severity::Error => "error",
+            Severity::Warning => "warning",
+            Severity::Note => "note",
+        }
+    }
+}
+
+/// The rule a finding is about. Codes are ours (see docs/checks.md).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum Rule {
+    /// Drawn line narrower than the minimum width.
+    Width,
+    /// Line narrower than the minimum width once etched (undercut on both edges).
+    EtchedWidth,
+    /// Two nets on a plate closer than the minimum gap.
+    Gap,
+    /// A line or space on the film below what the film holds.
+    FilmFeature,
+    /// Two intended nets joined by ITO.
+    Short,
+    /// Part of a net with no ITO path to its pad.
+    Open,
+    /// Front and back ITO overlap in the liquid crystal where no pixel is designed.
+    Ghost,
+    /// A pad not fully exposed on the ledge.
+    PadCovered,
+    /// ITO too close to the glass edge.
+    EdgeClearance,
+    /// A lead that could not be drawn.
+    Unroutable,
+}
+
+impl Rule {
+    /// The rule code printed and written to JSON.
+    pub fn code(self) -> &'static str {
+        match self {
+            Rule::Width => "width",
+            Rule::EtchedWidth => "etched-width",
+            Rule::Gap => "gap",
+            Rule::FilmFeature => "film-feature",
+            Rule::Short => "short",
+            Rule::Open => "open",
+            Rule::Ghost => "ghost",
+            Rule::PadCovered => "pad-covered",
+            Rule::EdgeClearance => "edge-clearance",
+            Rule::Unroutable => "unroutable",
+        }
+    }
+}
+
+/// One problem found in a design.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Finding {
+    /// Rule broken.
+    pub rule: Rule,
+    /// How bad.
+    pub severity: Severity,
+    /// Plate concerned, if one.
+    pub plate: Option<PlateId>,
+    /// Nets involved (intended names).
+    pub nets: Vec<String>,
+    /// Where, mm, front-plate frame.
+    pub location: Pt,
+    /// Measured value (mm, or mm² for areas), if the rule measures one.
+    pub measured: Option<f64>,
+    /// Required value, same unit.
+    pub required: Option<f64>,
+    /// One sentence saying what is wrong.
+    pub message: String,
+}
+
+/// Counts of errors and warnings in a list of findings.
+pub fn count(findings: &[Finding], severity: Severity) -> usize {
+    findings.iter().filter(|f| f.severity == severity).count()
+}

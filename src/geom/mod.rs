@@ -1,0 +1,165 @@
+//! Planar geometry in `f64` millimetres: the one place that talks to geo / i_overlay
+//! (boolean operations, offsets, areas, distances) and lyon_geom (curve flattening).
+//!
+//! Takes polygons, gives polygons. Every stage goes through these functions so that the
+//! pitfalls measured in DESIGN.md §7 are handled once: inputs are snapped to one 1 nm grid
+//! before boolean work, unions use the non-zero fill rule, and round joins take their
+//! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
+
+mod shapes;
+
+pub use shapes::{circle, rect, regular_arc_step, ring, stroke_polyline};
+
+use geo::algorithm::bool_ops::FillRule;
+use geo::algorithm::buffer::{BufferStyle, LineJoin};
+use geo::{Area, BooleanOps, Buffer, MapCoords};
+
+/// A point in millimetres.
+pub type Pt = geo::Coord<f64>;
+/// A simple polygon (outer ring and holes) in millimetres.
+pub type Polygon = geo::Polygon<f64>;
+/// A set of disjoint polygons in millimetres.
+pub type Region = geo::MultiPolygon<f64>;
+
+/// The grid every boolean input is snapped to: 1 nm, the GDSII database unit.
+pub const SNAP_MM: f64 = 1e-6;
+
+/// Default chord tolerance for arcs and round joins: 1 µm.
+pub const DEFAULT_TOLERANCE_MM: f64 = 1e-3;
+
+/// Builds a point.
+pub fn pt(x: f64, y: f64) -> Pt {
+    geo::coord! { x: x, y: y }
+}
+
+/// Rounds every coordinate to the 1 nm grid.
+pub fn snap<G: MapCoords<f64, f64, Output = G>>(g: &G) -> G {
+    g.map_coords(|c| pt(snap_value(c.x), snap_value(c.y)))
+}
+
+/// Rounds one length to the 1 nm grid.
+pub fn snap_value(v: f64) -> f64 {
+    (v / SNAP_MM).round() * SNAP_MM
+}
+
+/// Wraps polygons into a region without any boolean work.
+pub fn region_of(polys: impl IntoIterator<Item = Polygon>) -> Region {
+    geo::MultiPolygon(polys.into_iter().collect())
+}
+
+/// Unites any number of polygons with the non-zero rule, so overlapping inputs merge
+/// instead of cancelling (DESIGN.md §7).
+///
+/// ```
+/// use segmask::geom::{rect, union_all, area};
+/// let u = union_all([rect(0.0, 0.0, 2.0, 1.0), rect(1.0, 0.0, 3.0, 1.0)]);
+/// assert!((area(&u) - 3.0).abs() < 1e-9);
+/// ```
+pub fn union_all(polys: impl IntoIterator<Item = Polygon>) -> Region {
+    let mut subject: Vec<Polygon> = polys.into_iter().map(|p| orient_ccw(&snap(&p))).collect();
+    if subject.is_empty() {
+        return Region::new(vec![]);
+    }
+    let first = subject.remove(0);
+    let rest = geo::MultiPolygon(subject);
+    geo::MultiPolygon(vec![first]).union_with_fill_rule(&rest, FillRule::NonZero)
+}
+
+/// Unites two regions.
+pub fn union(a: &Region, b: &Region) -> Region {
+    union_all(a.0.iter().chain(b.0.iter()).cloned())
+}
+
+/// Removes `clip` from `subject`; the clip pieces are united first so that overlapping
+/// clips do not cancel.
+pub fn difference(subject: &Region, clip: &Region) -> Region {
+    if clip.0.is_empty() || subject.0.is_empty() {
+        return subject.clone();
+    }
+    let s = snap(subject);
+    let c = union_all(clip.0.iter().cloned());
+    s.difference_with_fill_rule(&c, FillRule::NonZero)
+}
+
+/// The part of `a` that is also in `b`.
+pub fn intersection(a: &Region, b: &Region) -> Region {
+    if a.0.is_empty() || b.0.is_empty() {
+        return Region::new(vec![]);
+    }
+    snap(a).intersection_with_fill_rule(&snap(b), FillRule::NonZero)
+}
+
+/// Grows (positive `d`) or shrinks (negative `d`) a region with round joins whose
+/// chords stay within `tol` of the true arc.
+///
+/// ```
+/// use segmask::geom::{rect, region_of, offset_round, area};
+/// let grown = offset_round(&region_of([rect(0.0, 0.0, 1.0, 1.0)]), 0.5, 1e-4);
+/// let exact = 1.0 + 4.0 * 0.5 + std::f64::consts::PI * 0.25;
+/// assert!((area(&grown) - exact).abs() < 1e-3);
+/// ```
+pub fn offset_round(r: &Region, d: f64, tol: f64) -> Region {
+    if d == 0.0 || r.0.is_empty() {
+        return r.clone();
+    }
+    let step = regular_arc_step(d.abs(), tol);
+    let style = BufferStyle::new(d).line_join(LineJoin::Round(step));
+    snap(&snap(r).buffer_with_style(style))
+}
+
+/// Grows or shrinks a region with mitred joins (sharp corners stay sharp, up to a mitre
+/// limit of 4 widths).
+pub fn offset_mitre(r: &Region, d: f64) -> Region {
+    if d == 0.0 || r.0.is_empty() {
+        return r.clone();
+    }
+    let style = BufferStyle::new(d).line_join(LineJoin::Miter(4.0));
+    snap(&snap(r).buffer_with_style(style))
+}
+
+/// Unsigned area in mm².
+pub fn area<G: Area<f64>>(g: &G) -> f64 {
+    g.unsigned_area()
+}
+
+/// Returns the polygon with a counter-clockwise exterior and clockwise holes.
+pub fn orient_ccw(p: &Polygon) -> Polygon {
+    use geo::orient::{Direction, Orient};
+    p.orient(Direction::Default)
+}
+
+/// Euclidean distance between two polygons (0 when they touch or overlap).
+pub fn distance(a: &Polygon, b: &Polygon) -> f64 {
+    use geo::{Distance, Euclidean};
+    Euclidean.distance(a, b)
+}
+
+/// Moves a region by (dx, dy).
+pub fn translate(r: &Region, dx: f64, dy: f64) -> Region {
+    r.map_coords(|c| pt(c.x + dx, c.y + dy))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// DESIGN.md §7: the default even-odd rule drops pieces where clips overlap;
+    /// `difference` must not.
+    #[test]
+    fn overlapping_clips_do_not_cancel() {
+        let s = region_of([rect(0.0, 0.0, 10.0, 1.0)]);
+        let c = region_of([rect(2.0, -1.0, 5.0, 2.0), rect(4.0, -1.0, 6.0, 2.0)]);
+        let d = difference(&s, &c);
+        assert!((area(&d) - 6.0).abs() < 1e-9, "area {}", area(&d));
+    }
+
+    #[test]
+    fn offset_round_respects_tolerance() {
+        // A 1 mm disc grown from a point-like square: the flattened arc lies inside the
+        // true circle by at most `tol` (DESIGN.md §7).
+        let r = offset_round(&region_of([rect(0.0, 0.0, 1e-3, 1e-3)]), 1.0, 1e-4);
+        let a = area(&r);
+        let exact = std::f64::consts::PI;
+        assert!(a < exact + 0.01 && a > exact - 2.0 * std::f64::consts::PI * 1e-4 - 0.01, "{a}");
+    }
+}

@@ -1,0 +1,67 @@
+//! Primitive shapes: rectangles, circles, rings and stroked polylines.
+
+use super::{pt, Polygon, Pt, Region};
+use geo::algorithm::buffer::{BufferStyle, LineCap, LineJoin};
+use geo::{Buffer, LineString};
+
+/// The angular step (radians) that keeps chords of an arc of radius `r` within `tol` of
+/// the arc: `2·acos(1 − tol/r)` (DESIGN.md §7).
+///
+/// ```
+/// let step = segmask::geom::regular_arc_step(1.0, 1e-3);
+/// assert!((step - 2.0 * (1.0f64 - 1e-3).acos()).abs() < 1e-12);
+/// ```
+pub fn regular_arc_step(r: f64, tol: f64) -> f64 {
+    if r <= tol {
+        return std::f64::consts::FRAC_PI_2;
+    }
+    (2.0 * (1.0 - tol / r).acos()).min(std::f64::consts::FRAC_PI_4)
+}
+
+/// Axis-aligned rectangle from two corners, counter-clockwise.
+pub fn rect(x0: f64, y0: f64, x1: f64, y1: f64) -> Polygon {
+    let (xa, xb) = (x0.min(x1), x0.max(x1));
+    let (ya, yb) = (y0.min(y1), y0.max(y1));
+    Polygon::new(
+        LineString::from(vec![pt(xa, ya), pt(xb, ya), pt(xb, yb), pt(xa, yb), pt(xa, ya)]),
+        vec![],
+    )
+}
+
+fn circle_ring(c: Pt, r: f64, tol: f64) -> Vec<Pt> {
+    let step = regular_arc_step(r, tol);
+    let n = ((std::f64::consts::TAU / step).ceil() as usize).max(8);
+    let mut v: Vec<Pt> = (0..n)
+        .map(|i| {
+            let a = std::f64::consts::TAU * i as f64 / n as f64;
+            pt(c.x + r * a.cos(), c.y + r * a.sin())
+        })
+        .collect();
+    v.push(v[0]);
+    v
+}
+
+/// Circle of radius `r`, flattened so that chords stay within `tol` of the true circle
+/// (vertices on the circle, so the polygon lies inside it).
+pub fn circle(c: Pt, r: f64, tol: f64) -> Polygon {
+    Polygon::new(LineString::from(circle_ring(c, r, tol)), vec![])
+}
+
+/// Annulus between radii `r_in` and `r_out`.
+pub fn ring(c: Pt, r_out: f64, r_in: f64, tol: f64) -> Polygon {
+    let mut hole = circle_ring(c, r_in, tol);
+    hole.reverse();
+    Polygon::new(LineString::from(circle_ring(c, r_out, tol)), vec![LineString::from(hole)])
+}
+
+/// A polyline stroked to `width` with round caps and joins (chord tolerance `tol`).
+pub fn stroke_polyline(points: &[Pt], width: f64, tol: f64) -> Region {
+    if points.len() == 1 {
+        return geo::MultiPolygon(vec![circle(points[0], width / 2.0, tol)]);
+    }
+    let step = regular_arc_step(width / 2.0, tol);
+    let style = BufferStyle::new(width / 2.0)
+        .line_join(LineJoin::Round(step))
+        .line_cap(LineCap::Round(step));
+    super::snap(&LineString::from(points.to_vec()).buffer_with_style(style))
+}

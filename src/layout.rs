@@ -1,0 +1,462 @@
+//! The resolved layout: what the `spec` stage gives every later stage.
+//!
+//! Contract (docs/contracts.md): every length is a plain `f64` in millimetres, already
+//! checked positive where it must be; every angle is in degrees; every reference (style,
+//! icon, font) is resolved; all coordinates are in the *front-plate frame*: origin at the
+//! lower-left corner of the front glass, x to the right, y up, as the viewer sees the
+//! finished display. No later stage sees YAML.
+
+use crate::geom::Pt;
+use std::collections::BTreeMap;
+
+/// A whole display, resolved.
+#[derive(Debug, Clone)]
+pub struct Layout {
+    /// Name used for output files and titles.
+    pub name: String,
+    /// Path of the layout file, for messages.
+    pub source: std::path::PathBuf,
+    /// Both glass plates.
+    pub glass: Glass,
+    /// The viewing window (visible through the bezel), front-plate frame.
+    pub window: Rect,
+    /// Liquid-crystal layer thickness in mm (for capacitance).
+    pub cell_gap: f64,
+    /// Process and design rules.
+    pub rules: Rules,
+    /// Seal ring and fill port.
+    pub seal: Seal,
+    /// Transfer dots joining back-plate leads to front-plate pads.
+    pub transfer: Transfer,
+    /// Pad row on the ledge.
+    pub pads: Pads,
+    /// Drive scheme.
+    pub drive: Drive,
+    /// Alignment marks.
+    pub marks: Marks,
+    /// Digit groups.
+    pub digits: Vec<DigitGroup>,
+    /// Fixed legends set in the stroke font.
+    pub legends: Vec<Legend>,
+    /// Icons, built in or drawn.
+    pub icons: Vec<Icon>,
+    /// User-drawn bus traces.
+    pub buses: Vec<Bus>,
+    /// GDSII layer numbers.
+    pub layers: LayerMap,
+    /// Chord tolerance for curves, mm.
+    pub tolerance: f64,
+    /// Extra font and icon files the layout adds (already read), by file name.
+    pub extra_fonts: Vec<FontSource>,
+    /// Line of each key path in the layout file, so later stages can point at it.
+    pub key_lines: BTreeMap<String, usize>,
+}
+
+impl Layout {
+    /// An input problem located at `key` (its line looked up in the layout file).
+    pub fn problem(&self, key: &str, message: impl Into<String>, allowed: Option<String>) -> crate::error::InputProblem {
+        crate::error::InputProblem {
+            file: self.source.clone(),
+            line: self.key_lines.get(key).copied(),
+            column: None,
+            key: key.to_string(),
+            message: message.into(),
+            allowed,
+        }
+    }
+}
+
+/// Font text supplied by the layout (same format as `fonts-strokes/`).
+#[derive(Debug, Clone)]
+pub struct FontSource {
+    /// File path as given, for messages.
+    pub path: std::path::PathBuf,
+    /// File contents.
+    pub text: String,
+}
+
+/// Axis-aligned rectangle in mm.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Rect {
+    /// Left edge.
+    pub x: f64,
+    /// Bottom edge.
+    pub y: f64,
+    /// Width (> 0).
+    pub width: f64,
+    /// Height (> 0).
+    pub height: f64,
+}
+
+impl Rect {
+    /// Right edge.
+    pub fn x1(&self) -> f64 {
+        self.x + self.width
+    }
+    /// Top edge.
+    pub fn y1(&self) -> f64 {
+        self.y + self.height
+    }
+    /// The same rectangle shrunk by `d` on every side (grown for negative `d`).
+    pub fn inset(&self, d: f64) -> Rect {
+        Rect { x: self.x + d, y: self.y + d, width: self.width - 2.0 * d, height: self.height - 2.0 * d }
+    }
+    /// True when `other` lies inside this rectangle (edges may touch).
+    pub fn contains_rect(&self, other: &Rect) -> bool {
+        other.x >= self.x - 1e-9
+            && other.y >= self.y - 1e-9
+            && other.x1() <= self.x1() + 1e-9
+            && other.y1() <= self.y1() + 1e-9
+    }
+    /// As a polygon.
+    pub fn polygon(&self) -> crate::geom::Polygon {
+        crate::geom::rect(self.x, self.y, self.x1(), self.y1())
+    }
+}
+
+/// The two glass plates, both in the front-plate frame.
+#[derive(Debug, Clone)]
+pub struct Glass {
+    /// Front (segment) plate; its lower-left corner is the origin.
+    pub front: Rect,
+    /// Back (common) plate, placed relative to the front plate.
+    pub back: Rect,
+}
+
+/// One side of a rectangle.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Side {
+    /// y minimum.
+    Bottom,
+    /// y maximum.
+    Top,
+    /// x minimum.
+    Left,
+    /// x maximum.
+    Right,
+}
+
+impl Side {
+    /// Lower-case name as written in layouts.
+    pub fn name(self) -> &'static str {
+        match self {
+            Side::Bottom => "bottom",
+            Side::Top => "top",
+            Side::Left => "left",
+            Side::Right => "right",
+        }
+    }
+}
+
+/// Photoresist tone, which decides the film's polarity.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Resist {
+    /// Exposed resist dissolves: the film is opaque where ITO stays (clear-field).
+    Positive,
+    /// Exposed resist stays: the film is clear where ITO stays (dark-field).
+    Negative,
+}
+
+/// Process and design rules, all in mm.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Rules {
+    /// Smallest ITO line width after etch.
+    pub min_width: f64,
+    /// Smallest gap between different nets on one plate, as drawn.
+    pub min_gap: f64,
+    /// Etch undercut per edge.
+    pub undercut: f64,
+    /// Whether the films grow every feature by the undercut (etch pre-compensation).
+    pub compensate: bool,
+    /// Smallest line or space the film itself holds.
+    pub film_min_feature: f64,
+    /// How far a common electrode extends beyond the segments it faces.
+    pub backplane_overlap: f64,
+    /// Smallest distance from any ITO (except pads) to the glass edge.
+    pub edge_clearance: f64,
+    /// Width of automatically drawn leads.
+    pub lead_width: f64,
+}
+
+impl Rules {
+    /// How much each edge moves on the film relative to the drawing (the undercut when
+    /// compensating, else 0).
+    pub fn film_bias(&self) -> f64 {
+        if self.compensate { self.undercut } else { 0.0 }
+    }
+    /// Width after etch of a drawn line of width `w`.
+    pub fn etched_width(&self, w: f64) -> f64 {
+        w + 2.0 * self.film_bias() - 2.0 * self.undercut
+    }
+    /// Gap after etch of a drawn gap `g`.
+    pub fn etched_gap(&self, g: f64) -> f64 {
+        g - 2.0 * self.film_bias() + 2.0 * self.undercut
+    }
+    /// Width on the film of a drawn line `w`.
+    pub fn film_width(&self, w: f64) -> f64 {
+        w + 2.0 * self.film_bias()
+    }
+    /// Gap on the film of a drawn gap `g`.
+    pub fn film_gap(&self, g: f64) -> f64 {
+        g - 2.0 * self.film_bias()
+    }
+}
+
+/// Seal ring and its fill port.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Seal {
+    /// Glue line width.
+    pub width: f64,
+    /// Distance from the back glass edge to the seal's outer edge.
+    pub inset: f64,
+    /// Side of the back plate the fill port opens to.
+    pub port_side: Side,
+    /// Centre of the port, measured along its side from the side's lower/left end of the
+    /// back glass.
+    pub port_at: f64,
+    /// Port opening width.
+    pub port_width: f64,
+}
+
+/// Transfer dots.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Transfer {
+    /// Dot diameter.
+    pub diameter: f64,
+    /// Size of the square ITO pad under a dot on each plate.
+    pub pad: f64,
+}
+
+/// The pad row on the ledge of the front plate.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Pads {
+    /// Ledge side the pads sit on.
+    pub side: Side,
+    /// Centre-to-centre pitch.
+    pub pitch: f64,
+    /// Pad width (along the row).
+    pub width: f64,
+    /// Pad length (across the row, into the glass).
+    pub length: f64,
+    /// Distance from the glass edge to the pad's outer end.
+    pub edge_margin: f64,
+    /// Number of the first pin.
+    pub first_pin: u32,
+    /// Centre of the first pad along the side; `None` centres the row on the back plate.
+    pub start: Option<f64>,
+    /// Number of pad positions; `None` makes exactly as many as there are nets.
+    pub count: Option<u32>,
+    /// Fixed pins: net name → pin number.
+    pub fixed: BTreeMap<String, u32>,
+}
+
+/// Drive scheme.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Drive {
+    /// Number of common electrodes (1 = static).
+    pub commons: u32,
+    /// Bias divisor `a` (bias 1/a); `None` for static.
+    pub bias: Option<u32>,
+}
+
+/// Alignment marks.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Marks {
+    /// Outer size of a mark.
+    pub size: f64,
+    /// Line width of the mark strokes.
+    pub line: f64,
+}
+
+/// Segment style of a digit.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum DigitStyle {
+    /// a–g.
+    Seven,
+    /// Fourteen segments (alphanumeric, split middle bar).
+    Fourteen,
+    /// Sixteen segments (split top and bottom bars).
+    Sixteen,
+}
+
+impl DigitStyle {
+    /// Name as written in layouts and in `fonts-strokes/`.
+    pub fn name(self) -> &'static str {
+        match self {
+            DigitStyle::Seven => "seven",
+            DigitStyle::Fourteen => "fourteen",
+            DigitStyle::Sixteen => "sixteen",
+        }
+    }
+}
+
+/// A row of equal digits.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DigitGroup {
+    /// Net name prefix; digit `i` (1-based) segment `s` is net `{name}{i}.{s}`.
+    pub name: String,
+    /// Segment style.
+    pub style: DigitStyle,
+    /// Number of digits.
+    pub count: u32,
+    /// Lower-left corner of the first digit's upright cell.
+    pub origin: Pt,
+    /// Character height.
+    pub height: f64,
+    /// Character width.
+    pub width: f64,
+    /// Distance between digit origins.
+    pub pitch: f64,
+    /// Slant (italic) angle in degrees, positive leans right.
+    pub slant: f64,
+    /// Segment stroke width.
+    pub stroke: f64,
+    /// Gap between neighbouring segments.
+    pub gap: f64,
+    /// Digits (1-based) followed by a decimal point.
+    pub decimal_points: Vec<u32>,
+    /// Digits (1-based) followed by a colon.
+    pub colons: Vec<u32>,
+    /// Which digit positions are half digits showing only `b` and `c` ("1"), 1-based.
+    pub half_digits: Vec<u32>,
+    /// Key path in the layout, for messages.
+    pub key: String,
+}
+
+/// Horizontal alignment of a legend's text relative to its anchor.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Align {
+    /// Anchor at the left end.
+    Left,
+    /// Anchor at the centre.
+    Centre,
+    /// Anchor at the right end.
+    Right,
+}
+
+/// A fixed legend (text that switches as one element).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Legend {
+    /// Net name.
+    pub name: String,
+    /// Text to set.
+    pub text: String,
+    /// Anchor point on the baseline.
+    pub at: Pt,
+    /// Cap height.
+    pub height: f64,
+    /// Stroke width.
+    pub stroke: f64,
+    /// Alignment of the text to the anchor.
+    pub align: Align,
+    /// Key path, for messages.
+    pub key: String,
+}
+
+/// An icon element.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Icon {
+    /// Net name.
+    pub name: String,
+    /// Where its shape comes from.
+    pub shape: IconShape,
+    /// Key path, for messages.
+    pub key: String,
+}
+
+/// Shape of an icon.
+#[derive(Debug, Clone, PartialEq)]
+pub enum IconShape {
+    /// A built-in (or layout-supplied) stroke icon, scaled into a square box.
+    Named {
+        /// Icon name in the font files.
+        icon: String,
+        /// Lower-left corner of its box.
+        at: Pt,
+        /// Box size.
+        size: f64,
+        /// Stroke width.
+        stroke: f64,
+    },
+    /// Rectangle, optionally with rounded corners.
+    Rectangle {
+        /// Lower-left corner.
+        at: Pt,
+        /// Width.
+        width: f64,
+        /// Height.
+        height: f64,
+        /// Corner radius (0 = sharp).
+        corner: f64,
+    },
+    /// Filled circle.
+    Circle {
+        /// Centre.
+        centre: Pt,
+        /// Radius.
+        radius: f64,
+    },
+    /// Annulus.
+    Ring {
+        /// Centre.
+        centre: Pt,
+        /// Outer radius.
+        outer: f64,
+        /// Inner radius (< outer).
+        inner: f64,
+    },
+    /// Closed polygon.
+    Polygon {
+        /// Vertices (at least 3).
+        points: Vec<Pt>,
+    },
+    /// SVG path data (M L H V C S Q T A Z, absolute or relative), y up, in mm, placed at
+    /// `at`; closed sub-paths are filled with the even-odd rule.
+    Path {
+        /// Path data.
+        d: String,
+        /// Offset added to every point.
+        at: Pt,
+    },
+}
+
+/// Which glass plate.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum PlateId {
+    /// Segment plate (viewer side).
+    Front,
+    /// Common plate.
+    Back,
+}
+
+impl PlateId {
+    /// Lower-case name.
+    pub fn name(self) -> &'static str {
+        match self {
+            PlateId::Front => "front",
+            PlateId::Back => "back",
+        }
+    }
+}
+
+/// A bus trace drawn by the user.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Bus {
+    /// Net it belongs to.
+    pub net: String,
+    /// Plate it is on.
+    pub plate: PlateId,
+    /// Trace width.
+    pub width: f64,
+    /// Centre line.
+    pub points: Vec<Pt>,
+    /// Key path, for messages.
+    pub key: String,
+}
+
+/// GDSII layer and datatype of each drawn layer.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LayerMap {
+    /// (layer, datatype) by layer name; names are those of [`crate::artwork::Layer::name`].
+    pub entries: BTreeMap<String, (i16, i16)>,
+}
