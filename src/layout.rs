@@ -460,3 +460,23 @@ pub struct LayerMap {
     /// (layer, datatype) by layer name; names are those of [`crate::artwork::Layer::name`].
     pub entries: BTreeMap<String, (i16, i16)>,
 }
+
+impl LayerMap {
+    /// segmask's own default numbers: ITO of a plate on a multiple of ten, its marks one
+    /// above, cell layers in the thirties, outlines in the forties, window at 50; all
+    /// datatype 0.
+    pub fn defaults() -> LayerMap {
+        let pairs = [
+            ("front_ito", 10),
+            ("front_marks", 11),
+            ("back_ito", 20),
+            ("back_marks", 21),
+            ("seal", 30),
+            ("transfer_dots", 31),
+            ("front_glass", 40),
+            ("back_glass", 41),
+            ("window", 50),
+        ];
+        LayerMap { entries: pairs.iter().map(|(n, l)| (n.to_string(), (*l, 0))).collect() }
+    }
+}
