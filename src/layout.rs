@@ -480,3 +480,33 @@ impl LayerMap {
         LayerMap { entries: pairs.iter().map(|(n, l)| (n.to_string(), (*l, 0))).collect() }
     }
 }
+
+impl DigitStyle {
+    /// Segment names of the style, in drawing order (common practice: `a`–`f` clockwise
+    /// from the top, `g` the middle bar; split bars get `1`/`2`, left before right; the
+    /// inner strokes of the alphanumeric styles are `h`–`m`, clockwise from upper left).
+    pub fn segment_names(self) -> &'static [&'static str] {
+        match self {
+            DigitStyle::Seven => &["a", "b", "c", "d", "e", "f", "g"],
+            DigitStyle::Fourteen => &["a", "b", "c", "d", "e", "f", "g1", "g2", "h", "i", "j", "k", "l", "m"],
+            DigitStyle::Sixteen => &[
+                "a1", "a2", "b", "c", "d1", "d2", "e", "f", "g1", "g2", "h", "i", "j", "k", "l", "m",
+            ],
+        }
+    }
+}
+
+/// Name of the decimal-point segment that follows a digit.
+pub const DECIMAL_POINT: &str = "dp";
+/// Name of the colon element that follows a digit (both dots are one element).
+pub const COLON: &str = "col";
+
+/// Net name of a segment: group name, 1-based digit number, dot, segment name (`D3.g`).
+pub fn segment_net(group: &str, digit: u32, segment: &str) -> String {
+    format!("{group}{digit}.{segment}")
+}
+
+/// Net name of common electrode `index` (0-based): `COM1`, `COM2`, …
+pub fn common_net(index: u32) -> String {
+    format!("COM{}", index + 1)
+}
