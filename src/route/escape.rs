@@ -86,8 +86,9 @@ fn base_grid(layout: &Layout, frame: &SideFrame, nets: &[NetPieces]) -> Grid {
     let h = super::grid_step(layout);
     let mut g = Grid::new(f.x, f.y, f.x1(), f.y1(), h);
     let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
-    let strip = frame.rect_global(frame.u_lc.0, frame.v_lc - 3.0 * h, frame.u_lc.1, frame.v_lc + h);
-    let inner = lc.inset(layout.rules.lead_width / 2.0 + h);
+    let margin = layout.rules.lead_width / 2.0 + h;
+    let strip = frame.rect_global(frame.u_lc.0 + margin, frame.v_lc - 3.0 * h, frame.u_lc.1 - margin, frame.v_lc + margin + h);
+    let inner = lc.inset(margin);
     g.block_outside(&crate::geom::union_all([inner.polygon(), strip]));
     let k = keepout(layout, h);
     for (i, n) in nets.iter().enumerate() {

@@ -310,3 +310,5 @@ fn report_crossings(arrivals: &[(String, Vec<Pt>, fanout::Arrival)], pad_idx: &[
         }
     }
 }
+#[cfg(test)]
+mod tests;
