@@ -10,7 +10,7 @@
 //! cut crosses a slanted edge the new vertex is rounded to the grid, so the pieces may
 //! differ from the polygon by less than half a nanometre along the cut.
 
-use crate::geom::{intersection, rect, region_of, snap, snap_value, Polygon};
+use crate::geom::{intersection, orient_ccw, rect, region_of, snap, snap_value, Polygon};
 use crate::{Error, Result};
 
 /// Most points a boundary may hold, closing point included. The format allows 8191
@@ -30,7 +30,9 @@ pub type NmRing = Vec<(i32, i32)>;
 /// The boundary rings that together cover `p` exactly (to the 1 nm grid).
 pub fn boundary_rings(p: &Polygon) -> Result<Vec<NmRing>> {
     let mut out = Vec::new();
-    for piece in hole_free(snap(p), 0)? {
+    // Holes wound like their outer ring would fill under the non-zero rule that
+    // `geom::intersection` uses (DESIGN.md §7), so orient first.
+    for piece in hole_free(orient_ccw(&snap(p)), 0)? {
         limit_points(&piece, 0, &mut out)?;
     }
     Ok(out)
@@ -49,7 +51,7 @@ fn cut_at(p: &Polygon, xc: f64) -> Vec<Polygon> {
     let whole = region_of([p.clone()]);
     let mut out = intersection(&whole, &region_of([rect(x0 - 1.0, y0, xc, y1)])).0;
     out.extend(intersection(&whole, &region_of([rect(xc, y0, x1 + 1.0, y1)])).0);
-    out.into_iter().map(|q| snap(&q)).collect()
+    out.into_iter().map(|q| orient_ccw(&snap(&q))).collect()
 }
 
 /// Cuts `p` through its holes until no piece has one.

@@ -139,6 +139,7 @@ mod tests {
     #[test]
     fn width_counts_advances() {
         assert_eq!(text_width("AB", 6.0), 10.0);
-        assert!((fit_height("ABCDE", 6.0, 13.0) - 3.0).abs() < 1e-12);
+        // "ABCDE" at cap height 6 is 4 advances of 6 plus one cell of 4 = 28 wide.
+        assert!((fit_height("ABCDE", 6.0, 14.0) - 3.0).abs() < 1e-12);
     }
 }
