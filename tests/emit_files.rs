@@ -4,7 +4,7 @@
 mod emit_fixture;
 
 use emit_fixture::*;
-use segmask::emit::{render_outputs, write_atomically, EmitOptions, OutputFile};
+use segmask::emit::{EmitOptions, OutputFile, render_outputs, write_atomically};
 
 fn names(files: &[OutputFile]) -> Vec<&str> {
     files.iter().map(|f| f.name.as_str()).collect()
@@ -15,7 +15,14 @@ fn clean_build_gives_all_six_files() {
     let files = render_outputs(&artwork(), &[warning()], &opts()).unwrap();
     assert_eq!(
         names(&files),
-        ["fixture.front.svg", "fixture.back.svg", "fixture.preview.svg", "fixture.gds", "fixture.pins.csv", "fixture.report.json"]
+        [
+            "fixture.front.svg",
+            "fixture.back.svg",
+            "fixture.preview.svg",
+            "fixture.gds",
+            "fixture.pins.csv",
+            "fixture.report.json"
+        ]
     );
 }
 
@@ -87,8 +94,7 @@ fn preview_marks_findings_and_pins() {
     // Parsed by resvg's tree builder: a well-formed SVG in mm.
     let tree = resvg::usvg::Tree::from_str(svg, &resvg::usvg::Options::default()).unwrap();
     assert!(tree.size().width() > 0.0);
-    let texts: Vec<&str> =
-        svg.split("</text>").filter_map(|t| t.rsplit('>').next()).map(str::trim).collect();
+    let texts: Vec<&str> = svg.split("</text>").filter_map(|t| t.rsplit('>').next()).map(str::trim).collect();
     assert!(texts.contains(&"gap"), "finding's rule code in {texts:?}");
     assert!(texts.contains(&"1") && texts.contains(&"2"), "pin numbers in {texts:?}");
     assert!(svg.contains("id=\"findings\"") && svg.contains("id=\"legend\""));

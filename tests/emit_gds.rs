@@ -7,7 +7,7 @@ mod emit_fixture;
 use emit_fixture::*;
 use geo::{Contains, Validation};
 use segmask::artwork::Layer;
-use segmask::emit::{render_outputs, MAX_BOUNDARY_POINTS};
+use segmask::emit::{MAX_BOUNDARY_POINTS, render_outputs};
 
 /// One record: type code (record type << 8 | data type) and data bytes.
 struct Record {
@@ -82,11 +82,12 @@ fn boundaries(recs: &[Record]) -> Vec<(i16, Vec<(i32, i32)>)> {
 
 /// Twice the signed area by the shoelace formula, in exact integer arithmetic.
 fn shoelace2(r: &[(i64, i64)]) -> i128 {
-    (0..r.len()).map(|i| {
-        let (a, b) = (r[i], r[(i + 1) % r.len()]);
-        a.0 as i128 * b.1 as i128 - b.0 as i128 * a.1 as i128
-    })
-    .sum()
+    (0..r.len())
+        .map(|i| {
+            let (a, b) = (r[i], r[(i + 1) % r.len()]);
+            a.0 as i128 * b.1 as i128 - b.0 as i128 * a.1 as i128
+        })
+        .sum()
 }
 
 fn gds() -> Vec<u8> {
@@ -116,11 +117,8 @@ fn header_library_and_units_follow_release_6() {
     // the rounding rule, so only the first seven are compared.
     assert_eq!(&recs[3].data[..7], &[0x3E, 0x41, 0x89, 0x37, 0x4B, 0xC6, 0xA7]);
     assert_eq!(recs.last().unwrap().code, ENDLIB);
-    let names: Vec<String> = recs
-        .windows(2)
-        .filter(|w| w[0].code == BGNSTR && w[1].code == STRNAME)
-        .map(|w| string(&w[1].data))
-        .collect();
+    let names: Vec<String> =
+        recs.windows(2).filter(|w| w[0].code == BGNSTR && w[1].code == STRNAME).map(|w| string(&w[1].data)).collect();
     assert_eq!(names, ["FRONT", "BACK", "CELL", "TOP"]);
 }
 
@@ -160,7 +158,8 @@ fn hole_is_split_keeping_area_exactly() {
         .on_layer(Layer::BackIto)
         .map(|s| {
             let outer = shoelace2(&s.polygon.exterior().0.iter().map(nm).collect::<Vec<_>>()).abs();
-            let holes: i128 = s.polygon.interiors().iter().map(|h| shoelace2(&h.0.iter().map(nm).collect::<Vec<_>>()).abs()).sum();
+            let holes: i128 =
+                s.polygon.interiors().iter().map(|h| shoelace2(&h.0.iter().map(nm).collect::<Vec<_>>()).abs()).sum();
             outer - holes
         })
         .sum();

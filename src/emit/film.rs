@@ -11,10 +11,10 @@
 use super::page::{self, TextPlace};
 use super::report::resist_name;
 use super::ruler;
-use super::svg_path::{push_polygon, push_ring, PageMap};
+use super::svg_path::{PageMap, push_polygon, push_ring};
 use super::text::{fit_height, stroke_width, text_strokes};
-use crate::artwork::{Artwork, Layer, Label};
-use crate::geom::{pt, Polygon};
+use crate::artwork::{Artwork, Label, Layer};
+use crate::geom::{Polygon, pt};
 use crate::layout::{PlateId, Resist};
 use crate::{Error, Result};
 

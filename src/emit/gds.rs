@@ -9,7 +9,9 @@
 use super::split::boundary_rings;
 use crate::geom::{Polygon, Pt};
 use crate::{Error, Result};
-use gds21::{GdsBoundary, GdsDateTimes, GdsElement, GdsLibrary, GdsPoint, GdsStruct, GdsStructRef, GdsTextElem, GdsUnits};
+use gds21::{
+    GdsBoundary, GdsDateTimes, GdsElement, GdsLibrary, GdsPoint, GdsStruct, GdsStructRef, GdsTextElem, GdsUnits,
+};
 
 /// Stream format version written in HEADER (release 6.0 writes 600).
 const VERSION: i16 = 600;
@@ -91,10 +93,7 @@ pub fn parse_date(date: &str) -> Option<chrono::NaiveDateTime> {
 /// units; every date is `date`.
 pub fn library_bytes(name: &str, date: chrono::NaiveDateTime, cells: Vec<Cell>) -> Result<Vec<u8>> {
     let dates = GdsDateTimes { modified: date, accessed: date };
-    let structs = cells
-        .into_iter()
-        .map(|c| GdsStruct { name: c.name, dates: dates.clone(), elems: c.elems })
-        .collect();
+    let structs = cells.into_iter().map(|c| GdsStruct { name: c.name, dates: dates.clone(), elems: c.elems }).collect();
     let lib = GdsLibrary {
         name: gds_name(name),
         version: VERSION,

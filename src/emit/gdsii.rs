@@ -7,12 +7,12 @@
 //! places the three at the origin. A mask shop can take one plate's structure alone;
 //! a viewer opening `TOP` sees the plates overlaid as the display's viewer does.
 
-use super::gds::{library_bytes, Cell};
+use super::gds::{Cell, library_bytes};
 use super::layer_polygons;
+use crate::Result;
 use crate::artwork::{Artwork, Layer};
 use crate::geom::interior_point;
 use crate::layout::PlateId;
-use crate::Result;
 
 /// Structure names.
 const FRONT: &str = "FRONT";

@@ -7,8 +7,8 @@
 
 use super::svg_path::{num, push_page_polyline};
 use super::text::{stroke_width, text_strokes, text_width};
-use svg::node::element::{Path, Title};
 use svg::Document;
+use svg::node::element::{Path, Title};
 
 /// A page of `width` × `height` mm with a `<title>`.
 pub fn document(width: f64, height: f64, title: &str) -> Document {

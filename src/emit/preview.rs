@@ -9,11 +9,11 @@
 
 use super::layer_polygons;
 use super::page;
-use super::svg_path::{num, push_polygon, PageMap};
-use crate::artwork::{Artwork, Layer};
-use crate::finding::{count, Finding, Severity};
-use crate::geom::Polygon;
+use super::svg_path::{PageMap, num, push_polygon};
 use crate::Result;
+use crate::artwork::{Artwork, Layer};
+use crate::finding::{Finding, Severity, count};
+use crate::geom::Polygon;
 use svg::node::element::{Circle, Group, Rectangle, Text};
 
 /// Margin around the drawing, mm.
@@ -69,10 +69,11 @@ fn severity_colour(s: Severity) -> &'static str {
 
 /// Bounding box of some polygons.
 fn bbox<'a>(polys: impl Iterator<Item = &'a Polygon>) -> Option<(f64, f64, f64, f64)> {
-    let b = polys.flat_map(|p| p.exterior().0.iter()).fold(
-        (f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY),
-        |b, q| (b.0.min(q.x), b.1.min(q.y), b.2.max(q.x), b.3.max(q.y)),
-    );
+    let b = polys
+        .flat_map(|p| p.exterior().0.iter())
+        .fold((f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY), |b, q| {
+            (b.0.min(q.x), b.1.min(q.y), b.2.max(q.x), b.3.max(q.y))
+        });
     (b.0 <= b.2 && b.1 <= b.3).then_some(b)
 }
 
@@ -132,7 +133,15 @@ fn findings_group(findings: &[Finding], map: &PageMap, r: f64) -> Group {
     for f in findings {
         let (x, y) = map.apply(f.location);
         let c = severity_colour(f.severity);
-        g = g.add(Circle::new().set("cx", num(x)).set("cy", num(y)).set("r", num(r)).set("fill", "none").set("stroke", c).set("stroke-width", num(r / 5.0)));
+        g = g.add(
+            Circle::new()
+                .set("cx", num(x))
+                .set("cy", num(y))
+                .set("r", num(r))
+                .set("fill", "none")
+                .set("stroke", c)
+                .set("stroke-width", num(r / 5.0)),
+        );
         g = g.add(label(x, y - 1.6 * r, r, c, f.rule.code()));
     }
     g
@@ -148,28 +157,57 @@ fn legend(x: f64, y: f64, findings: &[Finding]) -> Group {
             let (c, o) = st.fill.unwrap_or(("none", 1.0));
             (st.text.to_string(), if c == "none" { st.line } else { c }, if c == "none" { 0.0 } else { o })
         })
-        .chain([Severity::Error, Severity::Warning, Severity::Note].map(|s| {
-            (format!("{}s: {}", s.name(), count(findings, s)), severity_colour(s), -1.0)
-        }))
+        .chain(
+            [Severity::Error, Severity::Warning, Severity::Note]
+                .map(|s| (format!("{}s: {}", s.name(), count(findings, s)), severity_colour(s), -1.0)),
+        )
         .collect();
     let h = row * (rows.len() as f64 + 1.0);
     let mut g = Group::new().set("id", "legend").add(
-        Rectangle::new().set("x", num(x)).set("y", num(y)).set("width", num(LEGEND_W - 4.0)).set("height", num(h))
-            .set("fill", "#ffffff").set("stroke", "#444444").set("stroke-width", "0.2"),
+        Rectangle::new()
+            .set("x", num(x))
+            .set("y", num(y))
+            .set("width", num(LEGEND_W - 4.0))
+            .set("height", num(h))
+            .set("fill", "#ffffff")
+            .set("stroke", "#444444")
+            .set("stroke-width", "0.2"),
     );
     g = g.add(label(x + (LEGEND_W - 4.0) / 2.0, y + row * 0.6, 2.2, "#000000", "legend"));
     for (i, (text, colour, opacity)) in rows.iter().enumerate() {
         let cy = y + row * (i as f64 + 1.5);
         let sw = if *opacity < 0.0 {
-            Group::new().add(Circle::new().set("cx", num(x + 5.0)).set("cy", num(cy)).set("r", "1.5").set("fill", "none").set("stroke", *colour).set("stroke-width", "0.3"))
+            Group::new().add(
+                Circle::new()
+                    .set("cx", num(x + 5.0))
+                    .set("cy", num(cy))
+                    .set("r", "1.5")
+                    .set("fill", "none")
+                    .set("stroke", *colour)
+                    .set("stroke-width", "0.3"),
+            )
         } else {
-            Group::new().add(Rectangle::new().set("x", num(x + 3.0)).set("y", num(cy - 1.5)).set("width", "4").set("height", "3")
-                .set("fill", *colour).set("fill-opacity", num(*opacity)).set("stroke", *colour).set("stroke-width", "0.2"))
+            Group::new().add(
+                Rectangle::new()
+                    .set("x", num(x + 3.0))
+                    .set("y", num(cy - 1.5))
+                    .set("width", "4")
+                    .set("height", "3")
+                    .set("fill", *colour)
+                    .set("fill-opacity", num(*opacity))
+                    .set("stroke", *colour)
+                    .set("stroke-width", "0.2"),
+            )
         };
         g = g.add(sw);
         g = g.add(
-            Text::new(text.as_str()).set("x", num(x + 9.0)).set("y", num(cy)).set("font-family", "sans-serif")
-                .set("font-size", "2.2").set("dominant-baseline", "central").set("fill", "#000000"),
+            Text::new(text.as_str())
+                .set("x", num(x + 9.0))
+                .set("y", num(cy))
+                .set("font-family", "sans-serif")
+                .set("font-size", "2.2")
+                .set("dominant-baseline", "central")
+                .set("fill", "#000000"),
         );
     }
     g
@@ -193,8 +231,12 @@ pub fn render_preview(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
     for l in &art.labels {
         let (x, y) = map.apply(l.at);
         doc = doc.add(
-            Text::new(l.text.as_str()).set("x", num(x)).set("y", num(y)).set("font-family", "sans-serif")
-                .set("font-size", num(l.height)).set("fill", "#555555"),
+            Text::new(l.text.as_str())
+                .set("x", num(x))
+                .set("y", num(y))
+                .set("font-family", "sans-serif")
+                .set("font-size", num(l.height))
+                .set("fill", "#555555"),
         );
     }
     doc = doc.add(findings_group(findings, &map, (w.max(h) / 60.0).clamp(0.5, 3.0)));

@@ -5,7 +5,7 @@
 //! errors and warnings. Keys end in their unit (`_mm`, `_mm2`).
 
 use crate::artwork::{Artwork, Layer, NetKind};
-use crate::finding::{count, Finding, Severity};
+use crate::finding::{Finding, Severity, count};
 use crate::layout::Resist;
 use crate::{Error, Result};
 use serde::Serialize;

@@ -5,7 +5,7 @@
 //! mm. Printers and viewers rescale pages (DESIGN.md §3), so the ruler is measured with
 //! a good steel rule before a film is used.
 
-use super::page::{polylines_d, stroke, text, TextPlace};
+use super::page::{TextPlace, polylines_d, stroke, text};
 use super::text::text_width;
 use svg::node::element::Group;
 

@@ -10,7 +10,7 @@
 //! cut crosses a slanted edge the new vertex is rounded to the grid, so the pieces may
 //! differ from the polygon by less than half a nanometre along the cut.
 
-use crate::geom::{intersection, orient_ccw, rect, region_of, snap, snap_value, Polygon};
+use crate::geom::{Polygon, intersection, orient_ccw, rect, region_of, snap, snap_value};
 use crate::{Error, Result};
 
 /// Most points a boundary may hold, closing point included. The format allows 8191

@@ -68,11 +68,12 @@ pub fn num(v: f64) -> String {
 /// Twice the signed area of a ring (positive when counter-clockwise, y up).
 pub fn signed_area2(ring: &[Pt]) -> f64 {
     let n = ring.len();
-    (0..n).map(|i| {
-        let (a, b) = (ring[i], ring[(i + 1) % n]);
-        a.x * b.y - b.x * a.y
-    })
-    .sum()
+    (0..n)
+        .map(|i| {
+            let (a, b) = (ring[i], ring[(i + 1) % n]);
+            a.x * b.y - b.x * a.y
+        })
+        .sum()
 }
 
 /// Appends one closed ring as `M … L … Z` in page coordinates; `ccw` chooses the

@@ -7,10 +7,10 @@
 #![allow(dead_code)]
 
 use segmask::artwork::*;
-use segmask::finding::{Finding, Rule, Severity};
-use segmask::geom::{area, circle, pt, rect, Polygon, Pt};
-use segmask::layout::{LayerMap, PlateId, Resist, Rules};
 use segmask::emit::EmitOptions;
+use segmask::finding::{Finding, Rule, Severity};
+use segmask::geom::{Polygon, Pt, area, circle, pt, rect};
+use segmask::layout::{LayerMap, PlateId, Resist, Rules};
 
 /// A polygon from an outer ring and holes given as corner lists.
 pub fn poly(outer: &[(f64, f64)], holes: &[&[(f64, f64)]]) -> Polygon {
@@ -35,9 +35,18 @@ pub fn cross() -> Polygon {
     let (c, a, w) = ((3.0, 20.0), 1.0, 0.2);
     poly(
         &[
-            (c.0 - w, c.1 - a), (c.0 + w, c.1 - a), (c.0 + w, c.1 - w), (c.0 + a, c.1 - w),
-            (c.0 + a, c.1 + w), (c.0 + w, c.1 + w), (c.0 + w, c.1 + a), (c.0 - w, c.1 + a),
-            (c.0 - w, c.1 + w), (c.0 - a, c.1 + w), (c.0 - a, c.1 - w), (c.0 - w, c.1 - w),
+            (c.0 - w, c.1 - a),
+            (c.0 + w, c.1 - a),
+            (c.0 + w, c.1 - w),
+            (c.0 + a, c.1 - w),
+            (c.0 + a, c.1 + w),
+            (c.0 + w, c.1 + w),
+            (c.0 + w, c.1 + a),
+            (c.0 - w, c.1 + a),
+            (c.0 - w, c.1 + w),
+            (c.0 - a, c.1 + w),
+            (c.0 - a, c.1 - w),
+            (c.0 - w, c.1 - w),
         ],
         &[],
     )
@@ -92,13 +101,22 @@ pub fn artwork() -> Artwork {
         name: "fixture".into(),
         shapes,
         nets: vec![
-            Net { name: "S1".into(), plate: PlateId::Front, kind: NetKind::Segment, index: 0, drives: "square S1".into() },
-            Net { name: "COM1".into(), plate: PlateId::Back, kind: NetKind::Common, index: 0, drives: "common electrode 1".into() },
+            Net {
+                name: "S1".into(),
+                plate: PlateId::Front,
+                kind: NetKind::Segment,
+                index: 0,
+                drives: "square S1".into(),
+            },
+            Net {
+                name: "COM1".into(),
+                plate: PlateId::Back,
+                kind: NetKind::Common,
+                index: 0,
+                drives: "common electrode 1".into(),
+            },
         ],
-        pins: vec![
-            Pin { number: 2, net: "COM1".into(), pad: pad2 },
-            Pin { number: 1, net: "S1".into(), pad: pad1 },
-        ],
+        pins: vec![Pin { number: 2, net: "COM1".into(), pad: pad2 }, Pin { number: 1, net: "S1".into(), pad: pad1 }],
         pixels: vec![Pixel {
             element: "S1".into(),
             seg_net: "S1".into(),
@@ -135,7 +153,14 @@ pub fn warning() -> Finding {
 
 /// An error finding.
 pub fn error() -> Finding {
-    Finding { rule: Rule::Short, severity: Severity::Error, measured: None, required: None, message: "S1 touches COM1".into(), ..warning() }
+    Finding {
+        rule: Rule::Short,
+        severity: Severity::Error,
+        measured: None,
+        required: None,
+        message: "S1 touches COM1".into(),
+        ..warning()
+    }
 }
 
 /// Options with a fixed date.
@@ -155,7 +180,8 @@ pub fn layer_perimeter(art: &Artwork, layers: &[Layer]) -> f64 {
         .iter()
         .filter(|s| layers.contains(&s.layer))
         .map(|s| {
-            Euclidean.length(s.polygon.exterior()) + s.polygon.interiors().iter().map(|h| Euclidean.length(h)).sum::<f64>()
+            Euclidean.length(s.polygon.exterior())
+                + s.polygon.interiors().iter().map(|h| Euclidean.length(h)).sum::<f64>()
         })
         .sum()
 }
