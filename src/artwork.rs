@@ -10,7 +10,7 @@
 
 use crate::finding::Finding;
 use crate::geom::{Polygon, Pt, Region};
-use crate::layout::{LayerMap, PlateId, Rules};
+use crate::layout::{LayerMap, PlateId, Resist, Rules};
 
 /// A drawn layer. ITO and mark layers belong to one plate; the seal, transfer dots and
 /// window lie between the plates.
@@ -223,6 +223,8 @@ pub struct Artwork {
     pub rules: Rules,
     /// GDSII layer map.
     pub layers: LayerMap,
+    /// Photoresist tone, which decides whether the films are clear-field or dark-field.
+    pub resist: Resist,
     /// Problems found while generating (unroutable leads and the like).
     pub generation_findings: Vec<Finding>,
 }
