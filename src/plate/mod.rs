@@ -69,6 +69,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         back_glass,
         labels: labels(layout),
         rules: layout.rules.clone(),
+        resist: layout.resist,
         layers: layout.layers.clone(),
         generation_findings: routes.findings.clone(),
     })
