@@ -225,6 +225,10 @@ pub struct Artwork {
     pub layers: LayerMap,
     /// Photoresist tone, which decides whether the films are clear-field or dark-field.
     pub resist: Resist,
+    /// The etched layers as the films carry them when the rules ask for etch
+    /// compensation: each net's ITO grown by the undercut. Empty when films carry the
+    /// drawn shapes.
+    pub film_shapes: Vec<Shape>,
     /// Problems found while generating (unroutable leads and the like).
     pub generation_findings: Vec<Finding>,
 }
@@ -233,6 +237,13 @@ impl Artwork {
     /// Polygons on one layer.
     pub fn on_layer(&self, layer: Layer) -> impl Iterator<Item = &Shape> {
         self.shapes.iter().filter(move |s| s.layer == layer)
+    }
+
+    /// Polygons of an etched layer as the film must print them: the compensated
+    /// `film_shapes` when there are any, else the drawn shapes.
+    pub fn film_layer(&self, layer: Layer) -> impl Iterator<Item = &Shape> {
+        let source = if self.film_shapes.is_empty() { &self.shapes } else { &self.film_shapes };
+        source.iter().filter(move |s| s.layer == layer)
     }
 
     /// The glass outline of a plate.

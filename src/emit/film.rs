@@ -82,7 +82,7 @@ fn frame(glass: &Polygon, mirrored: bool) -> Result<Frame> {
 fn etched_d(art: &Artwork, plate: PlateId, map: &PageMap) -> String {
     let mut d = String::new();
     for layer in etched_layers(plate) {
-        for s in art.on_layer(layer) {
+        for s in art.film_layer(layer) {
             push_polygon(&mut d, &s.polygon, map);
         }
     }
@@ -131,7 +131,7 @@ fn title_lines(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Vec<
     };
     let mut lines = vec![
         format!("{} - {} FILM", art.name, plate_words(plate)),
-        format!("{tone} FOR {} RESIST - {reading} - SIZE AS DRAWN, 1:1 - {date}", resist_name(art.resist)),
+        format!("{tone} FOR {} RESIST - {reading} - 1:1 - {date}", resist_name(art.resist)),
     ];
     if errors > 0 {
         lines.push(format!("NOT CHECKED CLEAN: {errors} RULE ERROR(S) - SEE REPORT"));

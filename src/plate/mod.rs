@@ -54,6 +54,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
     shapes.push(Shape { layer: Layer::FrontGlass, role: Role::Outline, net: None, polygon: front_glass.clone() });
     shapes.push(Shape { layer: Layer::BackGlass, role: Role::Outline, net: None, polygon: back_glass.clone() });
     shapes.push(Shape { layer: Layer::Window, role: Role::Outline, net: None, polygon: window.clone() });
+    let shapes_for_film = shapes.clone();
     let ledge = difference(&region_of([front_glass.clone()]), &region_of([back_glass.clone()]));
     Ok(Artwork {
         name: layout.name.clone(),
@@ -71,8 +72,29 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         rules: layout.rules.clone(),
         resist: layout.resist,
         layers: layout.layers.clone(),
+        film_shapes: film_shapes(layout, &shapes_for_film),
         generation_findings: routes.findings.clone(),
     })
+}
+
+/// When compensating, every net's etched ITO grown by the undercut with mitred corners
+/// (so the etched result comes back to the drawing); nothing otherwise.
+fn film_shapes(layout: &Layout, shapes: &[Shape]) -> Vec<Shape> {
+    let bias = layout.rules.film_bias();
+    if bias <= 0.0 {
+        return Vec::new();
+    }
+    let mut groups: std::collections::BTreeMap<(Layer, Option<String>), (Role, Vec<Polygon>)> = Default::default();
+    for s in shapes.iter().filter(|s| s.layer.is_etched()) {
+        let e = groups.entry((s.layer, s.net.clone())).or_insert((s.role, Vec::new()));
+        e.1.push(s.polygon.clone());
+    }
+    let mut out = Vec::new();
+    for ((layer, net), (role, polys)) in groups {
+        let grown = crate::geom::offset_mitre(&union_all(polys), bias);
+        out.extend(grown.0.into_iter().map(|p| Shape { layer, role, net: net.clone(), polygon: p }));
+    }
+    out
 }
 
 fn front_net_parts(routes: &Routes, net: &str) -> Vec<Polygon> {

@@ -133,6 +133,7 @@ pub fn artwork() -> Artwork {
         rules: rules(),
         layers: LayerMap::defaults(),
         resist: Resist::Positive,
+        film_shapes: vec![],
         generation_findings: vec![],
     }
 }
