@@ -133,6 +133,9 @@ fn title_lines(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Vec<
         format!("{} - {} FILM", art.name, plate_words(plate)),
         format!("{tone} FOR {} RESIST - {reading} - 1:1 - {date}", resist_name(art.resist)),
     ];
+    if !art.film_shapes.is_empty() {
+        lines.push(format!("ETCH COMPENSATED: FEATURES GROWN {:.1} UM PER EDGE", art.rules.film_bias() * 1000.0));
+    }
     if errors > 0 {
         lines.push(format!("NOT CHECKED CLEAN: {errors} RULE ERROR(S) - SEE REPORT"));
     }
