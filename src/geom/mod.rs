@@ -7,6 +7,8 @@
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
 mod shapes;
+pub mod path;
+pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
 
 pub use shapes::{circle, rect, regular_arc_step, ring, stroke_polyline};
 
