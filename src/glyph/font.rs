@@ -108,12 +108,25 @@ pub struct ColonSpec {
     pub high: f64,
 }
 
+/// One segment of a skeleton.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SegmentDef {
+    /// Segment name (`a`, `g1`, …).
+    pub name: String,
+    /// One end of the centre line, unit cell.
+    pub from: Pt,
+    /// The other end.
+    pub to: Pt,
+    /// A minor segment gives way at its ends: it is cut parallel to the segments it
+    /// meets, a gap clear of their edges, and they are mitred as if it were not there.
+    pub minor: bool,
+}
+
 /// A digit style's skeleton: segment centrelines in the unit cell.
 #[derive(Debug, Clone, PartialEq)]
 pub struct SkeletonDef {
-    /// Segment name and centreline end points; (0,0) is the lower-left and (1,1) the
-    /// upper-right centreline corner.
-    pub segments: Vec<(String, Pt, Pt)>,
+    /// Segments; (0,0) is the lower-left and (1,1) the upper-right centreline corner.
+    pub segments: Vec<SegmentDef>,
     /// Decimal point.
     pub dp: DotSpec,
     /// Colon.
@@ -146,7 +159,7 @@ enum Block {
 }
 
 struct StyleDraft {
-    segments: Vec<(String, Pt, Pt)>,
+    segments: Vec<SegmentDef>,
     dp: Option<DotSpec>,
     colon: Option<ColonSpec>,
     origin: Origin,
@@ -363,16 +376,17 @@ impl Reader<'_> {
         let w = self.words(rest);
         match word {
             "segment" => {
-                if w.len() != 5 {
-                    return Err(self.problem("expected `segment <name> <u0> <v0> <u1> <v1>`", None));
+                let minor = w.len() == 6 && w[5] == "minor";
+                if w.len() != 5 && !minor {
+                    return Err(self.problem("expected `segment <name> <u0> <v0> <u1> <v1> [minor]`", None));
                 }
-                let v: Vec<f64> = w[1..].iter().map(|x| self.number(x)).collect::<R<_>>()?;
+                let v: Vec<f64> = w[1..5].iter().map(|x| self.number(x)).collect::<R<_>>()?;
                 let (a, b) = (pt(v[0], v[1]), pt(v[2], v[3]));
                 if a == b {
                     return Err(self.problem("a segment needs two different end points", None));
                 }
                 let Block::Style(_, d) = &mut self.block else { unreachable!() };
-                d.segments.push((w[0].to_string(), a, b));
+                d.segments.push(SegmentDef { name: w[0].to_string(), from: a, to: b, minor });
             }
             "dp" => {
                 if w.len() != 3 {
@@ -413,7 +427,7 @@ impl Reader<'_> {
     fn finish_style(&mut self, style: DigitStyle, d: StyleDraft) -> R<()> {
         let at = |r: &Self| InputProblem { line: Some(d.origin.line), ..r.problem("", None) };
         let want: Vec<&str> = style.segment_names().to_vec();
-        let mut have: Vec<&str> = d.segments.iter().map(|s| s.0.as_str()).collect();
+        let mut have: Vec<&str> = d.segments.iter().map(|s| s.name.as_str()).collect();
         have.sort();
         let mut sorted = want.clone();
         sorted.sort();
@@ -443,7 +457,7 @@ impl Reader<'_> {
             Block::Icon(_, size, _) => *size,
             _ => 1.0,
         };
-        let prim = self.prim(word, rest, 1.0 / scale)?;
+        let prim = self.prim(word, rest, scale)?;
         match &mut self.block {
             Block::Glyph(_, g) => g.marks.push(Mark { prim, cut }),
             Block::Icon(_, _, i) => i.marks.push(Mark { prim, cut }),
@@ -452,19 +466,19 @@ impl Reader<'_> {
         Ok(())
     }
 
-    fn points(&self, rest: &str, k: f64, min: usize) -> R<Vec<Pt>> {
+    fn points(&self, rest: &str, unit: f64, min: usize) -> R<Vec<Pt>> {
         let v: Vec<f64> = self.words(rest).iter().map(|x| self.number(x)).collect::<R<_>>()?;
         if v.len() % 2 != 0 {
             return Err(self.problem("coordinates must come in x y pairs", None));
         }
-        let p: Vec<Pt> = v.chunks(2).map(|c| pt(c[0] * k, c[1] * k)).collect();
+        let p: Vec<Pt> = v.chunks(2).map(|c| pt(c[0] / unit, c[1] / unit)).collect();
         if p.len() < min {
             return Err(self.problem(format!("needs at least {min} point(s), found {}", p.len()), None));
         }
         Ok(p)
     }
 
-    fn rect_args(&self, rest: &str, k: f64) -> R<(Pt, Pt, f64)> {
+    fn rect_args(&self, rest: &str, unit: f64) -> R<(Pt, Pt, f64)> {
         let w = self.words(rest);
         if w.len() != 4 && w.len() != 5 {
             return Err(self.problem("expected `x0 y0 x1 y1 [corner radius]`", None));
@@ -474,39 +488,40 @@ impl Reader<'_> {
         if r < 0.0 || v[0] == v[2] || v[1] == v[3] {
             return Err(self.problem("a rectangle needs two different corners and a corner radius ≥ 0", None));
         }
-        Ok((pt(v[0] * k, v[1] * k), pt(v[2] * k, v[3] * k), r * k))
+        Ok((pt(v[0] / unit, v[1] / unit), pt(v[2] / unit, v[3] / unit), r / unit))
     }
 
-    fn prim(&self, word: &str, rest: &str, k: f64) -> R<Prim> {
+    /// One primitive; coordinates are divided by `unit` (the cap height or box size).
+    fn prim(&self, word: &str, rest: &str, unit: f64) -> R<Prim> {
         Ok(match word {
-            "line" => Prim::Line(self.points(rest, k, 1)?),
-            "loop" => Prim::Loop(self.points(rest, k, 3)?),
-            "fill" => Prim::Fill(self.points(rest, k, 3)?),
+            "line" => Prim::Line(self.points(rest, unit, 1)?),
+            "loop" => Prim::Loop(self.points(rest, unit, 3)?),
+            "fill" => Prim::Fill(self.points(rest, unit, 3)?),
             "arc" => {
                 let v = self.numbers(rest, 5)?;
                 let r = self.positive(v[2], "radius")?;
                 if v[3] == v[4] {
                     return Err(self.problem("an arc needs different start and end angles", None));
                 }
-                Prim::Arc(pt(v[0] * k, v[1] * k), r * k, v[3], v[4])
+                Prim::Arc(pt(v[0] / unit, v[1] / unit), r / unit, v[3], v[4])
             }
             "circle" | "disc" => {
                 let v = self.numbers(rest, 3)?;
-                let r = self.positive(v[2], "radius")? * k;
-                let c = pt(v[0] * k, v[1] * k);
+                let r = self.positive(v[2], "radius")? / unit;
+                let c = pt(v[0] / unit, v[1] / unit);
                 if word == "circle" { Prim::Circle(c, r) } else { Prim::Disc(c, r) }
             }
             "box" => {
-                let (a, b, r) = self.rect_args(rest, k)?;
+                let (a, b, r) = self.rect_args(rest, unit)?;
                 Prim::Frame(a, b, r)
             }
             "block" => {
-                let (a, b, r) = self.rect_args(rest, k)?;
+                let (a, b, r) = self.rect_args(rest, unit)?;
                 Prim::Block(a, b, r)
             }
             "path" | "fillpath" => {
                 let subs = parse_svg_path(rest.trim()).map_err(|e| self.problem(e.to_string(), Some(PATH_COMMANDS)))?;
-                let subs: Vec<SubPath> = subs.iter().map(|s| s.mapped(k, 0.0, 0.0)).collect();
+                let subs: Vec<SubPath> = subs.iter().map(|s| s.mapped(1.0 / unit, 0.0, 0.0)).collect();
                 if word == "path" { Prim::Path(subs) } else { Prim::FillPath(subs) }
             }
             _ => return Err(self.problem(format!("unknown primitive `{word}`"), Some(PRIMITIVES))),
@@ -575,7 +590,7 @@ mod tests {
         let e = parse("strokes 1\ncap 10\nglyph A 6\nline 0 0 1\n").unwrap_err();
         assert!(e.message.contains("pairs") && e.line == Some(4));
         let e = parse("strokes 1\ncap 10\nglyph A 6\nglyph A 5\n").unwrap_err();
-        assert!(e.message.contains("twice") && e.line == Some(3));
+        assert!(e.message.contains("twice") && e.line == Some(4), "{e}");
         let e = parse("strokes 1\nicon x 10\npath M 0 0 Q 1\n").unwrap_err();
         assert!(e.message.contains("character") && e.line == Some(3));
         let e = parse("strokes 1\nstyle seven\nsegment a 0 1 1 1\ndp square 1 1\ncolon square 1 0.3 0.7\n").unwrap_err();

@@ -16,6 +16,8 @@ pub mod legend;
 pub mod outline;
 pub mod patterns;
 #[cfg(test)]
+mod preview;
+#[cfg(test)]
 mod testkit;
 
 pub use fonts::Fonts;
