@@ -173,10 +173,11 @@ struct Reader<'a> {
     block: Block,
 }
 
-type R<T> = Result<T, InputProblem>;
+/// Problems are boxed: an `InputProblem` is large.
+type R<T> = Result<T, Box<InputProblem>>;
 
 /// Reads one font file.
-pub fn parse_font(file: &Path, text: &str) -> R<FontFile> {
+pub fn parse_font(file: &Path, text: &str) -> Result<FontFile, Box<InputProblem>> {
     let mut r = Reader { file, line: 0, cap: None, out: FontFile::default(), block: Block::None };
     let mut seen_header = false;
     for (i, raw) in text.lines().enumerate() {
@@ -223,15 +224,15 @@ fn split_word(s: &str) -> (&str, &str) {
 }
 
 impl Reader<'_> {
-    fn problem(&self, message: impl Into<String>, allowed: Option<&str>) -> InputProblem {
-        InputProblem {
+    fn problem(&self, message: impl Into<String>, allowed: Option<&str>) -> Box<InputProblem> {
+        Box::new(InputProblem {
             file: self.file.to_path_buf(),
             line: Some(self.line),
             column: None,
             key: String::new(),
             message: message.into(),
             allowed: allowed.map(str::to_string),
-        }
+        })
     }
 
     fn origin(&self) -> Origin {
@@ -301,7 +302,9 @@ impl Reader<'_> {
             Block::Icon(name, _, icon) => {
                 if icon.marks.iter().all(|m| m.cut) {
                     let line = icon.origin.line;
-                    return Err(InputProblem { line: Some(line), ..self.problem(format!("icon `{name}` draws nothing"), Some(PRIMITIVES)) });
+                    let mut p = self.problem(format!("icon `{name}` draws nothing"), Some(PRIMITIVES));
+                    p.line = Some(line);
+                    return Err(p);
                 }
                 if self.out.icons.iter().any(|(d, _)| *d == name) {
                     return Err(self.dup(&format!("icon `{name}`"), &icon.origin));
@@ -313,11 +316,10 @@ impl Reader<'_> {
         }
     }
 
-    fn dup(&self, what: &str, at: &Origin) -> InputProblem {
-        InputProblem {
-            line: Some(at.line),
-            ..self.problem(format!("{what} is defined twice in this file (a later file may override it)"), None)
-        }
+    fn dup(&self, what: &str, at: &Origin) -> Box<InputProblem> {
+        let mut p = self.problem(format!("{what} is defined twice in this file (a later file may override it)"), None);
+        p.line = Some(at.line);
+        p
     }
 
     fn begin_glyph(&mut self, rest: &str) -> R<()> {
@@ -425,21 +427,23 @@ impl Reader<'_> {
     }
 
     fn finish_style(&mut self, style: DigitStyle, d: StyleDraft) -> R<()> {
-        let at = |r: &Self| InputProblem { line: Some(d.origin.line), ..r.problem("", None) };
+        let at = |message: String, allowed: Option<String>| {
+            let mut p = self.problem(message, None);
+            p.line = Some(d.origin.line);
+            p.allowed = allowed;
+            p
+        };
         let want: Vec<&str> = style.segment_names().to_vec();
         let mut have: Vec<&str> = d.segments.iter().map(|s| s.name.as_str()).collect();
         have.sort();
         let mut sorted = want.clone();
         sorted.sort();
         if have != sorted {
-            return Err(InputProblem {
-                message: format!("style `{}` must define exactly its segments, found {}", style.name(), have.join(" ")),
-                allowed: Some(want.join(" ")),
-                ..at(self)
-            });
+            let msg = format!("style `{}` must define exactly its segments, found {}", style.name(), have.join(" "));
+            return Err(at(msg, Some(want.join(" "))));
         }
         let (Some(dp), Some(colon)) = (d.dp, d.colon) else {
-            return Err(InputProblem { message: format!("style `{}` needs a `dp` and a `colon` line", style.name()), ..at(self) });
+            return Err(at(format!("style `{}` needs a `dp` and a `colon` line", style.name()), None));
         };
         self.out.styles.push((style, SkeletonDef { segments: d.segments, dp, colon, origin: d.origin }));
         Ok(())
@@ -468,7 +472,7 @@ impl Reader<'_> {
 
     fn points(&self, rest: &str, unit: f64, min: usize) -> R<Vec<Pt>> {
         let v: Vec<f64> = self.words(rest).iter().map(|x| self.number(x)).collect::<R<_>>()?;
-        if v.len() % 2 != 0 {
+        if !v.len().is_multiple_of(2) {
             return Err(self.problem("coordinates must come in x y pairs", None));
         }
         let p: Vec<Pt> = v.chunks(2).map(|c| pt(c[0] / unit, c[1] / unit)).collect();

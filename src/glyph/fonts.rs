@@ -81,7 +81,7 @@ impl Fonts {
                         f.styles[style_index(style)] = skel;
                     }
                 }
-                Err(p) => problems.push(p),
+                Err(p) => problems.push(*p),
             }
         }
         if problems.is_empty() { Ok(f) } else { Err(crate::Error::Input(problems)) }

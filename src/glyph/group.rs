@@ -55,10 +55,8 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
         }
         // Dots must keep the gap from this digit, the next one and each other.
         let mut near: Vec<Polygon> = outlines.iter().map(|s| s.1.clone()).collect();
-        if i < g.count {
-            if let Ok(next) = segs_of(i + 1, g.gap) {
-                near.extend(next.into_iter().map(|s| s.1));
-            }
+        if i < g.count && let Ok(next) = segs_of(i + 1, g.gap) {
+            near.extend(next.into_iter().map(|s| s.1));
         }
         let mut dots: Vec<Polygon> = Vec::new();
         if g.decimal_points.contains(&i) {

@@ -19,6 +19,8 @@ pub mod patterns;
 mod preview;
 #[cfg(test)]
 mod testkit;
+#[cfg(test)]
+mod tests;
 
 pub use fonts::Fonts;
 pub use legend::set_text;

@@ -49,7 +49,7 @@ pub fn empty_layout() -> Layout {
     }
 }
 
-/// A seven-segment group of `count` digits, 6 × 10 mm at 8 mm pitch.
+/// A seven-segment group of `count` digits, 6 × 10 mm at 9 mm pitch.
 pub fn seven_group(count: u32, slant: f64) -> DigitGroup {
     DigitGroup {
         name: "D".into(),
@@ -58,7 +58,7 @@ pub fn seven_group(count: u32, slant: f64) -> DigitGroup {
         origin: pt(8.0, 12.0),
         height: 10.0,
         width: 6.0,
-        pitch: 8.0,
+        pitch: 9.0,
         slant,
         stroke: 1.0,
         gap: 0.15,
