@@ -253,7 +253,10 @@ impl<'a> PathParser<'a> {
     }
 
     fn err<T>(&self, message: impl Into<String>) -> Result<T, PathError> {
-        Err(PathError { position: self.i + 1, message: message.into() })
+        // Positions count characters; the parser only steps over ASCII, so `i` is
+        // always on a character boundary.
+        let position = std::str::from_utf8(&self.s[..self.i]).map(|t| t.chars().count()).unwrap_or(self.i) + 1;
+        Err(PathError { position, message: message.into() })
     }
 
     fn skip_separators(&mut self) {
@@ -569,6 +572,19 @@ mod tests {
         assert!(parse_svg_path("").is_err());
         assert!(parse_svg_path("M 0 0 A 1 1 0 2 1 1 1").unwrap_err().message.contains("flag"));
         assert!(parse_svg_path("M0 0 L1 1 Z 3 4").is_err());
+    }
+
+    /// Degenerate curves (all points equal, zero radii) flatten to their end point
+    /// without hanging; non-ASCII input is reported by character position.
+    #[test]
+    fn degenerate_curves_and_unicode() {
+        for d in ["M0 0 Q0 0 0 0", "M0 0 C0 0 0 0 0 0", "M0 0 A0 0 0 0 1 1 1", "M0 0 A1 1 0 0 1 0 0", "M1 1 T1 1 S1 1 1 1"] {
+            let subs = parse_svg_path(d).unwrap();
+            let p = subs[0].flatten(1e-3);
+            assert!(p.len() < 10 && p.iter().all(|q| q.x.is_finite() && q.y.is_finite()), "{d}: {p:?}");
+        }
+        let e = parse_svg_path("M 0 0 L 1 é").unwrap_err();
+        assert_eq!(e.position, 11);
     }
 
     #[test]

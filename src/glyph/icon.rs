@@ -54,15 +54,23 @@ pub fn build_icon(fonts: &Fonts, shape: &IconShape, tol: f64) -> Result<Region, 
             Ok(ink(&def.marks, &pen))
         }
         IconShape::Rectangle { at, width, height, corner } => {
+            if !(*width > 0.0 && *height > 0.0) {
+                return Err(problem("width", format!("a {width} × {height} mm rectangle"), Some("width and height above 0".into())));
+            }
             let limit = width.min(*height) / 2.0;
             if *corner < 0.0 || *corner > limit + 1e-12 {
                 return Err(problem("corner", format!("corner radius {corner} mm does not fit"), Some(format!("0 to {limit} mm (half the shorter side)"))));
             }
             Ok(region_of([rounded_rect(at.x, at.y, at.x + width, at.y + height, *corner, tol)]))
         }
-        IconShape::Circle { centre, radius } => Ok(region_of([circle(*centre, *radius, tol)])),
+        IconShape::Circle { centre, radius } => {
+            if *radius <= 0.0 {
+                return Err(problem("radius", format!("radius {radius} mm"), Some("above 0".into())));
+            }
+            Ok(region_of([circle(*centre, *radius, tol)]))
+        }
         IconShape::Ring { centre, outer, inner } => {
-            if !(*inner > 0.0 && inner < outer) {
+            if !(*inner > 0.0 && inner < outer) || !outer.is_finite() {
                 return Err(problem("inner", format!("inner radius {inner} mm must be above 0 and below the outer radius {outer} mm"), None));
             }
             Ok(region_of([ring(*centre, *outer, *inner, tol)]))

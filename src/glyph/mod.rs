@@ -65,6 +65,10 @@ pub struct Element {
 /// the style's order, then its decimal point and colon), then legends, then icons. Every
 /// input problem found is reported together.
 pub fn build_elements(layout: &Layout) -> Result<Vec<Element>> {
+    if !(layout.tolerance > 0.0 && layout.tolerance.is_finite()) {
+        let msg = format!("tolerance {} mm", layout.tolerance);
+        return Err(Error::input(layout.problem("tolerance", msg, Some("a length above 0, e.g. 0.001 mm".into()))));
+    }
     let fonts = Fonts::with_extra(&layout.extra_fonts)?;
     let mut out = Vec::new();
     let mut problems = Vec::new();
