@@ -8,6 +8,8 @@
 
 mod interior;
 mod shapes;
+pub mod path;
+pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
 
 pub use interior::interior_point;
 pub use shapes::{circle, rect, regular_arc_step, ring, stroke_polyline};
