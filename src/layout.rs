@@ -22,6 +22,8 @@ pub struct Layout {
     pub window: Rect,
     /// Liquid-crystal layer thickness in mm (for capacitance).
     pub cell_gap: f64,
+    /// Photoresist tone the films are made for (decides their polarity).
+    pub resist: Resist,
     /// Process and design rules.
     pub rules: Rules,
     /// Seal ring and fill port.
