@@ -38,7 +38,7 @@ fn back_on_front(p: &mut Problems, l: &Layout) {
         p.bad(
             "glass.back",
             format!("the back glass ({}) reaches outside the front glass ({})", span(b), span(f)),
-            "a back glass lying within the front glass (mm, front-plate frame)",
+            "a back glass lying within the front glass",
         );
     }
 }

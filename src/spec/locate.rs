@@ -12,9 +12,14 @@ use std::collections::BTreeMap;
 
 /// Line of each key path in `text` (first occurrence wins).
 pub fn key_lines(text: &str) -> BTreeMap<String, usize> {
+    key_lines_and_repeats(text).0
+}
+
+/// Line of each key path in `text`, and of the second occurrence of each repeated one.
+pub fn key_lines_and_repeats(text: &str) -> (BTreeMap<String, usize>, BTreeMap<String, usize>) {
     let mut s = Scanner::new(text);
     s.run();
-    s.lines
+    (s.lines, s.repeats)
 }
 
 /// Line of `key`, or of its nearest ancestor that is in `lines` (`pads.pitch` → `pads`
@@ -64,6 +69,7 @@ struct Scanner {
     starts: Vec<usize>,
     stack: Vec<Frame>,
     lines: BTreeMap<String, usize>,
+    repeats: BTreeMap<String, usize>,
 }
 
 impl Scanner {
@@ -76,11 +82,15 @@ impl Scanner {
             }
         }
         let root = Frame { indent: 0, path: String::new(), kind: Kind::Map { last: None } };
-        Scanner { chars, starts, stack: vec![root], lines: BTreeMap::new() }
+        Scanner { chars, starts, stack: vec![root], lines: BTreeMap::new(), repeats: BTreeMap::new() }
     }
 
     fn record(&mut self, path: &str, line: usize) {
-        self.lines.entry(path.to_string()).or_insert(line + 1);
+        if self.lines.contains_key(path) {
+            self.repeats.entry(path.to_string()).or_insert(line + 1);
+        } else {
+            self.lines.insert(path.to_string(), line + 1);
+        }
     }
 
     /// End offset of line `l` (exclusive, without the newline).
@@ -487,6 +497,15 @@ seal:
         assert_eq!(line_of(&m, "digits[1].width"), Some(11));
         assert_eq!(line_of(&m, "pads.length"), Some(6));
         assert_eq!(line_of(&m, "window.x"), None);
+    }
+
+    #[test]
+    fn repeated_keys_are_found_at_their_second_place() {
+        let (first, again) = key_lines_and_repeats("pads:\n  side: top\n  pitch: 1\n  pitch: 2\nfixed: {A: 1, A: 2}\n");
+        assert_eq!(first["pads.pitch"], 3);
+        assert_eq!(again["pads.pitch"], 4);
+        assert_eq!(again["fixed.A"], 5);
+        assert!(!again.contains_key("pads.side"));
     }
 
     #[test]

@@ -54,9 +54,10 @@ pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
             allowed: Some("a layout mapping (see docs/layout-format.md)".into()),
         }));
     }
+    let (lines, repeats) = locate::key_lines_and_repeats(text);
     let raw: raw::RawLayout =
-        serde_yaml::from_str(text).map_err(|e| Error::input(problems::from_yaml_error(path, &e)))?;
-    let mut p = Problems::new(path, locate::key_lines(text));
+        serde_yaml::from_str(text).map_err(|e| Error::input(problems::from_yaml_error(path, &e, &repeats)))?;
+    let mut p = Problems::new(path, lines, repeats);
     let layout = resolve_all(&mut p, &raw, path);
     nets::check_unique(&mut p, &layout);
     if p.clean(&["pads.fixed", "drive", "digits", "legends", "icons"]) {

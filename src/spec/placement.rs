@@ -1,8 +1,9 @@
 //! Where the elements sit: every digit inside the window, no digit overlapping another
 //! (within a group or across groups) or an icon, icons inside the window, legend anchors
-//! inside the window. Uses outlines that are cheap to know before the glyph stage runs:
-//! a digit's slanted cell (plus room for its decimal point or colon), an icon's shape or
-//! box. Legend extents need the font and are left to the glyph stage.
+//! inside the window, bus points on their glass. Uses outlines that are cheap to know
+//! before the glyph stage runs: a digit's slanted cell (plus room for its decimal point
+//! or colon), an icon's shape or box. Legend extents need the font and are left to the
+//! glyph stage.
 
 use super::problems::Problems;
 use super::read::mm;
@@ -112,6 +113,29 @@ pub fn check_placement(p: &mut Problems, l: &Layout) {
         }
     }
     overlaps(p, &placed);
+    if p.clean(&["glass"]) {
+        buses_on_glass(p, l);
+    }
+}
+
+/// Every bus point must lie on the glass of its plate.
+fn buses_on_glass(p: &mut Problems, l: &Layout) {
+    for b in &l.buses {
+        let glass = match b.plate {
+            crate::layout::PlateId::Front => &l.glass.front,
+            crate::layout::PlateId::Back => &l.glass.back,
+        };
+        if let Some(j) = b.points.iter().position(|q| !inside(glass, *q)) {
+            let key = format!("{}.points[{j}]", b.key);
+            if p.clean(&[&b.key]) {
+                p.bad(
+                    &key,
+                    format!("point ({}, {}) is off the {} glass", mm(b.points[j].x), mm(b.points[j].y), b.plate.name()),
+                    &format!("x {} to {}, y {} to {}", mm(glass.x), mm(glass.x1()), mm(glass.y), mm(glass.y1())),
+                );
+            }
+        }
+    }
 }
 
 fn window_text(w: &Rect) -> String {

@@ -11,13 +11,23 @@ use std::path::{Path, PathBuf};
 pub struct Problems {
     file: PathBuf,
     lines: BTreeMap<String, usize>,
+    repeats: BTreeMap<String, usize>,
     found: Vec<InputProblem>,
 }
 
 impl Problems {
-    /// An empty collection for `file` whose key lines are `lines`.
-    pub fn new(file: &Path, lines: BTreeMap<String, usize>) -> Problems {
-        Problems { file: file.to_path_buf(), lines, found: Vec::new() }
+    /// An empty collection for `file`; `lines` locates keys, `repeats` the second
+    /// occurrence of repeated keys.
+    pub fn new(file: &Path, lines: BTreeMap<String, usize>, repeats: BTreeMap<String, usize>) -> Problems {
+        Problems { file: file.to_path_buf(), lines, repeats, found: Vec::new() }
+    }
+
+    /// Notes a problem about a key given twice, at its second occurrence.
+    pub fn repeated(&mut self, key: &str, message: impl Into<String>, allowed: &str) {
+        self.bad(key, message, allowed);
+        if let (Some(p), Some(l)) = (self.found.last_mut(), self.repeats.get(key)) {
+            p.line = Some(*l);
+        }
     }
 
     /// Notes a problem at `key`.
@@ -82,7 +92,7 @@ pub fn is_under(key: &str, prefix: &str) -> bool {
 
 /// Turns a serde_yaml error into an input problem: line and column from its location,
 /// key path from its message, and plainer words for unknown and repeated keys.
-pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error) -> InputProblem {
+pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error, repeats: &BTreeMap<String, usize>) -> InputProblem {
     let loc = e.location();
     let mut text = e.to_string();
     if let Some(l) = &loc {
@@ -93,6 +103,8 @@ pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error) -> InputProblem {
     }
     let (mut key, mut message) = split_path(&text);
     let mut allowed = None;
+    let mut line = loc.as_ref().map(|l| l.line());
+    let mut column = loc.as_ref().map(|l| l.column());
     if let Some(rest) = message.strip_prefix("unknown field ") {
         let (field, expected) = rest.split_once(", expected ").unwrap_or((rest, ""));
         let field = field.trim_matches('`').to_string();
@@ -108,11 +120,15 @@ pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error) -> InputProblem {
         let field = rest.trim_matches('`').to_string();
         message = format!("key `{field}` appears twice");
         key = join_key(&key, &field);
+        // serde_yaml points at the mapping; the second occurrence is what to fix.
+        if let Some(l) = repeats.get(&key) {
+            (line, column) = (Some(*l), None);
+        }
     }
     InputProblem {
         file: file.to_path_buf(),
-        line: loc.as_ref().map(|l| l.line()),
-        column: loc.as_ref().map(|l| l.column()),
+        line,
+        column,
         key,
         message,
         allowed,

@@ -204,7 +204,7 @@ fn length_allowed(sign: Sign) -> String {
         Sign::NonNegative => "a length of 0 or more",
         Sign::Any => "a length",
     };
-    format!("{range}: a number in mm or with a unit ({LENGTH_UNITS})")
+    format!("{range}, in mm or with a unit: {LENGTH_UNITS}")
 }
 
 /// A length for messages: mm with up to 4 decimals, trailing zeros dropped.
@@ -220,7 +220,7 @@ mod tests {
     use std::path::Path;
 
     fn problems() -> Problems {
-        Problems::new(Path::new("t.yaml"), Default::default())
+        Problems::new(Path::new("t.yaml"), Default::default(), Default::default())
     }
 
     #[test]

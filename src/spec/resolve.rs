@@ -20,7 +20,7 @@ const NO_RECT: Rect = Rect { x: 0.0, y: 0.0, width: 1.0, height: 1.0 };
 
 /// The layout name: letters, digits, `-` and `_`, since it becomes the file stem.
 pub fn name(p: &mut Problems, v: Option<&Scalar>) -> String {
-    let allowed = "letters, digits, `-` and `_` (it becomes the output file name)";
+    let allowed = "letters, digits, `-` and `_`; it becomes the output file name";
     let n = p.text(v, "name", None, allowed);
     if !n.is_empty() && !n.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_') {
         p.bad("name", format!("`{n}` has characters a file name should not have"), allowed);
@@ -82,7 +82,7 @@ pub fn cell_gap(p: &mut Problems, v: Option<&Scalar>) -> f64 {
     // Common practice: cells are 5–10 µm thick; we accept a generous 1–50 µm.
     let g = p.length(v, "cell_gap", Some(0.007), Sign::Positive);
     if p.clean(&["cell_gap"]) && !(0.001..=0.05).contains(&g) {
-        p.bad("cell_gap", format!("{} is not a plausible cell gap (check the unit)", mm(g)), "1um to 50um (usually 5um to 10um)");
+        p.bad("cell_gap", format!("{} is not a plausible cell gap (check the unit)", mm(g)), "1um to 50um; usually 5um to 10um");
     }
     g
 }
@@ -206,7 +206,7 @@ pub fn pads(p: &mut Problems, r: Option<&RawPads>) -> Pads {
         let key = format!("pads.fixed.{}", net.text);
         let n = p.int(Some(pin), &key, None, 0);
         if fixed.insert(net.text.clone(), clamp_u32(n)).is_some() {
-            p.bad(&key, format!("net `{}` is given a pin twice", net.text), "each net once");
+            p.repeated(&key, format!("net `{}` is given a pin twice", net.text), "each net once");
         }
     }
     if p.clean(&["pads.pitch", "pads.width"]) && width >= pitch {
@@ -253,7 +253,7 @@ pub fn drive(p: &mut Problems, d: Option<&RawDrive>) -> Drive {
                 return stat;
             };
             let Some(n) = fraction(duty).filter(|n| (2..=4).contains(n)) else {
-                p.bad("drive.duty", format!("duty `{}` not supported", duty.text), "1/2, 1/3, 1/4 (or `drive: static`)");
+                p.bad("drive.duty", format!("duty `{}` not supported", duty.text), "1/2, 1/3, 1/4; or `drive: static`");
                 return stat;
             };
             let a = match &m.bias {
@@ -314,7 +314,7 @@ pub fn layers(p: &mut Problems, g: Option<&super::scalar::Entries<OneOrList>>) -
             continue;
         }
         if seen.contains(&name.text) {
-            p.bad(&key, format!("layer `{}` is given twice", name.text), "each layer once");
+            p.repeated(&key, format!("layer `{}` is given twice", name.text), "each layer once");
             continue;
         }
         seen.push(name.text.clone());
