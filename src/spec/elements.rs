@@ -188,9 +188,10 @@ pub fn icons(p: &mut Problems, raw: &[RawIcon]) -> Vec<Icon> {
     for (i, r) in raw.iter().enumerate() {
         let key = format!("icons[{i}]");
         let name = element_name(p, r.name.as_ref(), &format!("{key}.name"));
-        if let Some(shape) = icon_shape(p, r, &key) {
-            out.push(Icon { name, shape, key });
-        }
+        // An icon without a usable shape keeps its place (and net) with an empty
+        // polygon; the problem is noted, so the layout is refused anyway.
+        let shape = icon_shape(p, r, &key).unwrap_or(IconShape::Polygon { points: vec![] });
+        out.push(Icon { name, shape, key });
     }
     out
 }

@@ -59,11 +59,9 @@ pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
         serde_yaml::from_str(text).map_err(|e| Error::input(problems::from_yaml_error(path, &e, &repeats)))?;
     let mut p = Problems::new(path, lines, repeats);
     let layout = resolve_all(&mut p, &raw, path);
-    nets::check_unique(&mut p, &layout);
-    if p.clean(&["pads.fixed", "drive", "digits", "legends", "icons"]) {
+    if nets::nets_clean(&p, &layout) {
+        nets::check_unique(&mut p, &layout);
         nets::check_fixed_pins(&mut p, &layout);
-    }
-    if p.clean(&["drive", "digits", "legends", "icons"]) {
         nets::check_buses(&mut p, &layout);
     }
     fit::check_fit(&mut p, &layout);

@@ -57,6 +57,21 @@ pub fn pads_needed(layout: &Layout) -> u32 {
     (n + elements.div_ceil(n)) as u32
 }
 
+/// True when every key the net list depends on was read without problems, so that
+/// checks against the net list do not report consequences of earlier mistakes.
+pub fn nets_clean(p: &Problems, layout: &Layout) -> bool {
+    let mut keys = vec!["drive".to_string()];
+    for g in &layout.digits {
+        for f in ["name", "style", "count", "decimal_points", "colons", "half_digits"] {
+            keys.push(format!("{}.{f}", g.key));
+        }
+    }
+    keys.extend(layout.legends.iter().map(|l| format!("{}.name", l.key)));
+    keys.extend(layout.icons.iter().map(|i| format!("{}.name", i.key)));
+    let refs: Vec<&str> = keys.iter().map(String::as_str).collect();
+    p.clean(&refs)
+}
+
 /// Reports nets made twice; each pair of clashing entries once.
 pub fn check_unique(p: &mut Problems, layout: &Layout) {
     let mut first: BTreeMap<String, String> = BTreeMap::new();
@@ -94,6 +109,9 @@ fn name_key(entry: &str) -> String {
 
 /// Checks `pads.fixed`: known nets, unique pins, pins on the pad row.
 pub fn check_fixed_pins(p: &mut Problems, layout: &Layout) {
+    if !p.clean(&["pads.count", "pads.first_pin"]) {
+        return;
+    }
     let known = known_nets(layout);
     let pads = &layout.pads;
     let count = pads.count.unwrap_or_else(|| pads_needed(layout));

@@ -187,3 +187,40 @@ fn icons_of_every_shape_resolve() {
     assert!(matches!(&l.icons[5].shape, IconShape::Named { stroke, .. } if close(*stroke, 0.25)));
     assert!(matches!(&l.icons[4].shape, IconShape::Path { at, .. } if at.x == 6.0 && at.y == 22.0));
 }
+
+/// The complete example of docs/layout-format.md.
+fn doc_example() -> String {
+    let doc = include_str!("../../docs/layout-format.md");
+    let start = doc.find("```yaml\n").expect("example") + 8;
+    doc[start..][..doc[start..].find("```").unwrap()].to_string()
+}
+
+#[test]
+fn the_documented_example_resolves() {
+    let text = doc_example();
+    let l = parse(&text).unwrap_or_else(|v| panic!("{v:#?}"));
+    assert_eq!(l.name, "pump-panel");
+    assert_eq!(l.icons.len(), 6);
+    assert_eq!(l.pads.fixed["D2.a"], 2);
+    assert_eq!(l.layers.entries["seal"], (30, 0));
+    assert_eq!(l.digits[0].half_digits, [1]);
+    // The locator finds keys in flow mappings that span two lines and in list items.
+    let line = |needle: &str| text.lines().position(|t| t.contains(needle)).unwrap() + 1;
+    assert_eq!(l.key_lines["pads.fixed.D2.a"], line("fixed: {COM1"));
+    assert_eq!(l.key_lines["pads.first_pin"], line("first_pin"));
+    assert_eq!(l.key_lines["icons[3].ring.inner"], line("RING1"));
+    assert_eq!(l.key_lines["digits[0].half_digits"], line("half_digits"));
+    assert_eq!(l.key_lines["buses[0].points[1]"], line("net: D2.a"));
+}
+
+#[test]
+fn the_documented_example_reports_many_problems_at_once() {
+    let text = doc_example()
+        .replace("slant: 8", "slant: 30")
+        .replace("cell_gap: 7um", "cell_gap: 7cm")
+        .replace("inner: 1.5", "inner: 2.5")
+        .replace("net: D2.a", "net: D2.z");
+    let v = problems(&text);
+    let keys: Vec<&str> = v.iter().map(|p| p.key.as_str()).collect();
+    assert_eq!(keys, ["cell_gap", "digits[0].slant", "icons[3].ring.inner", "buses[0].net"], "{v:#?}");
+}
