@@ -3,9 +3,37 @@
 //! Takes YAML (our own format, docs/layout-format.md), gives a `Layout` with every unit
 //! resolved to mm and every default filled in, or every problem found, each with file,
 //! line, key path, what is wrong and what is allowed.
+//!
+//! Steps: `locate` maps key paths to lines; serde reads the text into the `raw` structs
+//! (syntax errors, unknown keys and wrong shapes stop here, with serde's line and
+//! column); `resolve` and `elements` read every value, collecting all problems; `nets`,
+//! `fit` and `placement` check how the parts go together, skipping checks whose inputs
+//! were already found bad so that one mistake gives one message.
 
+mod elements;
+mod fit;
+mod locate;
+mod nets;
+mod placement;
+mod problems;
+mod raw;
+mod read;
+mod resolve;
+mod scalar;
+pub mod units;
+
+#[cfg(test)]
+mod tests;
+
+pub use fit::{ledge_depth, liquid_crystal_region};
+pub use locate::{key_lines, line_of};
+pub use nets::{common_nets, digit_segments, element_nets, pads_needed, NetSource};
+pub use placement::{digit_cell, POINT_ROOM_STROKES};
+
+use crate::error::InputProblem;
 use crate::layout::Layout;
-use crate::Result;
+use crate::{Error, Result};
+use problems::Problems;
 use std::path::Path;
 
 /// Reads and resolves a layout file.
@@ -15,6 +43,66 @@ pub fn load_layout(path: &Path) -> Result<Layout> {
 }
 
 /// Resolves layout text; `path` is used for messages and for relative font files.
-pub fn parse_layout(_text: &str, _path: &Path) -> Result<Layout> {
-    Err(crate::Error::Bug("spec stage not written yet".into()))
+pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
+    if text.lines().all(|l| l.trim().is_empty() || l.trim_start().starts_with('#')) {
+        return Err(Error::input(InputProblem {
+            file: path.to_path_buf(),
+            line: None,
+            column: None,
+            key: String::new(),
+            message: "the layout file is empty".into(),
+            allowed: Some("a layout mapping (see docs/layout-format.md)".into()),
+        }));
+    }
+    let (lines, repeats) = locate::key_lines_and_repeats(text);
+    let raw: raw::RawLayout =
+        serde_yaml::from_str(text).map_err(|e| Error::input(problems::from_yaml_error(path, &e, &repeats)))?;
+    let mut p = Problems::new(path, lines, repeats);
+    let layout = resolve_all(&mut p, &raw, path);
+    if nets::nets_clean(&p, &layout) {
+        nets::check_unique(&mut p, &layout);
+        nets::check_fixed_pins(&mut p, &layout);
+        nets::check_buses(&mut p, &layout);
+    }
+    fit::check_fit(&mut p, &layout);
+    placement::check_placement(&mut p, &layout);
+    if p.is_empty() { Ok(layout) } else { Err(Error::Input(p.into_sorted())) }
+}
+
+/// Reads every part of the raw layout, in the order their defaults depend on each other.
+fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
+    let name = resolve::name(p, raw.name.as_ref());
+    let glass = resolve::glass(p, raw.glass.as_ref());
+    let window = resolve::window(p, raw.window.as_ref());
+    let cell_gap = resolve::cell_gap(p, raw.cell_gap.as_ref());
+    let tolerance = resolve::tolerance(p, raw.tolerance.as_ref());
+    let rules = resolve::rules(p, raw.rules.as_ref());
+    let pads = resolve::pads(p, raw.pads.as_ref());
+    let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
+    let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules);
+    let legends = elements::legends(p, raw.legends.as_deref().unwrap_or(&[]));
+    let icons = elements::icons(p, raw.icons.as_deref().unwrap_or(&[]));
+    let buses = elements::buses(p, raw.buses.as_deref().unwrap_or(&[]), &rules);
+    Layout {
+        name,
+        source: path.to_path_buf(),
+        glass,
+        window,
+        cell_gap,
+        resist: resolve::resist(p, raw.resist.as_ref()),
+        transfer: resolve::transfer(p, raw.transfer_dots.as_ref()),
+        drive: resolve::drive(p, raw.drive.as_ref()),
+        marks: resolve::marks(p, raw.marks.as_ref()),
+        layers: resolve::layers(p, raw.gds_layers.as_ref()),
+        extra_fonts: resolve::fonts(p, raw.fonts.as_ref(), path),
+        rules,
+        seal,
+        pads,
+        digits,
+        legends,
+        icons,
+        buses,
+        tolerance,
+        key_lines: p.lines().clone(),
+    }
 }

@@ -1,0 +1,261 @@
+//! The layout file as serde reads it: one struct per YAML mapping, unknown keys refused,
+//! every key optional (missing required keys are reported by the resolver, all at once),
+//! every leaf a lenient [`Scalar`] so that bad values are reported with their key path.
+
+use super::scalar::{Entries, OneOrList, RawPoint, Scalar};
+use serde::de::{self, Deserialize, Deserializer, MapAccess, Visitor};
+use serde::Deserialize as DeriveDeserialize;
+use std::fmt;
+
+/// The whole file.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a layout: a mapping with keys such as name, glass, window, pads")]
+pub struct RawLayout {
+    pub name: Option<Scalar>,
+    pub glass: Option<RawGlass>,
+    pub window: Option<RawRect>,
+    pub cell_gap: Option<Scalar>,
+    pub resist: Option<Scalar>,
+    pub tolerance: Option<Scalar>,
+    pub rules: Option<RawRules>,
+    pub seal: Option<RawSeal>,
+    pub transfer_dots: Option<RawTransfer>,
+    pub pads: Option<RawPads>,
+    pub drive: Option<RawDrive>,
+    pub marks: Option<RawMarks>,
+    pub digits: Option<Vec<RawDigits>>,
+    pub legends: Option<Vec<RawLegend>>,
+    pub icons: Option<Vec<RawIcon>>,
+    pub buses: Option<Vec<RawBus>>,
+    pub gds_layers: Option<Entries<OneOrList>>,
+    pub fonts: Option<Vec<Scalar>>,
+}
+
+/// `glass:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys front and back")]
+pub struct RawGlass {
+    pub front: Option<RawSize>,
+    pub back: Option<RawRect>,
+}
+
+/// `{width, height}`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys width and height")]
+pub struct RawSize {
+    pub width: Option<Scalar>,
+    pub height: Option<Scalar>,
+}
+
+/// `{x, y, width, height}`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys x, y, width and height")]
+pub struct RawRect {
+    pub x: Option<Scalar>,
+    pub y: Option<Scalar>,
+    pub width: Option<Scalar>,
+    pub height: Option<Scalar>,
+}
+
+/// `rules:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping of design rules")]
+pub struct RawRules {
+    pub min_width: Option<Scalar>,
+    pub min_gap: Option<Scalar>,
+    pub undercut: Option<Scalar>,
+    pub compensate: Option<Scalar>,
+    pub film_min_feature: Option<Scalar>,
+    pub backplane_overlap: Option<Scalar>,
+    pub edge_clearance: Option<Scalar>,
+    pub lead_width: Option<Scalar>,
+}
+
+/// `seal:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys width, inset and fill_port")]
+pub struct RawSeal {
+    pub width: Option<Scalar>,
+    pub inset: Option<Scalar>,
+    pub fill_port: Option<RawFillPort>,
+}
+
+/// `seal.fill_port:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys side, at and width")]
+pub struct RawFillPort {
+    pub side: Option<Scalar>,
+    pub at: Option<Scalar>,
+    pub width: Option<Scalar>,
+}
+
+/// `transfer_dots:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys diameter and pad")]
+pub struct RawTransfer {
+    pub diameter: Option<Scalar>,
+    pub pad: Option<Scalar>,
+}
+
+/// `pads:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping describing the pad row")]
+pub struct RawPads {
+    pub side: Option<Scalar>,
+    pub pitch: Option<Scalar>,
+    pub width: Option<Scalar>,
+    pub length: Option<Scalar>,
+    pub edge_margin: Option<Scalar>,
+    pub first_pin: Option<Scalar>,
+    pub start: Option<Scalar>,
+    pub count: Option<Scalar>,
+    pub fixed: Option<Entries<Scalar>>,
+}
+
+/// `drive:` — the word `static`, or a mapping with duty and bias.
+#[derive(Debug)]
+pub enum RawDrive {
+    /// A single word.
+    Word(Scalar),
+    /// `{duty, bias}`.
+    Multiplexed(RawMultiplex),
+}
+
+/// `drive: {duty, bias}`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys duty and bias")]
+pub struct RawMultiplex {
+    pub duty: Option<Scalar>,
+    pub bias: Option<Scalar>,
+}
+
+impl<'de> Deserialize<'de> for RawDrive {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        struct V;
+        impl<'de> Visitor<'de> for V {
+            type Value = RawDrive;
+            fn expecting(&self, f: &mut fmt::Formatter) -> fmt::Result {
+                f.write_str("`static` or a mapping with keys duty and bias")
+            }
+            fn visit_map<A: MapAccess<'de>>(self, map: A) -> Result<RawDrive, A::Error> {
+                RawMultiplex::deserialize(de::value::MapAccessDeserializer::new(map)).map(RawDrive::Multiplexed)
+            }
+            fn visit_str<E: de::Error>(self, v: &str) -> Result<RawDrive, E> {
+                Ok(RawDrive::Word(Scalar::text(v)))
+            }
+            fn visit_bool<E: de::Error>(self, v: bool) -> Result<RawDrive, E> {
+                Ok(RawDrive::Word(Scalar::text(&v.to_string())))
+            }
+            fn visit_i64<E: de::Error>(self, v: i64) -> Result<RawDrive, E> {
+                Ok(RawDrive::Word(Scalar::text(&v.to_string())))
+            }
+            fn visit_u64<E: de::Error>(self, v: u64) -> Result<RawDrive, E> {
+                Ok(RawDrive::Word(Scalar::text(&v.to_string())))
+            }
+            fn visit_f64<E: de::Error>(self, v: f64) -> Result<RawDrive, E> {
+                Ok(RawDrive::Word(Scalar::text(&v.to_string())))
+            }
+        }
+        d.deserialize_any(V)
+    }
+}
+
+/// `marks:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys size and line")]
+pub struct RawMarks {
+    pub size: Option<Scalar>,
+    pub line: Option<Scalar>,
+}
+
+/// One item of `digits:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a digit group: a mapping with keys such as name, style, count, origin")]
+pub struct RawDigits {
+    pub name: Option<Scalar>,
+    pub style: Option<Scalar>,
+    pub count: Option<Scalar>,
+    pub origin: Option<RawPoint>,
+    pub height: Option<Scalar>,
+    pub width: Option<Scalar>,
+    pub pitch: Option<Scalar>,
+    pub slant: Option<Scalar>,
+    pub stroke: Option<Scalar>,
+    pub gap: Option<Scalar>,
+    pub decimal_points: Option<OneOrList>,
+    pub colons: Option<OneOrList>,
+    pub half_digits: Option<OneOrList>,
+}
+
+/// One item of `legends:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a legend: a mapping with keys name, text, at, height")]
+pub struct RawLegend {
+    pub name: Option<Scalar>,
+    pub text: Option<Scalar>,
+    pub at: Option<RawPoint>,
+    pub height: Option<Scalar>,
+    pub stroke: Option<Scalar>,
+    pub align: Option<Scalar>,
+}
+
+/// One item of `icons:`: a name and exactly one shape.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "an icon: a mapping with a name and one shape")]
+pub struct RawIcon {
+    pub name: Option<Scalar>,
+    pub icon: Option<Scalar>,
+    pub at: Option<RawPoint>,
+    pub size: Option<Scalar>,
+    pub stroke: Option<Scalar>,
+    pub rectangle: Option<RawRectangle>,
+    pub circle: Option<RawCircle>,
+    pub ring: Option<RawRing>,
+    pub polygon: Option<Vec<RawPoint>>,
+    pub path: Option<RawPath>,
+}
+
+/// `rectangle:` icon.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys at, width, height and corner")]
+pub struct RawRectangle {
+    pub at: Option<RawPoint>,
+    pub width: Option<Scalar>,
+    pub height: Option<Scalar>,
+    pub corner: Option<Scalar>,
+}
+
+/// `circle:` icon.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys centre and radius")]
+pub struct RawCircle {
+    pub centre: Option<RawPoint>,
+    pub radius: Option<Scalar>,
+}
+
+/// `ring:` icon.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys centre, outer and inner")]
+pub struct RawRing {
+    pub centre: Option<RawPoint>,
+    pub outer: Option<Scalar>,
+    pub inner: Option<Scalar>,
+}
+
+/// `path:` icon.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys d and at")]
+pub struct RawPath {
+    pub d: Option<Scalar>,
+    pub at: Option<RawPoint>,
+}
+
+/// One item of `buses:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a bus: a mapping with keys net, plate, width and points")]
+pub struct RawBus {
+    pub net: Option<Scalar>,
+    pub plate: Option<Scalar>,
+    pub width: Option<Scalar>,
+    pub points: Option<Vec<RawPoint>>,
+}
