@@ -24,8 +24,8 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         push_united(&mut shapes, Layer::FrontIto, Role::Segment, &s.net, parts);
     }
     for c in &el.coms {
-        let body = difference(&c.outline, &routes.common_cuts);
-        let mut parts: Vec<Polygon> = body.0;
+        let mut parts: Vec<Polygon> =
+            routes.common_pieces.iter().filter(|(n, _)| n == &c.net).flat_map(|(_, r)| r.0.clone()).collect();
         parts.extend(routes.leads.iter().filter(|l| l.plate == PlateId::Back && l.net == c.net).flat_map(|l| l.outline.0.clone()));
         parts.extend(routes.transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()));
         push_united(&mut shapes, Layer::BackIto, Role::Common, &c.net, parts);

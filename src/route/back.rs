@@ -22,6 +22,8 @@ const HIDDEN_CROSSING_COST: f32 = 40.0;
 pub struct BackRoutes {
     /// Back-plate leads joining the common's islands and the transfer dot.
     pub leads: Vec<Lead>,
+    /// The pieces of the common electrode that are kept (each faces an electrode).
+    pub kept: Vec<Region>,
     /// The part of the grown common electrode removed around front leads.
     pub cuts: Region,
 }
@@ -35,13 +37,21 @@ pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tra
     let bare = difference(&leads, &electrodes);
     let cuts = difference(&offset_round(&bare, rules.min_gap, tol), &electrodes);
     let com = &el.coms[0];
-    let mut islands: Vec<Region> = difference(&com.outline, &cuts).0.into_iter().map(|p| region_of([p])).collect();
+    // Pieces that face no electrode (slivers of junction filling cut off by a lead) have
+    // no pixel to serve: they are dropped rather than joined.
+    let min_overlap = rules.min_width * rules.min_width;
+    let mut islands: Vec<Region> = difference(&com.outline, &cuts)
+        .0
+        .into_iter()
+        .map(|p| region_of([p]))
+        .filter(|isl| crate::geom::area(&crate::geom::intersection(isl, &electrodes)) > min_overlap)
+        .collect();
     for b in layout.buses.iter().filter(|b| b.plate == PlateId::Back && b.net == com.net) {
         islands.push(stroke_polyline(&b.points, b.width, tol));
     }
     let mut out = Vec::new();
     let Some(dot) = transfers.iter().find(|t| t.net == com.net) else {
-        return BackRoutes { leads: out, cuts };
+        return BackRoutes { leads: out, cuts, kept: islands };
     };
     let grid = back_grid(layout, &leads);
     let mut search = Search::new(grid.nx * grid.ny);
@@ -103,7 +113,7 @@ pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tra
             }
         }
     }
-    BackRoutes { leads: out, cuts }
+    BackRoutes { leads: out, cuts, kept: islands }
 }
 
 fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {

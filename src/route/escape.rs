@@ -13,6 +13,11 @@ use crate::layout::{Layout, PlateId};
 /// How many times the whole escape is retried in a new order.
 const ATTEMPTS: usize = 8;
 
+/// Extra cost per cell of running inside a digit, legend or icon body (with its counters
+/// filled). Leads that cross a body cut the common electrode behind them; enough such
+/// cuts cut a piece of it off, so leads should leave a body by the shortest way.
+const BODY_COST: f32 = 10.0;
+
 /// The result of escape routing.
 #[derive(Debug, Clone, Default)]
 pub struct Escapes {
@@ -30,7 +35,11 @@ struct NetPieces {
 /// Routes every SEG net to the seal band; nets that cannot be routed become findings.
 pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings: &mut Vec<Finding>) -> Escapes {
     let nets = collect_pieces(layout, el);
-    let base = base_grid(layout, frame, &nets);
+    let mut base = base_grid(layout, frame, &nets);
+    let filled = crate::geom::region_of(
+        el.coms.iter().flat_map(|c| c.outline.0.iter()).map(|p| Polygon::new(p.exterior().clone(), vec![])),
+    );
+    base.add_cost(&filled, BODY_COST);
     let mut order: Vec<usize> = (0..nets.len()).collect();
     order.sort_by(|&a, &b| nearest_v(frame, &nets[a]).total_cmp(&nearest_v(frame, &nets[b])));
     let mut search = Search::new(base.nx * base.ny);

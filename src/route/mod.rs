@@ -75,6 +75,8 @@ pub struct Routes {
     pub transfers: Vec<TransferSite>,
     /// Back-plate cut-outs made so front leads do not face common ITO.
     pub common_cuts: Region,
+    /// The pieces of each common electrode that remain after the cuts (net, piece).
+    pub common_pieces: Vec<(String, Region)>,
     /// Problems met while routing.
     pub findings: Vec<Finding>,
 }
@@ -105,8 +107,10 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let front_leads: Vec<&Lead> = leads.iter().filter(|l| l.plate == PlateId::Front).collect();
     let back = back::route_common(layout, el, &front_leads, &transfers, &mut findings);
     let common_cuts = back.cuts.clone();
+    let com = el.coms[0].net.clone();
+    let common_pieces = back.kept.into_iter().map(|r| (com.clone(), r)).collect();
     leads.extend(back.leads);
-    Ok(Routes { leads, pads, transfers, common_cuts, findings })
+    Ok(Routes { leads, pads, transfers, common_cuts, common_pieces, findings })
 }
 
 fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
