@@ -6,8 +6,10 @@
 //! before boolean work, unions use the non-zero fill rule, and round joins take their
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
+mod segment;
 mod shapes;
 
+pub use segment::{cross3, dist, dist2, point_segment_closest, segment_closest_points, segment_intersection};
 pub use shapes::{circle, rect, regular_arc_step, ring, stroke_polyline};
 
 use geo::algorithm::bool_ops::FillRule;
