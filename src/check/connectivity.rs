@@ -277,9 +277,14 @@ impl Extraction {
     }
 }
 
-/// Unites polygons and orients the result counter-clockwise.
-fn unite(polys: impl IntoIterator<Item = Polygon>) -> Region {
-    geom::region_of(geom::union_all(polys).0.iter().map(geom::orient_ccw))
+/// Unites polygons, puts the result back on the 1 nm grid and orients it
+/// counter-clockwise.
+///
+/// The boolean engine works on its own integer grid sized from each operation's box
+/// (DESIGN.md §7), so its output is off the 1 nm input grid by up to about 1e-8 mm; the
+/// inputs are on that grid, so snapping the output restores the exact vertices.
+pub fn unite(polys: impl IntoIterator<Item = Polygon>) -> Region {
+    geom::region_of(geom::snap(&geom::union_all(polys)).0.iter().map(geom::orient_ccw))
 }
 
 fn sorted_nets<'a>(shapes: impl Iterator<Item = &'a Shape>) -> Vec<String> {
@@ -388,5 +393,39 @@ pub fn meeting_point(a: &Polygon, b: &Polygon) -> Pt {
     match ea.closest(&eb) {
         Some(c) => c.midpoint(),
         None => a.exterior().0.first().copied().unwrap_or(geom::pt(0.0, 0.0)),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::check::fixture;
+
+    /// The clean fixture: front S1, S2, COM1 and the mark cross; back COM1 and four mark
+    /// squares. The dot joins front and back COM1 into one group.
+    #[test]
+    fn clean_fixture_components_and_groups() {
+        let art = fixture::clean();
+        let ex = Extraction::extract(&art);
+        let on = |p| ex.components.iter().filter(|c| c.plate == p).count();
+        assert_eq!((on(PlateId::Front), on(PlateId::Back)), (4, 5));
+        assert_eq!(ex.groups.len(), 8);
+        let com: Vec<_> = ex.components.iter().filter(|c| c.nets == vec!["COM1".to_string()]).collect();
+        assert_eq!(com.len(), 2);
+        assert_eq!(com[0].group, com[1].group);
+        assert_eq!(ex.pieces.len(), 3);
+        assert!(ex.cross_links.is_empty() && ex.bridges.is_empty());
+        // The united S1 component is the segment, lead and pad: 20 + 0.2·11 + 6 mm².
+        let s1 = ex.components.iter().find(|c| c.nets == vec!["S1".to_string()]).unwrap();
+        assert!((geom::area(&s1.region) - (20.0 + 0.2 * 11.0 + 6.0)).abs() < 1e-9);
+    }
+
+    #[test]
+    fn components_meeting_finds_the_ito_under_a_polygon() {
+        let art = fixture::clean();
+        let ex = Extraction::extract(&art);
+        let hit = ex.components_meeting(PlateId::Front, &geom::rect(11.0, 16.0, 11.5, 16.5));
+        assert_eq!(ex.nets_of(&hit), vec!["S1".to_string()]);
+        assert!(ex.components_meeting(PlateId::Front, &geom::rect(24.0, 24.0, 25.0, 25.0)).is_empty());
     }
 }

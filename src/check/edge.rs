@@ -39,7 +39,7 @@ pub fn check_edge(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
                 out.push(finding(c, first, -d, 0.0, format!("{} lies outside the {} glass", what(c), c.plate.name())));
             }
         }
-        let inside = geom::intersection(&c.region, &lc);
+        let inside = geom::snap(&geom::intersection(&c.region, &lc));
         if inside.0.is_empty() {
             continue;
         }
@@ -72,5 +72,51 @@ fn finding(c: &Component, at: Pt, measured: f64, required: f64, message: String)
         measured: Some(measured),
         required: Some(required),
         message,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::artwork::{Layer, Role};
+    use crate::check::check_artwork;
+    use crate::check::fixture::{self, show};
+    use crate::finding::Rule;
+    use crate::geom::rect;
+    use crate::layout::PlateId;
+
+    /// A mark bar running over the front glass edge at x = 0.
+    #[test]
+    fn ito_crossing_the_glass_edge() {
+        let mut art = fixture::clean();
+        let bar = art.shapes.iter_mut().find(|s| s.layer == Layer::FrontMarks).unwrap();
+        bar.polygon = rect(-0.2, 29.175, 0.6, 29.325);
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].plate, f[0].measured), (Rule::EdgeClearance, Some(PlateId::Front), Some(0.0)));
+        assert!(f[0].location.x.abs() < 1e-9, "{:?}", f[0].location);
+    }
+
+    /// The liquid crystal reaches x 39.2 and the back COM1 lead runs to x 38.7: 1.3 mm
+    /// from the back glass edge at x 40, below the 1.5 mm clearance.
+    #[test]
+    fn lead_in_the_liquid_crystal_too_near_the_edge() {
+        let mut art = fixture::clean();
+        art.lc_region = rect(3.0, 9.0, 39.2, 27.0);
+        let lead = art.shapes.iter_mut().find(|s| s.layer == Layer::BackIto && s.role == Role::Lead).unwrap();
+        lead.polygon = rect(20.4, 17.0, 38.7, 17.2);
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].plate), (Rule::EdgeClearance, Some(PlateId::Back)));
+        assert!((f[0].measured.unwrap() - 1.3).abs() < 1e-9, "{:?}", f[0].measured);
+        assert!((f[0].location.x - 38.7).abs() < 1e-9, "{:?}", f[0].location);
+    }
+
+    /// Pads 1 mm from the edge on the ledge, and transfer pads under the seal, are
+    /// nearer the edge than 1.5 mm but outside the liquid crystal: allowed.
+    #[test]
+    fn pads_on_the_ledge_may_come_near_the_edge() {
+        let art = fixture::clean();
+        assert!(art.pins.iter().all(|p| crate::geom::distance(&p.pad, &rect(0.0, -1.0, 40.0, 0.0)) < 1.5));
+        assert!(check_artwork(&art).is_empty());
     }
 }

@@ -91,3 +91,51 @@ fn region_distance(a: &geom::Region, b: &geom::Region, limit: f64) -> f64 {
     }
     best
 }
+
+#[cfg(test)]
+mod tests {
+    use crate::artwork::{Layer, Role};
+    use crate::check::check_artwork;
+    use crate::check::fixture::{self, show};
+    use crate::finding::Rule;
+    use crate::geom::rect;
+
+    /// S2 0.04 mm from S1 (min gap 0.05): one `gap` naming both, measured 0.04 (the
+    /// polygon distance, GEOS semantics), located midway at x = 14.02.
+    #[test]
+    fn segments_too_close_break_gap() {
+        let mut art = fixture::clean();
+        fixture::move_s2(&mut art, 14.04);
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].nets.clone()), (Rule::Gap, vec!["S1".to_string(), "S2".to_string()]));
+        assert!((f[0].measured.unwrap() - 0.04).abs() < 1e-9, "{:?}", f[0].measured);
+        assert!((f[0].location.x - 14.02).abs() < 1e-9, "{:?}", f[0].location);
+    }
+
+    /// With pre-compensation (undercut 0.02) a 0.1 mm drawn gap is 0.06 mm on the film
+    /// (DESIGN.md §3: features grow by the undercut), below a 0.08 mm film.
+    #[test]
+    fn compensated_gap_below_the_film_feature() {
+        let mut art = fixture::clean();
+        art.rules.compensate = true;
+        art.rules.undercut = 0.02;
+        art.rules.film_min_feature = 0.08;
+        fixture::move_s2(&mut art, 14.1);
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!(f[0].rule, Rule::FilmFeature);
+        assert!((f[0].measured.unwrap() - 0.06).abs() < 1e-9, "{:?}", f[0].measured);
+    }
+
+    /// Pieces of the same net never make a gap finding, however close (here 0.01 mm,
+    /// which is an open instead).
+    #[test]
+    fn same_net_pieces_are_no_gap() {
+        let mut art = fixture::clean();
+        fixture::set(&mut art, Layer::FrontIto, Role::Lead, "S1", rect(11.9, 4.01, 12.1, 15.0));
+        let f = check_artwork(&art);
+        assert!(fixture::of_rule(&f, Rule::Gap).is_empty(), "{}", show(&f));
+        assert_eq!(fixture::of_rule(&f, Rule::Open).len(), 1, "{}", show(&f));
+    }
+}

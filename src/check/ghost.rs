@@ -22,15 +22,16 @@ pub const MIN_GHOST_MM2: f64 = 1e-6;
 /// The ITO of one plate clipped to a region.
 fn plate_ito(ex: &Extraction, plate: PlateId, clip: &Region) -> Region {
     let polys = ex.components.iter().filter(|c| c.plate == plate).flat_map(|c| c.region.0.iter().cloned());
-    geom::intersection(&geom::region_of(polys), clip)
+    geom::snap(&geom::intersection(&geom::region_of(polys), clip))
 }
 
 /// Where the two plates' ITO overlap in the liquid crystal outside the designed pixels.
 pub fn ghost_region(art: &Artwork, ex: &Extraction) -> Region {
     let lc = geom::region_of([art.lc_region.clone()]);
-    let lit = geom::intersection(&plate_ito(ex, PlateId::Front, &lc), &plate_ito(ex, PlateId::Back, &lc));
+    let lit = geom::snap(&geom::intersection(&plate_ito(ex, PlateId::Front, &lc), &plate_ito(ex, PlateId::Back, &lc)));
     let pixels = geom::region_of(art.pixels.iter().flat_map(|p| p.region.0.iter().cloned()));
-    geom::difference(&lit, &pixels)
+    // Boolean output is snapped back to the 1 nm grid (see `connectivity::unite`).
+    geom::snap(&geom::difference(&lit, &pixels))
 }
 
 /// Reports every ghost pixel.
@@ -80,4 +81,45 @@ fn nets_under(ex: &Extraction, plate: PlateId, piece: &Polygon, at: geom::Pt) ->
 
 fn or_none(nets: &[String]) -> String {
     if nets.is_empty() { "no net".to_string() } else { list(nets) }
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::artwork::{Layer, Role};
+    use crate::check::check_artwork;
+    use crate::check::fixture::{self, show};
+    use crate::finding::{Rule, Severity};
+    use crate::geom::rect;
+
+    /// A back COM1 strip from x 15 to 30 (joined to the COM1 lead at x 30) crosses S2's
+    /// 0.2 mm front lead; DESIGN.md §2 says the crossing switches when liquid crystal is
+    /// between them.
+    fn crossing_at(y0: f64, y1: f64) -> Vec<crate::finding::Finding> {
+        let mut art = fixture::clean();
+        fixture::add(&mut art, Layer::BackIto, Role::Lead, Some("COM1"), rect(15.0, y0, 30.0, y1));
+        check_artwork(&art)
+    }
+
+    #[test]
+    fn crossing_inside_the_window_is_a_ghost_error() {
+        let f = crossing_at(12.0, 12.5);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].severity), (Rule::Ghost, Severity::Error));
+        assert_eq!(f[0].nets, vec!["S2".to_string(), "COM1".to_string()]);
+        assert!((f[0].measured.unwrap() - 0.1).abs() < 1e-9, "{:?}", f[0].measured);
+    }
+
+    #[test]
+    fn crossing_outside_the_window_in_the_liquid_crystal_is_a_warning() {
+        let f = crossing_at(9.5, 10.5);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].severity), (Rule::Ghost, Severity::Warning));
+        assert!((f[0].measured.unwrap() - 0.2).abs() < 1e-9, "{:?}", f[0].measured);
+    }
+
+    #[test]
+    fn crossing_under_the_seal_is_harmless() {
+        let f = crossing_at(7.9, 8.3);
+        assert!(f.is_empty(), "{}", show(&f));
+    }
 }

@@ -39,3 +39,35 @@ pub fn check_extracted(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     out.extend(edge::check_edge(art, ex));
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::fixture::{self, show};
+    use super::*;
+
+    /// The clean fixture breaks no rule: every check must stay silent on it.
+    #[test]
+    fn clean_fixture_gives_no_findings() {
+        let f = check_artwork(&fixture::clean());
+        assert!(f.is_empty(), "{}", show(&f));
+    }
+
+    /// Three independent problems in one artwork — a narrow lead, a covered pad and a
+    /// ghost in the window — are all reported, not just the first.
+    #[test]
+    fn all_findings_are_reported() {
+        use crate::artwork::{Layer, Role};
+        use crate::finding::Rule;
+        use crate::geom::rect;
+        let mut art = fixture::clean();
+        fixture::set(&mut art, Layer::FrontIto, Role::Lead, "S1", rect(11.98, 2.0, 12.02, 15.0));
+        let pad = rect(17.0, 1.0, 19.0, 7.0);
+        fixture::set(&mut art, Layer::FrontIto, Role::Pad, "S2", pad.clone());
+        art.pins[1].pad = pad;
+        fixture::add(&mut art, Layer::BackIto, Role::Lead, Some("COM1"), rect(15.0, 12.0, 30.0, 12.5));
+        let f = check_artwork(&art);
+        let mut rules: Vec<Rule> = f.iter().map(|f| f.rule).collect();
+        rules.sort();
+        assert_eq!(rules, vec![Rule::Width, Rule::Ghost, Rule::PadCovered], "{}", show(&f));
+    }
+}

@@ -16,7 +16,7 @@ pub const MIN_COVERED_MM2: f64 = 1e-6;
 pub fn check_pads(art: &Artwork) -> Vec<Finding> {
     let mut out = Vec::new();
     for pin in &art.pins {
-        let covered = geom::difference(&geom::region_of([pin.pad.clone()]), &art.ledge);
+        let covered = geom::snap(&geom::difference(&geom::region_of([pin.pad.clone()]), &art.ledge));
         let area = geom::area(&covered);
         if area <= MIN_COVERED_MM2 {
             continue;
@@ -38,4 +38,27 @@ pub fn check_pads(art: &Artwork) -> Vec<Finding> {
         });
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::artwork::{Layer, Role};
+    use crate::check::check_artwork;
+    use crate::check::fixture::{self, show};
+    use crate::finding::Rule;
+    use crate::geom::rect;
+
+    /// S1's pad reaches 1 mm under the back glass (ledge ends at y 6): 2 × 1 mm² covered.
+    #[test]
+    fn pad_under_the_back_glass_is_covered() {
+        let mut art = fixture::clean();
+        let pad = rect(11.0, 1.0, 13.0, 7.0);
+        fixture::set(&mut art, Layer::FrontIto, Role::Pad, "S1", pad.clone());
+        art.pins[0].pad = pad;
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].nets.clone()), (Rule::PadCovered, vec!["S1".to_string()]));
+        assert!((f[0].measured.unwrap() - 2.0).abs() < 1e-9, "{:?}", f[0].measured);
+        assert!(f[0].location.y > 6.0 && f[0].location.y < 7.0);
+    }
 }

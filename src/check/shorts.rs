@@ -67,3 +67,49 @@ pub(crate) fn list(nets: &[String]) -> String {
         [init @ .., last] => format!("{} and {last}", init.join(", ")),
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use crate::artwork::{Layer, Role};
+    use crate::check::check_artwork;
+    use crate::check::fixture::{self, show};
+    use crate::finding::Rule;
+    use crate::geom::rect;
+
+    /// Two nets whose ITO touches along an edge are one conductor (a short), as GEOS
+    /// `intersects` counts boundary contact; the finding names both and sits on the
+    /// shared edge x = 14.
+    #[test]
+    fn touching_nets_give_one_short_naming_both() {
+        let mut art = fixture::clean();
+        fixture::move_s2(&mut art, 14.0);
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!(f[0].rule, Rule::Short);
+        assert_eq!(f[0].nets, vec!["S1".to_string(), "S2".to_string()]);
+        assert!((f[0].location.x - 14.0).abs() < 1e-9 && (15.0..=20.0).contains(&f[0].location.y), "{:?}", f[0].location);
+    }
+
+    /// Overlapping nets: the location lies inside the overlap 13.9..14 × 15..20.
+    #[test]
+    fn overlapping_nets_short_inside_the_overlap() {
+        let mut art = fixture::clean();
+        fixture::move_s2(&mut art, 13.9);
+        let f = check_artwork(&art);
+        let shorts = fixture::of_rule(&f, Rule::Short);
+        assert_eq!(shorts.len(), 1, "{}", show(&f));
+        let p = shorts[0].location;
+        assert!(p.x > 13.9 && p.x < 14.0 && p.y > 15.0 && p.y < 20.0, "{p:?}");
+    }
+
+    /// A net-less mark bar laid across both leads joins them: one short, both nets.
+    #[test]
+    fn a_mark_bridging_two_leads_is_a_short() {
+        let mut art = fixture::clean();
+        fixture::add(&mut art, Layer::FrontMarks, Role::Mark, None, rect(12.0, 5.0, 18.0, 5.1));
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].nets.clone()), (Rule::Short, vec!["S1".to_string(), "S2".to_string()]));
+        assert!(f[0].message.contains("mark"), "{}", f[0].message);
+    }
+}
