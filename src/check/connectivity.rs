@@ -392,7 +392,7 @@ pub fn meeting_point(a: &Polygon, b: &Polygon) -> Pt {
     let (ea, eb) = (EdgeIndex::of_region(&geom::region_of([a.clone()])), EdgeIndex::of_region(&geom::region_of([b.clone()])));
     match ea.closest(&eb) {
         Some(c) => c.midpoint(),
-        None => a.exterior().0.first().copied().unwrap_or(geom::pt(0.0, 0.0)),
+        None => super::index::any_point(a),
     }
 }
 

@@ -9,6 +9,7 @@
 //! switches). Overlaps under or outside the seal have no liquid crystal and never count.
 
 use super::connectivity::Extraction;
+use super::index::any_point;
 use super::shorts::list;
 use crate::artwork::Artwork;
 use crate::finding::{Finding, Rule, Severity};
@@ -42,7 +43,7 @@ pub fn check_ghosts(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
         if area <= MIN_GHOST_MM2 {
             continue;
         }
-        let at = piece.interior_point().map(|p| p.0).unwrap_or(piece.exterior().0[0]);
+        let at = piece.interior_point().map(|p| p.0).unwrap_or_else(|| any_point(piece));
         let front = nets_under(ex, PlateId::Front, piece, at);
         let back = nets_under(ex, PlateId::Back, piece, at);
         let visible = piece.intersects(&art.window);

@@ -11,7 +11,8 @@ use rstar::{RTree, AABB};
 /// An axis-aligned box in mm.
 pub type Bbox = AABB<[f64; 2]>;
 
-/// The box around a set of points (`None` when there are none).
+/// The box around a set of points (`None` when there are none, or when a coordinate is
+/// not finite — such a polygon is a generator bug, and the R-tree must not see it).
 pub fn bbox_of_points(points: impl IntoIterator<Item = Pt>) -> Option<Bbox> {
     let mut it = points.into_iter();
     let first = it.next()?;
@@ -20,7 +21,12 @@ pub fn bbox_of_points(points: impl IntoIterator<Item = Pt>) -> Option<Bbox> {
         lo = [lo[0].min(p.x), lo[1].min(p.y)];
         hi = [hi[0].max(p.x), hi[1].max(p.y)];
     }
-    Some(AABB::from_corners(lo, hi))
+    lo.iter().chain(hi.iter()).all(|v| v.is_finite()).then(|| AABB::from_corners(lo, hi))
+}
+
+/// Some point of a polygon (its first vertex), or the origin for an empty one.
+pub fn any_point(p: &Polygon) -> Pt {
+    p.exterior().0.first().copied().unwrap_or(crate::geom::pt(0.0, 0.0))
 }
 
 /// The box around a polygon's outer ring.
@@ -113,6 +119,9 @@ pub fn region_edges(region: &Region) -> Vec<Edge> {
             }
             let n = pts.len();
             if n < 3 {
+                continue;
+            }
+            if pts.iter().any(|p| !p.x.is_finite() || !p.y.is_finite()) {
                 continue;
             }
             for i in 0..n {

@@ -71,3 +71,4 @@ mod tests {
         assert_eq!(rules, vec![Rule::Width, Rule::Ghost, Rule::PadCovered], "{}", show(&f));
     }
 }
+

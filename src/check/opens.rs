@@ -59,7 +59,7 @@ fn piece_plate(art: &Artwork, p: &Piece) -> Option<crate::layout::PlateId> {
 /// Centroid of the united shapes of a piece.
 fn piece_centroid(art: &Artwork, p: &Piece) -> Pt {
     let u = super::connectivity::unite(p.shapes.iter().map(|&i| art.shapes[i].polygon.clone()));
-    u.centroid().map(|c| c.0).unwrap_or_else(|| art.shapes[p.shapes[0]].polygon.exterior().0[0])
+    u.centroid().map(|c| c.0).unwrap_or_else(|| super::index::any_point(&art.shapes[p.shapes[0]].polygon))
 }
 
 /// Somewhere to point at for a net without ITO: its pad, else its pixel, else the origin.

@@ -22,7 +22,7 @@ pub fn check_pads(art: &Artwork) -> Vec<Finding> {
             continue;
         }
         let biggest = covered.0.iter().max_by(|a, b| geom::area(*a).total_cmp(&geom::area(*b)));
-        let at = biggest.and_then(|p| p.interior_point()).map(|p| p.0).unwrap_or(pin.pad.exterior().0[0]);
+        let at = biggest.and_then(|p| p.interior_point()).map(|p| p.0).unwrap_or_else(|| crate::check::index::any_point(&pin.pad));
         out.push(Finding {
             rule: Rule::PadCovered,
             severity: Severity::Error,

@@ -26,8 +26,10 @@ use crate::finding::{Finding, Rule, Severity};
 use crate::geom::{dist, dist2, point_segment_closest, pt, segment_intersection, Pt, Region};
 use crate::layout::{PlateId, Rules};
 
-/// Measurements closer than this to a limit pass (floating-point slack, far below 1 nm).
-pub const SLACK_MM: f64 = 1e-9;
+/// Measurements within this of a limit pass: one step of the 1 nm snap grid, since
+/// snapping a slanted edge's end points moves the edge by up to a fraction of a nm, so a
+/// slanted line drawn exactly at the limit can measure a few tenths of a nm under it.
+pub const SLACK_MM: f64 = crate::geom::SNAP_MM;
 
 /// Two edges count as facing when the angle between one and the reverse of the other is
 /// below this (45°, as a cosine).
@@ -377,5 +379,30 @@ mod tests {
         let hits = merge_hits(&narrow_places(&r, 0.05), 0.05);
         assert!(!hits.is_empty());
         assert!(hits.iter().all(|h| h.distance < 0.031 && h.distance > 0.029), "{hits:?}");
+    }
+
+    /// Leads stroked with round caps and joins, bent and slanted, drawn exactly at the
+    /// minimum width and film feature: no line finding (the snap grid moves slanted
+    /// edges by a fraction of a nm, within `SLACK_MM`). One lead 2 µm narrower is found.
+    #[test]
+    fn stroked_leads_at_the_limit_give_no_line_findings() {
+        let mut art = fixture::clean();
+        art.rules.min_width = 0.1;
+        art.rules.undercut = 0.0;
+        art.rules.film_min_feature = 0.1;
+        for k in 0..10 {
+            let x = 5.0 + 2.0 * k as f64;
+            let w = if k == 9 { 0.098 } else { 0.1 };
+            let net = format!("N{k}");
+            let path = [pt(x, 24.0), pt(x, 22.0), pt(x + 0.3, 21.0), pt(x + 0.3, 23.5)];
+            for p in stroke_polyline(&path, w, 1e-3).0 {
+                fixture::add(&mut art, Layer::FrontIto, Role::Lead, Some(&net), p);
+            }
+        }
+        let f = check_artwork(&art);
+        let lines: Vec<_> = f.iter().filter(|f| matches!(f.rule, Rule::Width | Rule::EtchedWidth | Rule::FilmFeature)).collect();
+        let names: Vec<_> = lines.iter().map(|f| (f.rule, f.nets.clone())).collect();
+        assert_eq!(names, vec![(Rule::Width, vec!["N9".to_string()]), (Rule::FilmFeature, vec!["N9".to_string()])], "{}", show(&f));
+        assert!((lines[0].measured.unwrap() - 0.098).abs() < 1e-6, "{:?}", lines[0].measured);
     }
 }
