@@ -206,9 +206,9 @@ impl Extraction {
             }))
         });
 
-        let (pieces, cross_links, bridges) = find_pieces(art, &ito, &links, total, &node);
+        let (pieces, shape_piece, cross_links, bridges) = find_pieces(art, &ito, &links, total, &node);
         let mut ex = Extraction { components, groups, shape_component, dots, links, pieces, cross_links, bridges, by_plate };
-        ex.attach_pins(art, &shape_index);
+        ex.attach_pins(art, &shape_index, &shape_piece);
         ex
     }
 
@@ -237,7 +237,7 @@ impl Extraction {
         nets.into_iter().cloned().collect()
     }
 
-    fn attach_pins(&mut self, art: &Artwork, shape_index: &BoxIndex<usize>) {
+    fn attach_pins(&mut self, art: &Artwork, shape_index: &BoxIndex<usize>, shape_piece: &[Option<usize>]) {
         for pin in &art.pins {
             let Some(b) = bbox_of_polygon(&pin.pad) else { continue };
             let under: Vec<usize> = shape_index
@@ -254,9 +254,10 @@ impl Extraction {
             for g in groups {
                 self.groups[g].pins.push(pin.number);
             }
-            for piece in &mut self.pieces {
-                if piece.net == pin.net && piece.shapes.iter().any(|s| under.contains(s)) {
-                    piece.pins.push(pin.number);
+            let pieces: BTreeSet<usize> = under.iter().filter_map(|&i| shape_piece[i]).collect();
+            for p in pieces {
+                if self.pieces[p].net == pin.net {
+                    self.pieces[p].pins.push(pin.number);
                 }
             }
         }
@@ -337,7 +338,7 @@ fn find_pieces(
     links: &[Link],
     total: usize,
     node: &dyn Fn(Node) -> usize,
-) -> (Vec<Piece>, Vec<usize>, Vec<Bridge>) {
+) -> (Vec<Piece>, Vec<Option<usize>>, Vec<usize>, Vec<Bridge>) {
     let net_of = |n: Node| match n {
         Node::Shape(i) => art.shapes[i].net.as_deref(),
         Node::Dot(_) => None,
@@ -369,6 +370,7 @@ fn find_pieces(
     // One piece per (set, net) among tagged ITO shapes.
     let mut pieces: Vec<Piece> = Vec::new();
     let mut piece_of: std::collections::BTreeMap<(usize, String), usize> = Default::default();
+    let mut shape_piece = vec![None; art.shapes.len()];
     for &i in ito {
         let Some(net) = &art.shapes[i].net else { continue };
         let r = sets.find(i);
@@ -377,8 +379,9 @@ fn find_pieces(
             pieces.len() - 1
         });
         pieces[p].shapes.push(i);
+        shape_piece[i] = Some(p);
     }
-    (pieces, cross, bridges)
+    (pieces, shape_piece, cross, bridges)
 }
 
 /// A point where two polygons meet: an interior point of their overlap, or a point where

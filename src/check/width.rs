@@ -9,10 +9,9 @@
 //! line ends out, which are not narrow lines:
 //!
 //! * adjacent edges never pair (a pointed tip);
-//! * a pair whose outline on one side closes around within 0.75·d of the pair's midpoint
-//!   while the other side does not is a line end, round or square (d is the distance
-//!   measured). A feature closed on both sides, such as a dot smaller than the limit, is
-//!   still reported.
+//! * a pair joined on exactly one side by a short stretch of outline — at most 4·d long,
+//!   d the distance measured — is a line end (round, square, or a blunted point). A
+//!   feature short on both sides, such as a dot smaller than the limit, is still reported.
 //!
 //! Neighbouring hits (within one limit of each other) merge into one finding, located
 //! midway across the narrowest hit.
@@ -35,8 +34,10 @@ pub const SLACK_MM: f64 = crate::geom::SNAP_MM;
 /// below this (45°, as a cosine).
 const FACING_COS: f64 = std::f64::consts::FRAC_1_SQRT_2;
 
-/// A line end closes around within this many times half the measured distance.
-const END_RADIUS: f64 = 1.5;
+/// A line end: the outline on one side of a facing pair is at most this many times the
+/// measured distance long (a semicircular end is π/2 ≈ 1.57 times, a square end 1 to 3
+/// times near the end, a blunted 30° point about 3.7 times).
+const END_CHAIN: f64 = 4.0;
 
 /// Points sampled along the overlap of each edge of a pair.
 const SAMPLES: usize = 8;
@@ -139,28 +140,35 @@ fn narrowest_central(found: &[Hit]) -> Option<Hit> {
     narrow.into_iter().min_by(|a, b| dist2(a.midpoint(), c).total_cmp(&dist2(b.midpoint(), c))).copied()
 }
 
-/// True when the outline closes around the pair on exactly one side (a line end).
+/// True when the outline runs from one facing point to the other within
+/// [`END_CHAIN`]·d on exactly one side: the boundary turns round there, so this is a line
+/// end (round, square or a blunted point), not a narrow line.
 fn is_line_end(idx: &EdgeIndex, i: usize, j: usize, h: &Hit) -> bool {
     let (e, f) = (&idx.edges[i], &idx.edges[j]);
     if e.ring != f.ring {
         return false;
     }
     let (start, n) = (i - e.index, e.ring_edges);
-    let m = h.midpoint();
-    let r2 = (END_RADIUS * h.distance / 2.0).powi(2);
-    let hugs = |from: usize, to: usize| {
-        let mut k = from % n;
+    let budget = END_CHAIN * h.distance;
+    // Walks from `from` through ring vertices `first..=last` to `to`, giving up once the
+    // length exceeds the budget.
+    let short = |from: Pt, first: usize, last: usize, to: Pt| {
+        let (mut len, mut prev, mut k) = (0.0, from, first % n);
         loop {
-            if dist2(idx.edges[start + k].a, m) > r2 {
+            let v = idx.edges[start + k].a;
+            len += dist(prev, v);
+            if len > budget {
                 return false;
             }
-            if k == to {
-                return true;
+            prev = v;
+            if k == last {
+                return len + dist(prev, to) <= budget;
             }
             k = (k + 1) % n;
         }
     };
-    hugs(e.index + 1, f.index) != hugs(f.index + 1, e.index)
+    // `p` lies on edge e (vertex e.index → e.index + 1), `q` on edge f.
+    short(h.p, e.index + 1, f.index, h.q) != short(h.q, f.index + 1, e.index, h.p)
 }
 
 /// True when some other edge crosses the segment between the two facing points.
@@ -338,6 +346,22 @@ mod tests {
         let hits = merge_hits(&narrow_places(&oriented([bar]), 1.2), 1.2);
         assert_eq!(hits.len(), 1);
         assert!((hits[0].distance - 1.0).abs() < 1e-9);
+    }
+
+    /// A 1 mm bar ending in a 30° point (tip length 0.5 / tan 15°): the two edges of the
+    /// point are adjacent and never pair, and a point blunted by a 1 µm flat is a line
+    /// end. Without the exclusions the point would measure down to 0.
+    #[test]
+    fn sharp_points_are_not_width_violations() {
+        let tip = 3.0 + 0.5 / 15f64.to_radians().tan();
+        let sharp = Polygon::new(vec![(0.0, 0.0), (3.0, 0.0), (tip, 0.5), (3.0, 1.0), (0.0, 1.0), (0.0, 0.0)].into(), vec![]);
+        assert!(narrow_places(&oriented([sharp]), 0.99).is_empty());
+        let flat = 0.0005 / 15f64.to_radians().tan();
+        let blunt = Polygon::new(
+            vec![(0.0, 0.0), (3.0, 0.0), (tip - flat, 0.4995), (tip - flat, 0.5005), (3.0, 1.0), (0.0, 1.0), (0.0, 0.0)].into(),
+            vec![],
+        );
+        assert!(narrow_places(&oriented([blunt]), 0.99).is_empty());
     }
 
     /// A square standing on a corner (all tips 90°, opposite sides √2 apart, textbook
