@@ -423,6 +423,7 @@ mod tests {
         assert!((geom::area(&s1.region) - (20.0 + 0.2 * 11.0 + 6.0)).abs() < 1e-9);
     }
 
+    /// A probe inside S1's segment meets only S1; one over bare glass meets nothing.
     #[test]
     fn components_meeting_finds_the_ito_under_a_polygon() {
         let art = fixture::clean();

@@ -60,6 +60,8 @@ impl DisjointSets {
 mod tests {
     use super::*;
 
+    /// Union–find invariant (Tarjan 1975): after union(3, 4) and union(1, 3), 1, 3 and 4
+    /// share a set; labels follow the smallest member.
     #[test]
     fn unions_are_transitive_and_labels_ordered() {
         let mut s = DisjointSets::new(5);

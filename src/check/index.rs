@@ -233,6 +233,7 @@ mod tests {
         assert!((d - c.distance).abs() < 1e-12);
     }
 
+    /// Overlapping squares: GEOS `distance` is 0 for intersecting geometries.
     #[test]
     fn crossing_edges_give_zero() {
         let a = EdgeIndex::of_region(&region_of([rect(0.0, 0.0, 1.0, 1.0)]));
@@ -240,6 +241,7 @@ mod tests {
         assert_eq!(a.closest(&b).unwrap().distance, 0.0);
     }
 
+    /// A closed ring's last edge is adjacent to its first (the closing vertex is shared).
     #[test]
     fn adjacency_wraps_around_the_ring() {
         let e = region_edges(&region_of([rect(0.0, 0.0, 1.0, 1.0)]));
@@ -247,6 +249,8 @@ mod tests {
         assert!(e[0].is_adjacent(&e[3]) && e[0].is_adjacent(&e[1]) && !e[0].is_adjacent(&e[2]));
     }
 
+    /// Boxes 0.2 mm apart meet once one is grown by 0.3 mm; the far box does not
+    /// (hand-computed).
     #[test]
     fn box_index_finds_only_overlapping_boxes() {
         let idx = BoxIndex::new([(bbox_of_polygon(&rect(0.0, 0.0, 1.0, 1.0)).unwrap(), 0usize), (bbox_of_polygon(&rect(5.0, 5.0, 6.0, 6.0)).unwrap(), 1)]);

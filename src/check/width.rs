@@ -387,7 +387,8 @@ mod tests {
         assert!((hits[0].distance - 0.1).abs() < 1e-6, "{:?}", hits[0]);
     }
 
-    /// A dot smaller than the limit is closed on both sides: it is reported.
+    /// A dot of diameter 0.04 (flattened to 0.1 µm chords, so 0.04 across at most) is
+    /// short on both sides of every facing pair: it is reported.
     #[test]
     fn small_dot_is_narrow() {
         let r = oriented([circle(pt(0.0, 0.0), 0.02, 1e-4)]);
@@ -396,7 +397,8 @@ mod tests {
         assert!(hits[0].distance < 0.04 + 1e-9 && hits[0].distance > 0.039);
     }
 
-    /// A ring (annulus) whose band is 0.03 wide: edges of different rings pair.
+    /// A ring (annulus) of radii 1 and 0.97: the band is 0.03 wide (within the 0.1 µm
+    /// chord tolerance), measured between edges of different rings.
     #[test]
     fn thin_ring_band_is_narrow() {
         let r = oriented([crate::geom::ring(pt(0.0, 0.0), 1.0, 0.97, 1e-4)]);

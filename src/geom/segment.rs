@@ -120,6 +120,8 @@ mod tests {
         assert_eq!((p.x, p.y), (1.0, 0.0));
     }
 
+    /// Collinear segments [0, 1] and [1.5, 3] on one line are 0.5 apart (hand-computed;
+    /// shapely gives the same for these LineStrings).
     #[test]
     fn collinear_disjoint_segments() {
         let (_, _, d) = segment_closest_points(pt(0.0, 0.0), pt(1.0, 0.0), pt(1.5, 0.0), pt(3.0, 0.0));
