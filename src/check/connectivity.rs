@@ -350,11 +350,11 @@ fn find_pieces(
     let mut cross = Vec::new();
     let mut bridges = Vec::new();
     for (li, l) in links.iter().enumerate() {
-        if let (Some(na), Some(nb)) = (net_of(l.a), net_of(l.b)) {
-            if na != nb {
-                cross.push(li);
-                continue;
-            }
+        if let (Some(na), Some(nb)) = (net_of(l.a), net_of(l.b))
+            && na != nb
+        {
+            cross.push(li);
+            continue;
         }
         let (ra, rb) = (sets.find(node(l.a)), sets.find(node(l.b)));
         if ra == rb {

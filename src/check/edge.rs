@@ -33,11 +33,11 @@ pub fn check_edge(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
         let ito = EdgeIndex::of_region(&c.region);
         if let Some(x) = ito.meeting_point(glass) {
             out.push(finding(c, x, 0.0, 0.0, format!("{} crosses or touches the {} glass edge", what(c), c.plate.name())));
-        } else if let Some(first) = ito.edges.first().map(|e| e.a) {
-            if !art.glass(c.plate).intersects(&geo::Point(first)) {
-                let d = ito.closest(glass).map(|cl| cl.distance).unwrap_or(0.0);
-                out.push(finding(c, first, -d, 0.0, format!("{} lies outside the {} glass", what(c), c.plate.name())));
-            }
+        } else if let Some(first) = ito.edges.first().map(|e| e.a)
+            && !art.glass(c.plate).intersects(&geo::Point(first))
+        {
+            let d = ito.closest(glass).map(|cl| cl.distance).unwrap_or(0.0);
+            out.push(finding(c, first, -d, 0.0, format!("{} lies outside the {} glass", what(c), c.plate.name())));
         }
         let inside = geom::snap(&geom::intersection(&c.region, &lc));
         if inside.0.is_empty() {
