@@ -144,7 +144,7 @@ impl Extraction {
         };
         let total = art.shapes.len() + dots.len();
 
-        // Components: shape–shape contacts on one plate.
+        // Components: shape–shape contacts on one plate. Groups: any link.
         let mut comp_sets = DisjointSets::new(total);
         let mut group_sets = DisjointSets::new(total);
         for l in &links {
@@ -153,52 +153,8 @@ impl Extraction {
             }
             group_sets.union(node(l.a), node(l.b));
         }
-        let (comp_label, _) = comp_sets.labels();
-        let (group_label, _) = group_sets.labels();
-        let mut comp_of_root: std::collections::BTreeMap<usize, usize> = Default::default();
-        let mut components: Vec<Component> = Vec::new();
-        let mut shape_component = vec![None; art.shapes.len()];
-        for &i in &ito {
-            let c = *comp_of_root.entry(comp_label[i]).or_insert_with(|| {
-                components.push(Component {
-                    plate: art.shapes[i].layer.plate().expect("ITO has a plate"),
-                    shapes: Vec::new(),
-                    region: Region::new(vec![]),
-                    nets: Vec::new(),
-                    group: 0,
-                });
-                components.len() - 1
-            });
-            components[c].shapes.push(i);
-            shape_component[i] = Some(c);
-        }
-        for c in &mut components {
-            c.region = unite(c.shapes.iter().map(|&i| art.shapes[i].polygon.clone()));
-            c.nets = sorted_nets(c.shapes.iter().map(|&i| &art.shapes[i]));
-        }
-
-        // Groups: components and dots joined by any link.
-        let mut group_of_root: std::collections::BTreeMap<usize, usize> = Default::default();
-        let mut groups: Vec<Group> = Vec::new();
-        let mut group_id = |label: usize, groups: &mut Vec<Group>| {
-            *group_of_root.entry(label).or_insert_with(|| {
-                groups.push(Group::default());
-                groups.len() - 1
-            })
-        };
-        for (ci, c) in components.iter_mut().enumerate() {
-            let g = group_id(group_label[c.shapes[0]], &mut groups);
-            c.group = g;
-            groups[g].components.push(ci);
-        }
-        for k in 0..dots.len() {
-            let g = group_id(group_label[art.shapes.len() + k], &mut groups);
-            groups[g].dots.push(k);
-        }
-        for g in &mut groups {
-            let nets: BTreeSet<&String> = g.components.iter().flat_map(|&c| components[c].nets.iter()).collect();
-            g.nets = nets.into_iter().cloned().collect();
-        }
+        let (mut components, shape_component) = build_components(art, &ito, &comp_sets.labels().0);
+        let groups = build_groups(art, &mut components, dots.len(), &group_sets.labels().0);
 
         let by_plate = [PlateId::Front, PlateId::Back].map(|p| {
             BoxIndex::new(components.iter().enumerate().filter(|(_, c)| c.plate == p).filter_map(|(i, c)| {
@@ -276,6 +232,54 @@ impl Extraction {
     pub fn link_point(&self, art: &Artwork, l: &Link) -> Pt {
         meeting_point(self.node_polygon(art, l.a), self.node_polygon(art, l.b))
     }
+}
+
+/// One component per set of touching shapes, in order of their first shape.
+fn build_components(art: &Artwork, ito: &[usize], label: &[usize]) -> (Vec<Component>, Vec<Option<usize>>) {
+    let mut comp_of_label: std::collections::BTreeMap<usize, usize> = Default::default();
+    let mut components: Vec<Component> = Vec::new();
+    let mut shape_component = vec![None; art.shapes.len()];
+    for &i in ito {
+        let c = *comp_of_label.entry(label[i]).or_insert_with(|| {
+            let plate = art.shapes[i].layer.plate().unwrap_or(PlateId::Front);
+            components.push(Component { plate, shapes: Vec::new(), region: Region::new(vec![]), nets: Vec::new(), group: 0 });
+            components.len() - 1
+        });
+        components[c].shapes.push(i);
+        shape_component[i] = Some(c);
+    }
+    for c in &mut components {
+        c.region = unite(c.shapes.iter().map(|&i| art.shapes[i].polygon.clone()));
+        c.nets = sorted_nets(c.shapes.iter().map(|&i| &art.shapes[i]));
+    }
+    (components, shape_component)
+}
+
+/// One group per set of components and dots joined by any link; sets each component's
+/// group.
+fn build_groups(art: &Artwork, components: &mut [Component], dots: usize, label: &[usize]) -> Vec<Group> {
+    let mut group_of_label: std::collections::BTreeMap<usize, usize> = Default::default();
+    let mut groups: Vec<Group> = Vec::new();
+    let mut group_id = |l: usize, groups: &mut Vec<Group>| {
+        *group_of_label.entry(l).or_insert_with(|| {
+            groups.push(Group::default());
+            groups.len() - 1
+        })
+    };
+    for (ci, c) in components.iter_mut().enumerate() {
+        let g = group_id(label[c.shapes[0]], &mut groups);
+        c.group = g;
+        groups[g].components.push(ci);
+    }
+    for k in 0..dots {
+        let g = group_id(label[art.shapes.len() + k], &mut groups);
+        groups[g].dots.push(k);
+    }
+    for g in &mut groups {
+        let nets: BTreeSet<&String> = g.components.iter().flat_map(|&c| components[c].nets.iter()).collect();
+        g.nets = nets.into_iter().cloned().collect();
+    }
+    groups
 }
 
 /// Unites polygons, puts the result back on the 1 nm grid and orients it
