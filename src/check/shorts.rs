@@ -112,4 +112,18 @@ mod tests {
         assert_eq!((f[0].rule, f[0].nets.clone()), (Rule::Short, vec!["S1".to_string(), "S2".to_string()]));
         assert!(f[0].message.contains("mark"), "{}", f[0].message);
     }
+
+    /// A transfer dot conducts between the plates (DESIGN.md §2): one dropped on S2's
+    /// segment, under the COM1 backplane, joins S2 and COM1 — one short between the plates.
+    #[test]
+    fn a_stray_transfer_dot_shorts_across_the_plates() {
+        let mut art = fixture::clean();
+        let dot = crate::geom::circle(crate::geom::pt(18.0, 17.5), 0.3, 1e-3);
+        fixture::add(&mut art, Layer::TransferDots, Role::Outline, None, dot);
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].plate), (Rule::Short, None));
+        assert_eq!(f[0].nets, vec!["COM1".to_string(), "S2".to_string()]);
+        assert!(crate::geom::dist(f[0].location, crate::geom::pt(18.0, 17.5)) < 0.3, "{:?}", f[0].location);
+    }
 }
