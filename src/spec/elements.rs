@@ -13,6 +13,9 @@ use crate::layout::*;
 const STYLES: [(&str, DigitStyle); 3] =
     [("seven", DigitStyle::Seven), ("fourteen", DigitStyle::Fourteen), ("sixteen", DigitStyle::Sixteen)];
 
+/// Most digits in one group (a guard against typos such as `count: 40000`).
+pub const MAX_DIGITS: i64 = 100;
+
 /// Largest slant we accept, degrees either way.
 pub const MAX_SLANT: f64 = 20.0;
 
@@ -33,7 +36,11 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules) -> Dig
         p.bad(&k("name"), format!("`{name}` is not a digit group name"), GROUP_NAME);
     }
     let style = p.word(d.style.as_ref(), &k("style"), &STYLES, None);
-    let count = p.int(d.count.as_ref(), &k("count"), None, 1);
+    let mut count = p.int(d.count.as_ref(), &k("count"), None, 1);
+    if count > MAX_DIGITS {
+        p.bad(&k("count"), format!("{count} digits in one group is more than segment glass carries"), &format!("1 to {MAX_DIGITS}"));
+        count = 1;
+    }
     let origin = p.point(d.origin.as_ref(), &k("origin"), None);
     let height = p.length(d.height.as_ref(), &k("height"), None, Sign::Positive);
     let width = p.length(d.width.as_ref(), &k("width"), None, Sign::Positive);
