@@ -227,7 +227,10 @@ impl Scanner {
     /// A block key `key` at column `col` on line `l`; gives its path.
     fn key(&mut self, l: usize, col: usize, key: &str) -> String {
         while self.stack.len() > 1
-            && self.stack.last().is_some_and(|f| f.indent > col || (matches!(f.kind, Kind::Seq { .. }) && f.indent >= col))
+            && self
+                .stack
+                .last()
+                .is_some_and(|f| f.indent > col || (matches!(f.kind, Kind::Seq { .. }) && f.indent >= col))
         {
             self.stack.pop();
         }
@@ -384,10 +387,10 @@ impl Scanner {
 
     /// A scalar inside a flow collection: quoted, or plain up to `,` `}` `]` or `: `.
     fn flow_scalar(&self, p: usize) -> (String, usize) {
-        if matches!(self.chars[p], '"' | '\'') {
-            if let Some(q) = self.quoted(p) {
-                return q;
-            }
+        if matches!(self.chars[p], '"' | '\'')
+            && let Some(q) = self.quoted(p)
+        {
+            return q;
         }
         let mut e = p;
         while e < self.chars.len() {
@@ -395,7 +398,8 @@ impl Scanner {
             if matches!(c, ',' | '}' | ']' | '{' | '[' | '\n') {
                 break;
             }
-            if c == ':' && matches!(self.chars.get(e + 1), None | Some(' ' | ',' | '}' | ']' | '\n' | '\r' | '{' | '[')) {
+            if c == ':' && matches!(self.chars.get(e + 1), None | Some(' ' | ',' | '}' | ']' | '\n' | '\r' | '{' | '['))
+            {
                 break;
             }
             if c == '#' && e > p && self.chars[e - 1] == ' ' {
@@ -522,7 +526,9 @@ seal:
         let deep = "- ".repeat(100_000);
         let _ = key_lines(&deep);
         let _ = key_lines(&"[".repeat(100_000));
-        for t in ["", "{", "a: [1, {b: ", "- - -", ":\n:", "a: 'x", "  - x\nb:\n - [}", "\"k\": {\"", "a:\n  - b: [1,\n"] {
+        for t in
+            ["", "{", "a: [1, {b: ", "- - -", ":\n:", "a: 'x", "  - x\nb:\n - [}", "\"k\": {\"", "a:\n  - b: [1,\n"]
+        {
             let _ = key_lines(t);
         }
     }
