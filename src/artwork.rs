@@ -10,7 +10,7 @@
 
 use crate::finding::Finding;
 use crate::geom::{Polygon, Pt, Region};
-use crate::layout::{LayerMap, PlateId, Rules};
+use crate::layout::{LayerMap, PlateId, Resist, Rules};
 
 /// A drawn layer. ITO and mark layers belong to one plate; the seal, transfer dots and
 /// window lie between the plates.
@@ -223,6 +223,12 @@ pub struct Artwork {
     pub rules: Rules,
     /// GDSII layer map.
     pub layers: LayerMap,
+    /// Photoresist tone, which decides whether the films are clear-field or dark-field.
+    pub resist: Resist,
+    /// The etched layers as the films carry them when the rules ask for etch
+    /// compensation: each net's ITO grown by the undercut. Empty when films carry the
+    /// drawn shapes.
+    pub film_shapes: Vec<Shape>,
     /// Problems found while generating (unroutable leads and the like).
     pub generation_findings: Vec<Finding>,
 }
@@ -231,6 +237,13 @@ impl Artwork {
     /// Polygons on one layer.
     pub fn on_layer(&self, layer: Layer) -> impl Iterator<Item = &Shape> {
         self.shapes.iter().filter(move |s| s.layer == layer)
+    }
+
+    /// Polygons of an etched layer as the film must print them: the compensated
+    /// `film_shapes` when there are any, else the drawn shapes.
+    pub fn film_layer(&self, layer: Layer) -> impl Iterator<Item = &Shape> {
+        let source = if self.film_shapes.is_empty() { &self.shapes } else { &self.film_shapes };
+        source.iter().filter(move |s| s.layer == layer)
     }
 
     /// The glass outline of a plate.

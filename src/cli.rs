@@ -68,6 +68,9 @@ fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>) -> segmas
     for f in &files {
         eprintln!("wrote {}", out.join(&f.name).display());
     }
+    if segmask::emit::masks_withheld(&built.findings, &opts) {
+        eprintln!("films and GDSII withheld while rule errors stand (pass --masks-despite-errors to write them anyway)");
+    }
     Ok(exit_for(&built.findings))
 }
 

@@ -512,3 +512,8 @@ pub fn segment_net(group: &str, digit: u32, segment: &str) -> String {
 pub fn common_net(index: u32) -> String {
     format!("COM{}", index + 1)
 }
+
+/// A small hand-built layout for unit tests of the later stages.
+#[cfg(test)]
+#[path = "layout_fixture.rs"]
+pub mod fixture;

@@ -14,6 +14,7 @@
 
 pub mod artwork;
 pub mod check;
+pub mod drive;
 pub mod electrode;
 pub mod emit;
 pub mod error;

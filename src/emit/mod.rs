@@ -2,11 +2,31 @@
 //!
 //! Takes the artwork and the findings, gives the bytes of every output file (films,
 //! preview, GDSII, pin map, report) and writes them atomically. Writers never compute
-//! geometry; they transform coordinates (mirror, flip y, snap) and nothing else.
+//! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the
+//! one exception is cutting polygons into hole-free GDSII pieces ([`split`]), which the
+//! format demands. docs/outputs.md describes every file.
 
-use crate::artwork::Artwork;
-use crate::finding::Finding;
-use crate::Result;
+mod files;
+mod film;
+pub mod gds;
+mod gdsii;
+mod page;
+mod pins;
+mod preview;
+mod report;
+mod ruler;
+mod split;
+pub mod svg_path;
+pub mod text;
+
+pub use split::MAX_POINTS as MAX_BOUNDARY_POINTS;
+
+use crate::artwork::{Artwork, Layer};
+use crate::error::InputProblem;
+use crate::finding::{Finding, Severity};
+use crate::geom::Polygon;
+use crate::layout::PlateId;
+use crate::{Error, Result};
 use std::path::Path;
 
 /// One output file, in memory.
@@ -27,15 +47,82 @@ pub struct EmitOptions {
     pub masks_despite_errors: bool,
 }
 
-/// Renders every output of a build.
-pub fn render_outputs(_art: &Artwork, _findings: &[Finding], _opts: &EmitOptions) -> Result<Vec<OutputFile>> {
-    Err(crate::Error::Bug("emit stage not written yet".into()))
+/// Renders every output of a build, in this order: `NAME.front.svg`, `NAME.back.svg`,
+/// `NAME.preview.svg`, `NAME.gds`, `NAME.pins.csv`, `NAME.report.json`.
+///
+/// While any finding is an error and `masks_despite_errors` is off, the mask files
+/// (films and GDSII) are withheld and only preview, pin map and report are given.
+pub fn render_outputs(art: &Artwork, findings: &[Finding], opts: &EmitOptions) -> Result<Vec<OutputFile>> {
+    let date = gds::parse_date(&opts.date).ok_or_else(|| bad_date(&opts.date))?;
+    let errors = crate::finding::count(findings, Severity::Error);
+    let masks = errors == 0 || opts.masks_despite_errors;
+    let name = file_stem(&art.name);
+    let file = |suffix: &str, bytes| OutputFile { name: format!("{name}.{suffix}"), bytes };
+    let mut out = Vec::new();
+    if masks {
+        out.push(file("front.svg", film::render_film(art, PlateId::Front, &opts.date, errors)?));
+        out.push(file("back.svg", film::render_film(art, PlateId::Back, &opts.date, errors)?));
+    }
+    out.push(file("preview.svg", preview::render_preview(art, findings)?));
+    if masks {
+        out.push(file("gds", gdsii::render_gds(art, date)?));
+    }
+    out.push(file("pins.csv", pins::render_pins(art)));
+    out.push(file("report.json", report::render_report(art, findings)?));
+    Ok(out)
 }
 
-/// Writes files into `dir` (created if needed), each through a temporary file renamed
-/// into place, so no half-written file is ever left.
-pub fn write_atomically(_dir: &Path, _files: &[OutputFile]) -> Result<()> {
-    Err(crate::Error::Bug("emit stage not written yet".into()))
+/// True when `render_outputs` would withhold the mask files for these findings.
+pub fn masks_withheld(findings: &[Finding], opts: &EmitOptions) -> bool {
+    !opts.masks_despite_errors && findings.iter().any(|f| f.severity == Severity::Error)
+}
+
+/// Writes files into `dir` (created if needed), each through a temporary file
+/// (`.NAME.tmp-PID`) renamed into place once all are written, so no half-written file
+/// is ever left; on failure the temporaries are removed and the error names the path.
+pub fn write_atomically(dir: &Path, files: &[OutputFile]) -> Result<()> {
+    files::write_files(dir, files)
+}
+
+/// The input problem of a date that is not `YYYY-MM-DD`.
+fn bad_date(date: &str) -> Error {
+    Error::input(InputProblem {
+        file: "command line".into(),
+        line: None,
+        column: None,
+        key: "--date".into(),
+        message: format!("`{date}` is not a calendar date"),
+        allowed: Some("YYYY-MM-DD, for example 2025-03-14".into()),
+    })
+}
+
+/// The layout name made safe as a file-name stem: path separators, control characters
+/// and a leading dot are replaced by `_`.
+fn file_stem(name: &str) -> String {
+    let s: String = name.chars().map(|c| if c == '/' || c == '\\' || c.is_control() { '_' } else { c }).collect();
+    let s = s.trim().to_string();
+    match s.strip_prefix('.') {
+        Some(rest) => format!("_{rest}"),
+        None if s.is_empty() => "layout".into(),
+        None => s,
+    }
+}
+
+/// The polygons drawn on a layer: its shapes, or — for the glass, window and transfer-dot
+/// layers, when the artwork holds no shape there — the outline the artwork keeps beside
+/// the shapes (`front_glass`, `back_glass`, `window`, `transfer_dots`).
+pub(crate) fn layer_polygons(art: &Artwork, layer: Layer) -> Vec<&Polygon> {
+    let shapes: Vec<&Polygon> = art.on_layer(layer).map(|s| &s.polygon).collect();
+    if !shapes.is_empty() {
+        return shapes;
+    }
+    match layer {
+        Layer::FrontGlass => vec![&art.front_glass],
+        Layer::BackGlass => vec![&art.back_glass],
+        Layer::Window => vec![&art.window],
+        Layer::TransferDots => art.transfer_dots.iter().map(|t| &t.dot).collect(),
+        _ => shapes,
+    }
 }
 
 /// Formats a finding like a compiler diagnostic:

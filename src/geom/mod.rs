@@ -6,8 +6,12 @@
 //! before boolean work, unions use the non-zero fill rule, and round joins take their
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
+mod interior;
 mod shapes;
+pub mod path;
+pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
 
+pub use interior::interior_point;
 pub use shapes::{circle, rect, regular_arc_step, ring, stroke_polyline};
 
 use geo::algorithm::bool_ops::FillRule;

@@ -1,12 +1,148 @@
-//! Stage `plate`: electrodes + routes → `Artwork` (glass, ledge, seal, marks, labels).
+//! Stage `plate`: electrodes + routes → `Artwork`.
+//!
+//! Takes the electrodes, the leads, pads and transfer dots; adds the glass outlines, the
+//! seal ring with its fill port, the alignment marks and the plate labels; unites each
+//! net's ITO into non-overlapping polygons; gives the `Artwork` every check and writer
+//! reads.
 
-use crate::artwork::Artwork;
+mod marks;
+mod seal;
+
+use crate::artwork::{Artwork, Label, Layer, Net, NetKind, Pin, Pixel, Role, Shape, TransferDot};
 use crate::electrode::Electrodes;
-use crate::layout::Layout;
+use crate::geom::{circle, difference, region_of, union_all, Polygon, Region};
+use crate::layout::{Layout, PlateId};
 use crate::route::Routes;
 use crate::Result;
 
 /// Assembles the artwork of both plates.
-pub fn build_artwork(_layout: &Layout, _el: &Electrodes, _routes: &Routes) -> Result<Artwork> {
-    Err(crate::Error::Bug("plate stage not written yet".into()))
+pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Result<Artwork> {
+    let mut shapes = Vec::new();
+    for s in &el.segs {
+        let mut parts: Vec<Polygon> = s.outline.0.clone();
+        parts.extend(front_net_parts(routes, &s.net));
+        push_united(&mut shapes, Layer::FrontIto, Role::Segment, &s.net, parts);
+    }
+    for c in &el.coms {
+        let body = difference(&c.outline, &routes.common_cuts);
+        let mut parts: Vec<Polygon> = body.0;
+        parts.extend(routes.leads.iter().filter(|l| l.plate == PlateId::Back && l.net == c.net).flat_map(|l| l.outline.0.clone()));
+        parts.extend(routes.transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()));
+        push_united(&mut shapes, Layer::BackIto, Role::Common, &c.net, parts);
+        // The common's front-plate side: transfer pad, lead and pad on the ledge.
+        let mut front: Vec<Polygon> = routes.transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
+        front.extend(front_net_parts(routes, &c.net));
+        push_united(&mut shapes, Layer::FrontIto, Role::Lead, &c.net, front);
+    }
+    let dots: Vec<TransferDot> = routes
+        .transfers
+        .iter()
+        .map(|t| TransferDot { at: t.at, dot: circle(t.at, layout.transfer.diameter / 2.0, layout.tolerance) })
+        .collect();
+    for d in &dots {
+        shapes.push(Shape { layer: Layer::TransferDots, role: Role::Outline, net: None, polygon: d.dot.clone() });
+    }
+    for p in seal::seal_ring(layout) {
+        shapes.push(Shape { layer: Layer::Seal, role: Role::Outline, net: None, polygon: p });
+    }
+    for (layer, p) in marks::alignment_marks(layout) {
+        shapes.push(Shape { layer, role: Role::Mark, net: None, polygon: p });
+    }
+    let front_glass = layout.glass.front.polygon();
+    let back_glass = layout.glass.back.polygon();
+    let window = layout.window.polygon();
+    shapes.push(Shape { layer: Layer::FrontGlass, role: Role::Outline, net: None, polygon: front_glass.clone() });
+    shapes.push(Shape { layer: Layer::BackGlass, role: Role::Outline, net: None, polygon: back_glass.clone() });
+    shapes.push(Shape { layer: Layer::Window, role: Role::Outline, net: None, polygon: window.clone() });
+    let shapes_for_film = shapes.clone();
+    let ledge = difference(&region_of([front_glass.clone()]), &region_of([back_glass.clone()]));
+    Ok(Artwork {
+        name: layout.name.clone(),
+        shapes,
+        nets: nets(el),
+        pins: routes.pads.iter().map(|p| Pin { number: p.pin, net: p.net.clone(), pad: p.outline.clone() }).collect(),
+        pixels: pixels(el),
+        transfer_dots: dots,
+        lc_region: layout.glass.back.inset(layout.seal.inset + layout.seal.width).polygon(),
+        window,
+        ledge,
+        front_glass,
+        back_glass,
+        labels: labels(layout),
+        rules: layout.rules.clone(),
+        resist: layout.resist,
+        layers: layout.layers.clone(),
+        film_shapes: film_shapes(layout, &shapes_for_film),
+        generation_findings: routes.findings.clone(),
+    })
+}
+
+/// When compensating, every net's etched ITO grown by the undercut with mitred corners
+/// (so the etched result comes back to the drawing); nothing otherwise.
+fn film_shapes(layout: &Layout, shapes: &[Shape]) -> Vec<Shape> {
+    let bias = layout.rules.film_bias();
+    if bias <= 0.0 {
+        return Vec::new();
+    }
+    let mut groups: std::collections::BTreeMap<(Layer, Option<String>), (Role, Vec<Polygon>)> = Default::default();
+    for s in shapes.iter().filter(|s| s.layer.is_etched()) {
+        let e = groups.entry((s.layer, s.net.clone())).or_insert((s.role, Vec::new()));
+        e.1.push(s.polygon.clone());
+    }
+    let mut out = Vec::new();
+    for ((layer, net), (role, polys)) in groups {
+        let grown = crate::geom::offset_mitre(&union_all(polys), bias);
+        out.extend(grown.0.into_iter().map(|p| Shape { layer, role, net: net.clone(), polygon: p }));
+    }
+    out
+}
+
+fn front_net_parts(routes: &Routes, net: &str) -> Vec<Polygon> {
+    let leads = routes.leads.iter().filter(|l| l.plate == PlateId::Front && l.net == net).flat_map(|l| l.outline.0.clone());
+    let pads = routes.pads.iter().filter(|p| p.net == net).map(|p| p.outline.clone());
+    leads.chain(pads).collect()
+}
+
+fn push_united(shapes: &mut Vec<Shape>, layer: Layer, role: Role, net: &str, parts: Vec<Polygon>) {
+    let united: Region = union_all(parts);
+    for p in united.0 {
+        shapes.push(Shape { layer, role, net: Some(net.to_string()), polygon: p });
+    }
+}
+
+fn nets(el: &Electrodes) -> Vec<Net> {
+    let mut out: Vec<Net> = el
+        .segs
+        .iter()
+        .map(|s| Net { name: s.net.clone(), plate: PlateId::Front, kind: NetKind::Segment, index: s.index, drives: s.drives.clone() })
+        .collect();
+    out.extend(el.coms.iter().map(|c| Net {
+        name: c.net.clone(),
+        plate: PlateId::Back,
+        kind: NetKind::Common,
+        index: c.index,
+        drives: format!("common electrode {}", c.index + 1),
+    }));
+    out
+}
+
+fn pixels(el: &Electrodes) -> Vec<Pixel> {
+    el.elements
+        .iter()
+        .map(|e| Pixel {
+            element: e.name.clone(),
+            seg_net: e.name.clone(),
+            com_net: el.coms[0].net.clone(),
+            region: e.outline.clone(),
+        })
+        .collect()
+}
+
+fn labels(layout: &Layout) -> Vec<Label> {
+    let f = layout.glass.front;
+    let b = layout.glass.back;
+    vec![
+        Label { plate: PlateId::Front, text: format!("{} FRONT", layout.name), at: crate::geom::pt(f.x, f.y1() + 1.0), height: 2.0 },
+        Label { plate: PlateId::Back, text: format!("{} BACK", layout.name), at: crate::geom::pt(b.x, b.y1() + 1.0), height: 2.0 },
+    ]
 }

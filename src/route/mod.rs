@@ -1,10 +1,31 @@
-//! Stage `route`: electrodes → leads, bus traces, pads and transfer dots.
+//! Stage `route`: electrodes → leads, pads, transfer dots and the cuts in the common
+//! electrode.
+//!
+//! Takes the electrodes and the layout; gives every drawn lead (centre line and outline),
+//! the pad of every net, the transfer dot, and the parts of the back plate that must stay
+//! clear of ITO so that front leads face no common electrode. Three steps:
+//! 1. *escape* (`escape.rs`): each SEG net's pieces are joined and led to the seal band on
+//!    the pad side by maze search on a grid (search.rs), keeping the minimum gap to
+//!    everything already placed, with rip-up and retry in a new order when a net is stuck;
+//! 2. *fan-out* (`fanout.rs`): leads are given pads in the order they arrive and drawn to
+//!    them as a planar, orthogonal fan-out in the seal band and on the ledge;
+//! 3. *back plate* (`back.rs`): the common electrode is cut clear of the front leads and
+//!    its islands are joined and led to the transfer dot without crossing front leads in
+//!    the window.
+
+pub mod back;
+pub mod escape;
+pub mod fanout;
+pub mod grid;
+pub mod search;
+pub mod side;
 
 use crate::electrode::Electrodes;
-use crate::finding::Finding;
+use crate::finding::{Finding, Rule, Severity};
 use crate::geom::{Polygon, Pt, Region};
 use crate::layout::{Layout, PlateId};
 use crate::Result;
+use side::SideFrame;
 
 /// One drawn lead or bus trace.
 #[derive(Debug, Clone)]
@@ -39,6 +60,8 @@ pub struct TransferSite {
     pub net: String,
     /// Centre.
     pub at: Pt,
+    /// The ITO pad under the dot (same on both plates).
+    pub pad: Polygon,
 }
 
 /// Everything routing adds.
@@ -56,7 +79,236 @@ pub struct Routes {
     pub findings: Vec<Finding>,
 }
 
-/// Routes every net to its pad.
-pub fn route_leads(_layout: &Layout, _el: &Electrodes) -> Result<Routes> {
-    Err(crate::Error::Bug("route stage not written yet".into()))
+/// Grid cell size: half the smaller of lead width and gap, so that a corridor one lead
+/// wide always contains a row of cell centres; never below 10 µm.
+pub fn grid_step(layout: &Layout) -> f64 {
+    (layout.rules.lead_width.min(layout.rules.min_gap) / 2.0).max(0.01)
 }
+
+/// Centre-to-centre spacing of neighbouring leads in the fan-out: lead width plus gap,
+/// plus one grid cell of margin for the grid-drawn parts.
+pub fn lead_pitch(layout: &Layout) -> f64 {
+    layout.rules.lead_width + layout.rules.min_gap + grid_step(layout)
+}
+
+/// Routes every net to its pad.
+pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
+    check_buses(layout, el)?;
+    let frame = SideFrame::of(layout);
+    let mut findings = Vec::new();
+    let escapes = escape::escape_all(layout, el, &frame, &mut findings);
+    let mut leads: Vec<Lead> = user_buses(layout);
+    let (pads, transfers, fan) = plan_pads_and_fanout(layout, el, &frame, &escapes, &mut findings)?;
+    for (net, path) in escapes.joins.iter().chain(fan.iter()) {
+        leads.push(front_lead(layout, net, path.clone()));
+    }
+    let front_leads: Vec<&Lead> = leads.iter().filter(|l| l.plate == PlateId::Front).collect();
+    let back = back::route_common(layout, el, &front_leads, &transfers, &mut findings);
+    let common_cuts = back.cuts.clone();
+    leads.extend(back.leads);
+    Ok(Routes { leads, pads, transfers, common_cuts, findings })
+}
+
+fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
+    let outline = crate::geom::stroke_polyline(&path, layout.rules.lead_width, layout.tolerance);
+    Lead { net: net.to_string(), plate: PlateId::Front, path, outline, user_bus: false }
+}
+
+fn user_buses(layout: &Layout) -> Vec<Lead> {
+    layout
+        .buses
+        .iter()
+        .map(|b| Lead {
+            net: b.net.clone(),
+            plate: b.plate,
+            path: b.points.clone(),
+            outline: crate::geom::stroke_polyline(&b.points, b.width, layout.tolerance),
+            user_bus: true,
+        })
+        .collect()
+}
+
+fn check_buses(layout: &Layout, el: &Electrodes) -> Result<()> {
+    let mut problems = Vec::new();
+    for (i, b) in layout.buses.iter().enumerate() {
+        let on_front = el.segs.iter().any(|s| s.net == b.net);
+        let on_back = el.coms.iter().any(|c| c.net == b.net);
+        let ok = match b.plate {
+            PlateId::Front => on_front,
+            PlateId::Back => on_back,
+        };
+        if !ok {
+            let key = format!("buses[{i}].plate");
+            let want = if on_back { "back" } else { "front" };
+            problems.push(layout.problem(&key, format!("net `{}` has no electrodes on the {} plate", b.net, b.plate.name()), Some(want.into())));
+        }
+    }
+    if problems.is_empty() { Ok(()) } else { Err(crate::Error::Input(problems)) }
+}
+
+/// The pad row along the side, as `u` centres (pin order) and outlines.
+fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize) -> Vec<(f64, Polygon)> {
+    let p = &layout.pads;
+    let n = p.count.map(|c| c as usize).unwrap_or(needed).max(needed);
+    let first = match p.start {
+        Some(s) => s,
+        None => (frame.u_back.0 + frame.u_back.1) / 2.0 - (n as f64 - 1.0) * p.pitch / 2.0,
+    };
+    (0..n)
+        .map(|i| {
+            let u = first + i as f64 * p.pitch;
+            let poly = frame.rect_global(u - p.width / 2.0, p.edge_margin, u + p.width / 2.0, p.edge_margin + p.length);
+            (u, poly)
+        })
+        .collect()
+}
+
+type Planned = (Vec<PadSite>, Vec<TransferSite>, Vec<(String, Vec<Pt>)>);
+
+fn plan_pads_and_fanout(
+    layout: &Layout,
+    el: &Electrodes,
+    frame: &SideFrame,
+    escapes: &escape::Escapes,
+    findings: &mut Vec<Finding>,
+) -> Result<Planned> {
+    let p = &layout.pads;
+    let com = el.coms[0].net.clone();
+    let nets_needed = el.segs.len() + el.coms.len();
+    let row = pad_row(layout, frame, nets_needed);
+    let pitch = lead_pitch(layout);
+    // Arrivals in local (u, v) with their nets; the common's arrival is its transfer dot.
+    let mut arrivals: Vec<(String, Vec<Pt>, fanout::Arrival)> = escapes
+        .arrivals
+        .iter()
+        .map(|(net, path)| {
+            let end = frame.to_local(*path.last().expect("escape paths are never empty"));
+            (net.clone(), path.clone(), fanout::Arrival { u: end.x, v: end.y })
+        })
+        .collect();
+    let tpad = layout.transfer.pad;
+    let dot = place_transfer_dot(layout, frame, &arrivals, &row, pitch, tpad).ok_or_else(|| {
+        crate::Error::input(layout.problem(
+            "pads",
+            "no room in the seal beside the pad row for the transfer dot of the common electrode",
+            Some("a shorter pad row (`pads.start`, `pads.pitch`) or a wider back plate".into()),
+        ))
+    })?;
+    let dot_at = frame.to_global(dot);
+    let band = frame.rect_global(dot.x - tpad / 2.0, frame.v_lc - layout.seal.width, dot.x + tpad / 2.0, frame.v_lc);
+    let square = frame.rect_global(dot.x - tpad / 2.0, dot.y - tpad / 2.0, dot.x + tpad / 2.0, dot.y + tpad / 2.0);
+    let pad_poly = crate::geom::intersection(&crate::geom::region_of([square]), &crate::geom::region_of([band]))
+        .0
+        .into_iter()
+        .next()
+        .unwrap_or_else(|| frame.rect_global(dot.x - tpad / 2.0, dot.y - tpad / 2.0, dot.x + tpad / 2.0, dot.y + tpad / 2.0));
+    arrivals.push((com.clone(), vec![dot_at], fanout::Arrival { u: dot.x, v: dot.y }));
+    arrivals.sort_by(|a, b| a.2.u.total_cmp(&b.2.u));
+
+    // Fixed pins first, the rest matched in order to the free pads.
+    let mut pad_of: Vec<Option<usize>> = vec![None; arrivals.len()];
+    let mut taken = vec![false; row.len()];
+    for (i, (net, _, _)) in arrivals.iter().enumerate() {
+        if let Some(&pin) = p.fixed.get(net) {
+            let k = (pin - p.first_pin) as usize;
+            if k < row.len() {
+                pad_of[i] = Some(k);
+                taken[k] = true;
+            }
+        }
+    }
+    let free_pads: Vec<usize> = (0..row.len()).filter(|k| !taken[*k]).collect();
+    let loose: Vec<usize> = (0..arrivals.len()).filter(|i| pad_of[*i].is_none()).collect();
+    let m = fanout::match_in_order(
+        &loose.iter().map(|&i| arrivals[i].2.u).collect::<Vec<_>>(),
+        &free_pads.iter().map(|&k| row[k].0).collect::<Vec<_>>(),
+    );
+    for (j, &i) in loose.iter().enumerate() {
+        pad_of[i] = Some(free_pads[m[j]]);
+    }
+    let pad_idx: Vec<usize> = pad_of.iter().map(|x| x.expect("every arrival has a pad")).collect();
+    report_crossings(&arrivals, &pad_idx, frame, findings);
+
+    let pad_u: Vec<f64> = pad_idx.iter().map(|&k| row[k].0).collect();
+    let arr: Vec<fanout::Arrival> = arrivals.iter().map(|a| a.2).collect();
+    let v_top = frame.v_lc - pitch;
+    let v_floor = p.edge_margin + p.length + pitch;
+    let pad_end = p.edge_margin + p.length - p.width.min(p.length) / 2.0;
+    let plans = match fanout::plan(&arr, &pad_u, v_top, v_floor, pitch, pad_end) {
+        Ok(pl) => pl,
+        Err(levels) => {
+            return Err(crate::Error::input(layout.problem(
+                "seal",
+                format!(
+                    "the fan-out between the liquid crystal and the pads needs {levels} lead levels of {pitch:.3} mm but the seal band and ledge leave room for {}",
+                    ((v_top - v_floor) / pitch).floor() as i64 + 1
+                ),
+                Some("a deeper ledge or seal inset, pads closer under the digits, or a smaller lead width and gap".into()),
+            )));
+        }
+    };
+    let mut fan = Vec::new();
+    for ((net, escape_path, _), plan) in arrivals.iter().zip(plans) {
+        let mut path = escape_path.clone();
+        path.extend(plan.into_iter().skip(1).map(|q| frame.to_global(q)));
+        fan.push((net.clone(), path));
+    }
+    let pads = arrivals
+        .iter()
+        .zip(&pad_idx)
+        .map(|((net, _, _), &k)| PadSite { pin: p.first_pin + k as u32, net: net.clone(), outline: row[k].1.clone() })
+        .collect();
+    let transfers = vec![TransferSite { net: com, at: dot_at, pad: pad_poly }];
+    Ok((pads, transfers, fan))
+}
+
+/// Puts the transfer dot in the seal beside the pad row: left of every lead and pad if
+/// there is room, else right of them. Returns its local (u, v).
+fn place_transfer_dot(
+    layout: &Layout,
+    frame: &SideFrame,
+    arrivals: &[(String, Vec<Pt>, fanout::Arrival)],
+    row: &[(f64, Polygon)],
+    pitch: f64,
+    tpad: f64,
+) -> Option<Pt> {
+    let us = arrivals.iter().map(|a| a.2.u).chain(row.iter().map(|r| r.0));
+    let (lo, hi) = us.fold((f64::MAX, f64::MIN), |(a, b), u| (a.min(u), b.max(u)));
+    let clear = tpad / 2.0 + pitch + layout.pads.width / 2.0;
+    let min_u = frame.u_back.0 + layout.seal.inset + tpad / 2.0;
+    let max_u = frame.u_back.1 - layout.seal.inset - tpad / 2.0;
+    let left = lo - clear;
+    let right = hi + clear;
+    if left >= min_u {
+        Some(crate::geom::pt(left, frame.v_seal))
+    } else if right <= max_u {
+        Some(crate::geom::pt(right, frame.v_seal))
+    } else {
+        None
+    }
+}
+
+fn report_crossings(arrivals: &[(String, Vec<Pt>, fanout::Arrival)], pad_idx: &[usize], frame: &SideFrame, findings: &mut Vec<Finding>) {
+    for i in 0..arrivals.len() {
+        for j in i + 1..arrivals.len() {
+            if pad_idx[j] < pad_idx[i] {
+                let at = frame.to_global(crate::geom::pt((arrivals[i].2.u + arrivals[j].2.u) / 2.0, arrivals[i].2.v));
+                findings.push(Finding {
+                    rule: Rule::Unroutable,
+                    severity: Severity::Error,
+                    plate: Some(PlateId::Front),
+                    nets: vec![arrivals[i].0.clone(), arrivals[j].0.clone()],
+                    location: at,
+                    measured: None,
+                    required: None,
+                    message: format!(
+                        "fixed pins make the leads of {} and {} cross in the fan-out",
+                        arrivals[i].0, arrivals[j].0
+                    ),
+                });
+            }
+        }
+    }
+}
+#[cfg(test)]
+mod tests;

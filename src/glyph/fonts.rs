@@ -1,0 +1,170 @@
+//! The font set: the built-in files of `fonts-strokes/` (compiled in) plus any files the
+//! layout adds, later files overriding earlier definitions of the same glyph, icon or
+//! digit style.
+//!
+//! Takes `Layout.extra_fonts`; gives a [`Fonts`] to look glyphs, icons and skeletons up
+//! in, or the parse problems of the added files (file and line).
+
+use super::font::{parse_font, GlyphDef, IconDef, SkeletonDef};
+use crate::layout::{DigitStyle, FontSource};
+use std::collections::BTreeMap;
+use std::path::Path;
+use std::sync::OnceLock;
+
+/// The built-in font files: name as shown in messages, and text.
+pub const BUILTIN_FILES: [(&str, &str); 3] = [
+    ("fonts-strokes/segments.strokes", include_str!("../../fonts-strokes/segments.strokes")),
+    ("fonts-strokes/legend.strokes", include_str!("../../fonts-strokes/legend.strokes")),
+    ("fonts-strokes/icons.strokes", include_str!("../../fonts-strokes/icons.strokes")),
+];
+
+/// Every glyph, icon and digit skeleton available to a layout.
+#[derive(Debug, Clone)]
+pub struct Fonts {
+    glyphs: BTreeMap<char, GlyphDef>,
+    icons: BTreeMap<String, IconDef>,
+    /// Skeletons of the seven-, fourteen- and sixteen-segment styles, in that order.
+    styles: [SkeletonDef; 3],
+}
+
+/// Other spellings of characters the legend font has: Greek mu for the micro sign, the
+/// ohm sign for capital omega (Unicode keeps both pairs as compatibility equivalents).
+const ALIASES: [(char, char); 2] = [('\u{03BC}', '\u{00B5}'), ('\u{2126}', '\u{03A9}')];
+
+const STYLES: [DigitStyle; 3] = [DigitStyle::Seven, DigitStyle::Fourteen, DigitStyle::Sixteen];
+
+fn style_index(style: DigitStyle) -> usize {
+    match style {
+        DigitStyle::Seven => 0,
+        DigitStyle::Fourteen => 1,
+        DigitStyle::Sixteen => 2,
+    }
+}
+
+fn load_builtin() -> Result<Fonts, String> {
+    let mut glyphs = BTreeMap::new();
+    let mut icons = BTreeMap::new();
+    let mut styles: [Option<SkeletonDef>; 3] = [None, None, None];
+    for (name, text) in BUILTIN_FILES {
+        let file = parse_font(Path::new(name), text).map_err(|p| format!("built-in font file is broken: {p}"))?;
+        glyphs.extend(file.glyphs);
+        icons.extend(file.icons);
+        for (style, skel) in file.styles {
+            styles[style_index(style)] = Some(skel);
+        }
+    }
+    let [Some(a), Some(b), Some(c)] = styles else {
+        return Err("the built-in fonts lack a digit style".into());
+    };
+    Ok(Fonts { glyphs, icons, styles: [a, b, c] })
+}
+
+impl Fonts {
+    /// The built-in fonts alone (read once). An error here is a bug in segmask: the
+    /// tests read every built-in file.
+    pub fn builtin() -> crate::Result<&'static Fonts> {
+        static FONTS: OnceLock<Result<Fonts, String>> = OnceLock::new();
+        FONTS.get_or_init(load_builtin).as_ref().map_err(|e| crate::Error::Bug(e.clone()))
+    }
+
+    /// The built-in fonts with the layout's files added in order; every problem found in
+    /// the added files is listed.
+    pub fn with_extra(extra: &[FontSource]) -> crate::Result<Fonts> {
+        let mut f = Fonts::builtin()?.clone();
+        let mut problems = Vec::new();
+        for s in extra {
+            match parse_font(&s.path, &s.text) {
+                Ok(file) => {
+                    f.glyphs.extend(file.glyphs);
+                    f.icons.extend(file.icons);
+                    for (style, skel) in file.styles {
+                        f.styles[style_index(style)] = skel;
+                    }
+                }
+                Err(p) => problems.push(*p),
+            }
+        }
+        if problems.is_empty() { Ok(f) } else { Err(crate::Error::Input(problems)) }
+    }
+
+    /// The glyph for `c` (or for its alias), if any.
+    pub fn glyph(&self, c: char) -> Option<&GlyphDef> {
+        let c = ALIASES.iter().find(|(a, _)| *a == c).map(|(_, b)| *b).unwrap_or(c);
+        self.glyphs.get(&c)
+    }
+
+    /// All characters the legend font has, for messages (`space` for the space).
+    pub fn glyph_list(&self) -> String {
+        self.glyphs
+            .keys()
+            .map(|c| if *c == ' ' { "space".to_string() } else { c.to_string() })
+            .collect::<Vec<_>>()
+            .join(" ")
+    }
+
+    /// The characters of the legend font.
+    pub fn chars(&self) -> impl Iterator<Item = char> + '_ {
+        self.glyphs.keys().copied()
+    }
+
+    /// The icon called `name`, if any.
+    pub fn icon(&self, name: &str) -> Option<&IconDef> {
+        self.icons.get(name)
+    }
+
+    /// Names of all icons, sorted.
+    pub fn icon_names(&self) -> Vec<&str> {
+        self.icons.keys().map(String::as_str).collect()
+    }
+
+    /// The skeleton of a digit style.
+    pub fn style(&self, style: DigitStyle) -> &SkeletonDef {
+        &self.styles[style_index(style)]
+    }
+
+    /// All three digit styles.
+    pub fn styles() -> [DigitStyle; 3] {
+        STYLES
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use std::path::PathBuf;
+
+    #[test]
+    fn builtin_files_parse() {
+        for (name, text) in BUILTIN_FILES {
+            if let Err(p) = parse_font(Path::new(name), text) {
+                panic!("{p}");
+            }
+        }
+        let f = Fonts::builtin().unwrap();
+        for s in [DigitStyle::Seven, DigitStyle::Fourteen, DigitStyle::Sixteen] {
+            assert_eq!(f.style(s).segments.len(), s.segment_names().len());
+        }
+    }
+
+    #[test]
+    fn extra_files_add_and_override() {
+        let extra = FontSource {
+            path: PathBuf::from("my.strokes"),
+            text: "strokes 1\ncap 10\nglyph A 3\n line 0 0 0 10\nicon flag 10\n line 0 0 0 10 8 8 0 6\n".into(),
+        };
+        let f = Fonts::with_extra(&[extra]).unwrap();
+        assert!((f.glyph('A').unwrap().advance - 0.3).abs() < 1e-12);
+        assert!(f.icon("flag").is_some());
+        assert!(f.icon("battery").is_some());
+        assert_eq!(f.glyph('μ'), f.glyph('µ'));
+    }
+
+    #[test]
+    fn extra_file_errors_name_file_and_line() {
+        let bad = FontSource { path: PathBuf::from("bad.strokes"), text: "strokes 1\ncap 10\nglyph B 5\n line 0 0 x 1\n".into() };
+        let crate::Error::Input(p) = Fonts::with_extra(&[bad]).unwrap_err() else { panic!() };
+        assert_eq!(p[0].file, PathBuf::from("bad.strokes"));
+        assert_eq!(p[0].line, Some(4));
+        assert!(p[0].to_string().starts_with("bad.strokes:4: error"), "{}", p[0]);
+    }
+}

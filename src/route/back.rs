@@ -1,0 +1,130 @@
+//! The back plate: cuts the common electrode clear of the front leads, then joins its
+//! islands and leads them to the transfer dot, never facing a front lead inside the window.
+//!
+//! Under static drive every front electrode faces the one common, so back leads may run
+//! over front electrodes (that area switches with the electrode anyway); only front leads
+//! must be avoided: forbidden inside the window, costly in the rest of the liquid crystal,
+//! free under or outside the seal.
+
+use super::grid::Grid;
+use super::search::{corners, Search};
+use super::{Lead, TransferSite};
+use crate::electrode::Electrodes;
+use crate::finding::{Finding, Rule, Severity};
+use crate::geom::{difference, offset_round, region_of, stroke_polyline, union_all, Region};
+use crate::layout::{Layout, PlateId};
+
+/// Extra cost (per cell) of a back lead facing a front lead outside the window.
+const HIDDEN_CROSSING_COST: f32 = 40.0;
+
+/// What the back plate routing gives.
+#[derive(Debug, Clone)]
+pub struct BackRoutes {
+    /// Back-plate leads joining the common's islands and the transfer dot.
+    pub leads: Vec<Lead>,
+    /// The part of the grown common electrode removed around front leads.
+    pub cuts: Region,
+}
+
+/// Cuts and routes the common electrode.
+pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], findings: &mut Vec<Finding>) -> BackRoutes {
+    let rules = &layout.rules;
+    let tol = layout.tolerance;
+    let electrodes = union_all(el.segs.iter().flat_map(|s| s.outline.0.iter().cloned()));
+    let leads = union_all(front_leads.iter().flat_map(|l| l.outline.0.iter().cloned()));
+    let bare = difference(&leads, &electrodes);
+    let cuts = difference(&offset_round(&bare, rules.min_gap, tol), &electrodes);
+    let com = &el.coms[0];
+    let mut islands: Vec<Region> = difference(&com.outline, &cuts).0.into_iter().map(|p| region_of([p])).collect();
+    for b in layout.buses.iter().filter(|b| b.plate == PlateId::Back && b.net == com.net) {
+        islands.push(stroke_polyline(&b.points, b.width, tol));
+    }
+    let mut out = Vec::new();
+    let Some(dot) = transfers.iter().find(|t| t.net == com.net) else {
+        return BackRoutes { leads: out, cuts };
+    };
+    let grid = back_grid(layout, &leads);
+    let mut search = Search::new(grid.nx * grid.ny);
+    let mut island_of = vec![u32::MAX; grid.owner.len()];
+    for (k, isl) in islands.iter().enumerate() {
+        grid.for_cells_in(isl, |c| island_of[c] = k as u32);
+    }
+    let mut in_tree = vec![false; grid.owner.len()];
+    let mut tree = Vec::new();
+    grid.for_cells_in(&region_of([dot.pad.clone()]), |c| {
+        in_tree[c] = true;
+        tree.push(c);
+    });
+    let mut joined = vec![false; islands.len()];
+    for _ in 0..islands.len() {
+        let goal = |c: usize| island_of[c] != u32::MAX && !joined[island_of[c] as usize];
+        match search.find(&grid, 1, &tree, goal, |_| 0.0) {
+            Ok(path) => {
+                let k = island_of[*path.last().expect("paths are never empty")] as usize;
+                joined[k] = true;
+                let pts = corners(&grid, &path);
+                if pts.len() >= 2 {
+                    let outline = stroke_polyline(&pts, rules.lead_width, tol);
+                    out.push(Lead { net: com.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false });
+                }
+                for &c in &path {
+                    if !in_tree[c] {
+                        in_tree[c] = true;
+                        tree.push(c);
+                    }
+                }
+                grid.for_cells_in(&islands[k], |c| {
+                    if !in_tree[c] {
+                        in_tree[c] = true;
+                        tree.push(c);
+                    }
+                });
+            }
+            Err(b) => {
+                for (k, isl) in islands.iter().enumerate().filter(|(k, _)| !joined[*k]) {
+                    use geo::Centroid;
+                    let at = isl.centroid().map(|p| p.0).unwrap_or(grid.centre(b.nearest));
+                    findings.push(Finding {
+                        rule: Rule::Unroutable,
+                        severity: Severity::Error,
+                        plate: Some(PlateId::Back),
+                        nets: vec![com.net.clone()],
+                        location: at,
+                        measured: None,
+                        required: None,
+                        message: format!(
+                            "part {} of common electrode {} cannot reach its transfer dot without facing a front lead in the window",
+                            k + 1,
+                            com.net
+                        ),
+                    });
+                }
+                break;
+            }
+        }
+    }
+    BackRoutes { leads: out, cuts }
+}
+
+fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
+    let b = layout.glass.back;
+    let h = super::grid_step(layout);
+    let mut g = Grid::new(b.x, b.y, b.x1(), b.y1(), h);
+    g.block_outside(&region_of([b.inset(layout.rules.lead_width / 2.0 + h).polygon()]));
+    let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
+    let w = layout.window;
+    let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + h;
+    let keep = offset_round(front_leads, reach, layout.tolerance.max(h / 4.0));
+    let mut cells = Vec::new();
+    g.for_cells_in(&keep, |c| cells.push(c));
+    for c in cells {
+        let p = g.centre(c);
+        let inside = |r: &crate::layout::Rect| p.x >= r.x && p.x <= r.x1() && p.y >= r.y && p.y <= r.y1();
+        if inside(&w) {
+            g.cost[c] = f32::INFINITY;
+        } else if inside(&lc) {
+            g.cost[c] = g.cost[c].max(HIDDEN_CROSSING_COST);
+        }
+    }
+    g
+}

@@ -1,0 +1,210 @@
+//! Escape routing: joins the pieces of every SEG net and leads it out of the liquid-crystal
+//! region into the seal band on the pad side, by maze search, one net after another, with
+//! rip-up and retry in a new order when a net is stuck.
+
+use super::grid::Grid;
+use super::search::{corners, Search};
+use super::side::SideFrame;
+use crate::electrode::Electrodes;
+use crate::finding::{Finding, Rule, Severity};
+use crate::geom::{offset_round, region_of, stroke_polyline, Polygon, Pt, Region};
+use crate::layout::{Layout, PlateId};
+
+/// How many times the whole escape is retried in a new order.
+const ATTEMPTS: usize = 8;
+
+/// The result of escape routing.
+#[derive(Debug, Clone, Default)]
+pub struct Escapes {
+    /// Per routed net, the path from its pieces to the seal band (last point in the band).
+    pub arrivals: Vec<(String, Vec<Pt>)>,
+    /// Paths joining the pieces of multi-piece nets.
+    pub joins: Vec<(String, Vec<Pt>)>,
+}
+
+struct NetPieces {
+    name: String,
+    pieces: Vec<Polygon>,
+}
+
+/// Routes every SEG net to the seal band; nets that cannot be routed become findings.
+pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings: &mut Vec<Finding>) -> Escapes {
+    let nets = collect_pieces(layout, el);
+    let base = base_grid(layout, frame, &nets);
+    let mut order: Vec<usize> = (0..nets.len()).collect();
+    order.sort_by(|&a, &b| nearest_v(frame, &nets[a]).total_cmp(&nearest_v(frame, &nets[b])));
+    let mut search = Search::new(base.nx * base.ny);
+    let mut best: Option<(Escapes, Vec<Finding>)> = None;
+    for _ in 0..ATTEMPTS {
+        let (esc, failed, notes) = attempt(layout, frame, &nets, &order, base.clone(), &mut search);
+        let better = best.as_ref().is_none_or(|(_, f)| notes.len() < f.len());
+        if better {
+            best = Some((esc, notes));
+        }
+        if failed.is_empty() {
+            break;
+        }
+        // Rip up everything and route the stuck nets first next time.
+        order.retain(|i| !failed.contains(i));
+        let mut next = failed;
+        next.extend(order);
+        order = next;
+    }
+    let (esc, notes) = best.expect("at least one attempt runs");
+    findings.extend(notes);
+    esc
+}
+
+fn collect_pieces(layout: &Layout, el: &Electrodes) -> Vec<NetPieces> {
+    el.segs
+        .iter()
+        .map(|s| {
+            let mut pieces = s.outline.0.clone();
+            for b in layout.buses.iter().filter(|b| b.plate == PlateId::Front && b.net == s.net) {
+                pieces.extend(stroke_polyline(&b.points, b.width, layout.tolerance).0);
+            }
+            NetPieces { name: s.net.clone(), pieces }
+        })
+        .collect()
+}
+
+fn nearest_v(frame: &SideFrame, n: &NetPieces) -> f64 {
+    n.pieces
+        .iter()
+        .flat_map(|p| p.exterior().0.iter())
+        .map(|c| frame.to_local(*c).y)
+        .fold(f64::MAX, f64::min)
+}
+
+/// Keep-out radius around placed ITO for the centre line of a new lead.
+fn keepout(layout: &Layout, h: f64) -> f64 {
+    layout.rules.min_gap + layout.rules.lead_width / 2.0 + h
+}
+
+fn base_grid(layout: &Layout, frame: &SideFrame, nets: &[NetPieces]) -> Grid {
+    let f = layout.glass.front;
+    let h = super::grid_step(layout);
+    let mut g = Grid::new(f.x, f.y, f.x1(), f.y1(), h);
+    let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
+    let margin = layout.rules.lead_width / 2.0 + h;
+    let strip = frame.rect_global(frame.u_lc.0 + margin, frame.v_lc - 3.0 * h, frame.u_lc.1 - margin, frame.v_lc + margin + h);
+    let inner = lc.inset(margin);
+    g.block_outside(&crate::geom::union_all([inner.polygon(), strip]));
+    let k = keepout(layout, h);
+    for (i, n) in nets.iter().enumerate() {
+        g.claim(&offset_round(&region_of(n.pieces.iter().cloned()), k, layout.tolerance.max(h / 4.0)), i as u32 + 1);
+    }
+    g
+}
+
+type AttemptResult = (Escapes, Vec<usize>, Vec<Finding>);
+
+fn attempt(layout: &Layout, frame: &SideFrame, nets: &[NetPieces], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
+    let mut esc = Escapes::default();
+    let mut failed = Vec::new();
+    let mut notes = Vec::new();
+    let h = grid.h;
+    let k = keepout(layout, h);
+    for &i in order {
+        let owner = i as u32 + 1;
+        let n = &nets[i];
+        let mut tree: Vec<usize> = Vec::new();
+        let mut in_tree = vec![false; 0];
+        let mut ok = true;
+        for (pi, piece) in n.pieces.iter().enumerate() {
+            let cells = piece_cells(&grid, piece, owner);
+            if pi == 0 {
+                in_tree = vec![false; grid.owner.len()];
+                for &c in &cells {
+                    in_tree[c] = true;
+                }
+                tree.extend(cells);
+                continue;
+            }
+            if cells.iter().any(|&c| in_tree[c]) {
+                tree.extend(cells.iter().copied().filter(|&c| !in_tree[c]));
+                for &c in &cells {
+                    in_tree[c] = true;
+                }
+                continue;
+            }
+            let it = &in_tree;
+            match search.find(&grid, owner, &cells, |c| it[c], |_| 0.0) {
+                Ok(path) => {
+                    let pts = corners(&grid, &path);
+                    claim_lead(&mut grid, layout, &pts, owner, k);
+                    for &c in path.iter().chain(cells.iter()) {
+                        if !in_tree[c] {
+                            in_tree[c] = true;
+                            tree.push(c);
+                        }
+                    }
+                    esc.joins.push((n.name.clone(), pts));
+                }
+                Err(b) => {
+                    ok = false;
+                    notes.push(stuck(&grid, nets, i, &b, "its pieces cannot be joined"));
+                    break;
+                }
+            }
+        }
+        if !ok {
+            failed.push(i);
+            continue;
+        }
+        let v_goal = frame.v_lc;
+        let goal = |c: usize| frame.to_local(grid.centre(c)).y < v_goal;
+        let heur = |c: usize| ((frame.to_local(grid.centre(c)).y - v_goal) / h).max(0.0) as f32;
+        match search.find(&grid, owner, &tree, goal, heur) {
+            Ok(path) => {
+                let pts = corners(&grid, &path);
+                claim_lead(&mut grid, layout, &pts, owner, k);
+                esc.arrivals.push((n.name.clone(), pts));
+            }
+            Err(b) => {
+                failed.push(i);
+                notes.push(stuck(&grid, nets, i, &b, "no lead can reach the pad side"));
+            }
+        }
+    }
+    (esc, failed, notes)
+}
+
+/// Cells inside a piece that its own net may use; at least the cell nearest its centre.
+fn piece_cells(grid: &Grid, piece: &Polygon, owner: u32) -> Vec<usize> {
+    let mut cells = Vec::new();
+    grid.for_cells_in(&region_of([piece.clone()]), |c| {
+        if grid.owner[c] == owner {
+            cells.push(c)
+        }
+    });
+    if cells.is_empty() {
+        use geo::Centroid;
+        if let Some(c) = piece.centroid().and_then(|p| grid.index_of(p.0)) {
+            cells.push(c);
+        }
+    }
+    cells
+}
+
+fn claim_lead(grid: &mut Grid, layout: &Layout, pts: &[Pt], owner: u32, k: f64) {
+    let tol = layout.tolerance.max(grid.h / 4.0);
+    let lead: Region = stroke_polyline(pts, layout.rules.lead_width, tol);
+    grid.claim(&offset_round(&lead, k, tol), owner);
+}
+
+fn stuck(grid: &Grid, nets: &[NetPieces], i: usize, b: &super::search::Blocked, why: &str) -> Finding {
+    let mut names = vec![nets[i].name.clone()];
+    names.extend(b.blockers.iter().take(2).filter_map(|&o| nets.get(o as usize - 1)).map(|n| n.name.clone()));
+    let by = if names.len() > 1 { format!("; blocked by {}", names[1..].join(" and ")) } else { "; the way out is closed".to_string() };
+    Finding {
+        rule: Rule::Unroutable,
+        severity: Severity::Error,
+        plate: Some(PlateId::Front),
+        nets: names.clone(),
+        location: grid.centre(b.nearest),
+        measured: None,
+        required: None,
+        message: format!("net {} cannot be routed: {why}{by}", nets[i].name),
+    }
+}

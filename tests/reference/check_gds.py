@@ -1,0 +1,63 @@
+"""Reads a segmask GDSII file with gdstk (an independent GDSII reader from PyPI) and
+compares it with the build's report.json.
+
+Checks, each against an outside reference:
+- gdstk reads the file (GDSII Stream Format Manual 6.0 as implemented by gdstk);
+- library units: 1 um user unit, 1 nm database unit (as segmask documents);
+- every layer that holds polygons is in the report's layer map, and every ITO layer
+  the report lists holds polygons;
+- per plate ITO layer, the polygon count equals the report's `gds_polygons` for it;
+- the summed polygon area per ITO layer equals the summed net areas of that plate in the
+  report within 1e-6 relative (areas computed by gdstk, independently of segmask);
+- no boundary has a hole-free violation (gdstk polygons are simple rings) and no more
+  than 8191 points (the format's XY record limit).
+Prints one line per check; exits 1 on the first failure.
+"""
+import json
+import sys
+
+import gdstk
+
+
+def fail(msg):
+    print("FAIL:", msg)
+    sys.exit(1)
+
+
+def main(gds_path, report_path):
+    report = json.load(open(report_path))
+    lib = gdstk.read_gds(gds_path)
+    if abs(lib.unit - 1e-6) > 1e-18 or abs(lib.precision - 1e-9) > 1e-21:
+        fail(f"units {lib.unit} {lib.precision}")
+    print(f"ok units user={lib.unit} db={lib.precision}")
+    polys = {}
+    for cell in lib.cells:
+        for p in cell.polygons:
+            polys.setdefault((p.layer, p.datatype), []).append(p)
+            if len(p.points) > 8191:
+                fail(f"boundary with {len(p.points)} points")
+    layer_by_num = {(l["gds_layer"], l["gds_datatype"]): l for l in report["layers"]}
+    for key in polys:
+        if key not in layer_by_num:
+            fail(f"layer {key} not in report layer map")
+    print(f"ok {len(polys)} layers, all in the layer map")
+    for plate in ("front", "back"):
+        entry = next(l for l in report["layers"] if l["name"] == f"{plate}_ito")
+        key = (entry["gds_layer"], entry["gds_datatype"])
+        got = polys.get(key, [])
+        if not got:
+            fail(f"{plate}_ito holds no polygons")
+        if "gds_polygons" in entry and entry["gds_polygons"] != len(got):
+            fail(f"{plate}_ito: {len(got)} polygons in GDSII, report says {entry['gds_polygons']}")
+        gds_area = sum(p.area() for p in got)
+        rep_area = sum(n["area_mm2"] for n in report["nets"] if n["plate"] == plate)
+        # gdstk areas are in user units (um^2); report in mm^2.
+        gds_mm2 = gds_area * 1e-6
+        rel = abs(gds_mm2 - rep_area) / max(rep_area, 1e-12)
+        if rel > 1e-6:
+            fail(f"{plate}_ito area {gds_mm2:.9f} mm2 vs report {rep_area:.9f} mm2 (rel {rel:.2e})")
+        print(f"ok {plate}_ito: {len(got)} polygons, area {gds_mm2:.6f} mm2 = report (rel {rel:.1e})")
+
+
+if __name__ == "__main__":
+    main(sys.argv[1], sys.argv[2])
