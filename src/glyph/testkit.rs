@@ -13,6 +13,7 @@ pub fn empty_layout() -> Layout {
         glass: Glass { front: r(0.0, 0.0, 60.0, 40.0), back: r(0.0, 4.0, 60.0, 36.0) },
         window: r(4.0, 8.0, 52.0, 28.0),
         cell_gap: 0.007,
+        resist: Resist::Positive,
         rules: Rules {
             min_width: 0.1,
             min_gap: 0.05,

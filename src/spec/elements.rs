@@ -4,7 +4,7 @@
 
 use super::problems::Problems;
 use super::raw::*;
-use super::read::{mm, Sign};
+use super::read::{Sign, mm};
 use super::scalar::{OneOrList, Scalar};
 use crate::geom::pt;
 use crate::layout::*;
@@ -12,6 +12,9 @@ use crate::layout::*;
 /// Styles as written in layouts.
 const STYLES: [(&str, DigitStyle); 3] =
     [("seven", DigitStyle::Seven), ("fourteen", DigitStyle::Fourteen), ("sixteen", DigitStyle::Sixteen)];
+
+/// Most digits in one group (a guard against typos such as `count: 40000`).
+pub const MAX_DIGITS: i64 = 100;
 
 /// Largest slant we accept, degrees either way.
 pub const MAX_SLANT: f64 = 20.0;
@@ -33,7 +36,15 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules) -> Dig
         p.bad(&k("name"), format!("`{name}` is not a digit group name"), GROUP_NAME);
     }
     let style = p.word(d.style.as_ref(), &k("style"), &STYLES, None);
-    let count = p.int(d.count.as_ref(), &k("count"), None, 1);
+    let mut count = p.int(d.count.as_ref(), &k("count"), None, 1);
+    if count > MAX_DIGITS {
+        p.bad(
+            &k("count"),
+            format!("{count} digits in one group is more than segment glass carries"),
+            &format!("1 to {MAX_DIGITS}"),
+        );
+        count = 1;
+    }
     let origin = p.point(d.origin.as_ref(), &k("origin"), None);
     let height = p.length(d.height.as_ref(), &k("height"), None, Sign::Positive);
     let width = p.length(d.width.as_ref(), &k("width"), None, Sign::Positive);
@@ -162,7 +173,11 @@ pub fn legends(p: &mut Problems, raw: &[RawLegend]) -> Vec<Legend> {
         let height = p.length(l.height.as_ref(), &k("height"), None, Sign::Positive);
         let stroke = p.length(l.stroke.as_ref(), &k("stroke"), Some(height / 8.0), Sign::Positive);
         if p.clean(&[&k("height"), &k("stroke")]) && stroke * 2.0 >= height {
-            p.bad(&k("stroke"), format!("stroke {} is too heavy for text {} high", mm(stroke), mm(height)), "less than half the height");
+            p.bad(
+                &k("stroke"),
+                format!("stroke {} is too heavy for text {} high", mm(stroke), mm(height)),
+                "less than half the height",
+            );
         }
         let align = p.word(l.align.as_ref(), &k("align"), &aligns, Some(Align::Left));
         out.push(Legend { name, text, at, height, stroke, align, key });
@@ -211,14 +226,22 @@ fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
     .map(|(n, _)| *n)
     .collect();
     if given.len() != 1 {
-        let m = if given.is_empty() { "no shape given".to_string() } else { format!("several shapes given: {}", given.join(", ")) };
+        let m = if given.is_empty() {
+            "no shape given".to_string()
+        } else {
+            format!("several shapes given: {}", given.join(", "))
+        };
         p.bad(key, m, SHAPES);
         return None;
     }
     if r.icon.is_none() {
         for (f, set) in [("at", r.at.is_some()), ("size", r.size.is_some()), ("stroke", r.stroke.is_some())] {
             if set {
-                p.bad(&k(f), format!("`{f}` belongs to a named `icon`, not to a {}", given[0]), "at, size and stroke only with `icon`");
+                p.bad(
+                    &k(f),
+                    format!("`{f}` belongs to a named `icon`, not to a {}", given[0]),
+                    "at, size and stroke only with `icon`",
+                );
             }
         }
     }
@@ -228,7 +251,11 @@ fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
         let size = p.length(r.size.as_ref(), &k("size"), None, Sign::Positive);
         let stroke = p.length(r.stroke.as_ref(), &k("stroke"), Some(size / 12.0), Sign::Positive);
         if p.clean(&[&k("size"), &k("stroke")]) && stroke * 4.0 >= size {
-            p.bad(&k("stroke"), format!("stroke {} is too heavy for a {} icon", mm(stroke), mm(size)), "less than a quarter of the size");
+            p.bad(
+                &k("stroke"),
+                format!("stroke {} is too heavy for a {} icon", mm(stroke), mm(size)),
+                "less than a quarter of the size",
+            );
         }
         IconShape::Named { icon, at, size, stroke }
     } else if let Some(rc) = &r.rectangle {
@@ -238,7 +265,11 @@ fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
         let height = p.length(rc.height.as_ref(), &k("height"), None, Sign::Positive);
         let corner = p.length(rc.corner.as_ref(), &k("corner"), Some(0.0), Sign::NonNegative);
         if p.clean(&[&format!("{key}.rectangle")]) && corner * 2.0 > width.min(height) {
-            p.bad(&k("corner"), format!("corner radius {} is more than half the side", mm(corner)), &format!("0 to {}", mm(width.min(height) / 2.0)));
+            p.bad(
+                &k("corner"),
+                format!("corner radius {} is more than half the side", mm(corner)),
+                &format!("0 to {}", mm(width.min(height) / 2.0)),
+            );
         }
         IconShape::Rectangle { at, width, height, corner }
     } else if let Some(c) = &r.circle {
@@ -251,11 +282,16 @@ fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
         let outer = p.length(rg.outer.as_ref(), &k("outer"), None, Sign::Positive);
         let inner = p.length(rg.inner.as_ref(), &k("inner"), None, Sign::Positive);
         if p.clean(&[&format!("{key}.ring")]) && inner >= outer {
-            p.bad(&k("inner"), format!("inner radius {} is not less than outer {}", mm(inner), mm(outer)), &format!("less than {}", mm(outer)));
+            p.bad(
+                &k("inner"),
+                format!("inner radius {} is not less than outer {}", mm(inner), mm(outer)),
+                &format!("less than {}", mm(outer)),
+            );
         }
         IconShape::Ring { centre, outer, inner }
     } else if let Some(pts) = &r.polygon {
-        let points: Vec<_> = pts.iter().enumerate().map(|(j, q)| p.point(Some(q), &format!("{key}.polygon[{j}]"), None)).collect();
+        let points: Vec<_> =
+            pts.iter().enumerate().map(|(j, q)| p.point(Some(q), &format!("{key}.polygon[{j}]"), None)).collect();
         if points.len() < 3 {
             p.bad(&k("polygon"), format!("{} points do not make a polygon", points.len()), "at least 3 points");
         } else if p.clean(&[&k("polygon")]) && shoelace(&points).abs() < 1e-9 {
@@ -292,7 +328,8 @@ pub fn buses(p: &mut Problems, raw: &[RawBus], rules: &Rules) -> Vec<Bus> {
         } else if raw_points.len() < 2 {
             p.bad(&k("points"), format!("{} point(s) do not make a trace", raw_points.len()), "at least 2 points");
         }
-        let points = raw_points.iter().enumerate().map(|(j, q)| p.point(Some(q), &format!("{key}.points[{j}]"), None)).collect();
+        let points =
+            raw_points.iter().enumerate().map(|(j, q)| p.point(Some(q), &format!("{key}.points[{j}]"), None)).collect();
         out.push(Bus { net, plate, width, points, key });
     }
     out

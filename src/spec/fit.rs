@@ -5,7 +5,7 @@
 use super::nets::{element_nets, pads_needed};
 use super::problems::Problems;
 use super::read::mm;
-use super::resolve::{side_length, SIDES};
+use super::resolve::{SIDES, side_length};
 use crate::layout::{Layout, Rect, Side};
 
 /// Runs every fit check whose inputs were read without problems.
@@ -16,7 +16,10 @@ pub fn check_fit(p: &mut Problems, l: &Layout) {
     if p.clean(&["glass", "seal.inset", "seal.width"]) && seal_region(p, l) && p.clean(&["window"]) {
         window_inside(p, l);
     }
-    if p.clean(&["glass", "pads.side", "pads.length", "pads.edge_margin"]) && ledge(p, l) && p.clean(&["pads", "drive", "digits", "legends", "icons"]) {
+    if p.clean(&["glass", "pads.side", "pads.length", "pads.edge_margin"])
+        && ledge(p, l)
+        && p.clean(&["pads", "drive", "digits", "legends", "icons"])
+    {
         pad_row(p, l);
     }
     if p.clean(&["glass", "seal", "pads.side"]) {
@@ -150,7 +153,8 @@ fn pad_row(p: &mut Problems, l: &Layout) {
         None => 2.0 * (back_centre - m).min(side_len - m - back_centre) - pads.width,
     };
     let fit = if room < 0.0 { 0 } else { (room / pads.pitch + 1e-9).floor() as u64 + 1 };
-    let placed = if pads.start.is_some() { format!("from start {}", mm(first)) } else { "centred on the back glass".into() };
+    let placed =
+        if pads.start.is_some() { format!("from start {}", mm(first)) } else { "centred on the back glass".into() };
     let key = if pads.start.is_some() { "pads.start" } else { "pads.pitch" };
     p.bad(
         key,
@@ -169,7 +173,11 @@ fn fill_port(p: &mut Problems, l: &Layout) {
     let s = &l.seal;
     if s.port_side == l.pads.side {
         let others: Vec<&str> = SIDES.iter().filter(|(_, x)| *x != l.pads.side).map(|(n, _)| *n).collect();
-        p.bad("seal.fill_port.side", format!("the fill port cannot open onto the pad side ({})", s.port_side.name()), &others.join(", "));
+        p.bad(
+            "seal.fill_port.side",
+            format!("the fill port cannot open onto the pad side ({})", s.port_side.name()),
+            &others.join(", "),
+        );
         return;
     }
     let run = side_length(&l.glass.back, s.port_side);

@@ -35,6 +35,10 @@ pub fn line_of(lines: &BTreeMap<String, usize>, key: &str) -> Option<usize> {
     }
 }
 
+/// Nesting deeper than this is not located (no real layout comes near; serde_yaml refuses
+/// deeper documents anyway), which keeps time and memory linear on hostile input.
+const MAX_DEPTH: usize = 64;
+
 /// Joins a key onto a path.
 fn join(path: &str, key: &str) -> String {
     if path.is_empty() { key.to_string() } else { format!("{path}.{key}") }
@@ -141,21 +145,23 @@ impl Scanner {
     }
 
     /// Handles the content of line `l` from offset `pos`; gives the next line to read.
-    fn content(&mut self, l: usize, pos: usize, end: usize, block_scalar: &mut Option<usize>) -> usize {
-        let col = pos - self.starts[l];
-        let c = self.chars[pos];
-        let after = self.chars.get(pos + 1).copied();
-        if c == '-' && (pos + 1 >= end || after == Some(' ') || after == Some('\r')) {
-            self.seq_item(l, col);
-            let mut p = pos + 1;
-            while p < end && self.chars[p] == ' ' {
-                p += 1;
-            }
-            if p >= end || self.chars[p] == '#' || self.chars[p] == '\r' {
+    fn content(&mut self, l: usize, mut pos: usize, end: usize, block_scalar: &mut Option<usize>) -> usize {
+        // `- ` items, possibly several on one line (`- - x`), each one level deeper.
+        while self.chars[pos] == '-' && matches!(self.chars.get(pos + 1), None | Some(' ' | '\r' | '\n')) {
+            if self.stack.len() > MAX_DEPTH {
                 return l + 1;
             }
-            return self.content(l, p, end, block_scalar);
+            self.seq_item(l, pos - self.starts[l]);
+            pos += 1;
+            while pos < end && self.chars[pos] == ' ' {
+                pos += 1;
+            }
+            if pos >= end || self.chars[pos] == '#' || self.chars[pos] == '\r' {
+                return l + 1;
+            }
         }
+        let col = pos - self.starts[l];
+        let c = self.chars[pos];
         if c == '{' || c == '[' {
             let path = self.top_child();
             return self.flow_value(pos, &path);
@@ -163,6 +169,9 @@ impl Scanner {
         let Some((key, value_pos)) = self.block_key(pos, end) else {
             return l + 1;
         };
+        if self.stack.len() > MAX_DEPTH {
+            return l + 1;
+        }
         let path = self.key(l, col, &key);
         let mut p = value_pos;
         while p < end && self.chars[p] == ' ' {
@@ -218,7 +227,10 @@ impl Scanner {
     /// A block key `key` at column `col` on line `l`; gives its path.
     fn key(&mut self, l: usize, col: usize, key: &str) -> String {
         while self.stack.len() > 1
-            && self.stack.last().is_some_and(|f| f.indent > col || (matches!(f.kind, Kind::Seq { .. }) && f.indent >= col))
+            && self
+                .stack
+                .last()
+                .is_some_and(|f| f.indent > col || (matches!(f.kind, Kind::Seq { .. }) && f.indent >= col))
         {
             self.stack.pop();
         }
@@ -310,7 +322,7 @@ impl Scanner {
     /// offset after it. Depth-limited so malformed input cannot recurse forever.
     fn flow(&mut self, p: usize, path: &str, depth: usize) -> usize {
         let p = self.skip_space(p);
-        if p >= self.chars.len() || depth > 64 {
+        if p >= self.chars.len() || depth > MAX_DEPTH {
             return p;
         }
         match self.chars[p] {
@@ -375,10 +387,10 @@ impl Scanner {
 
     /// A scalar inside a flow collection: quoted, or plain up to `,` `}` `]` or `: `.
     fn flow_scalar(&self, p: usize) -> (String, usize) {
-        if matches!(self.chars[p], '"' | '\'') {
-            if let Some(q) = self.quoted(p) {
-                return q;
-            }
+        if matches!(self.chars[p], '"' | '\'')
+            && let Some(q) = self.quoted(p)
+        {
+            return q;
         }
         let mut e = p;
         while e < self.chars.len() {
@@ -386,7 +398,8 @@ impl Scanner {
             if matches!(c, ',' | '}' | ']' | '{' | '[' | '\n') {
                 break;
             }
-            if c == ':' && matches!(self.chars.get(e + 1), None | Some(' ' | ',' | '}' | ']' | '\n' | '\r' | '{' | '[')) {
+            if c == ':' && matches!(self.chars.get(e + 1), None | Some(' ' | ',' | '}' | ']' | '\n' | '\r' | '{' | '['))
+            {
                 break;
             }
             if c == '#' && e > p && self.chars[e - 1] == ' ' {
@@ -510,7 +523,12 @@ seal:
 
     #[test]
     fn garbage_does_not_panic() {
-        for t in ["", "{", "a: [1, {b: ", "- - -", ":\n:", "a: 'x", "  - x\nb:\n - [}", "\"k\": {\"", "a:\n  - b: [1,\n"] {
+        let deep = "- ".repeat(100_000);
+        let _ = key_lines(&deep);
+        let _ = key_lines(&"[".repeat(100_000));
+        for t in
+            ["", "{", "a: [1, {b: ", "- - -", ":\n:", "a: 'x", "  - x\nb:\n - [}", "\"k\": {\"", "a:\n  - b: [1,\n"]
+        {
             let _ = key_lines(t);
         }
     }

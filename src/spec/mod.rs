@@ -27,8 +27,8 @@ mod tests;
 
 pub use fit::{ledge_depth, liquid_crystal_region};
 pub use locate::{key_lines, line_of};
-pub use nets::{common_nets, digit_segments, element_nets, pads_needed, NetSource};
-pub use placement::{digit_cell, POINT_ROOM_STROKES};
+pub use nets::{NetSource, common_nets, digit_segments, element_nets, pads_needed};
+pub use placement::{POINT_ROOM_STROKES, digit_cell};
 
 use crate::error::InputProblem;
 use crate::layout::Layout;

@@ -3,7 +3,7 @@
 //! nets that exist, pin numbers unique and on the pad row.
 
 use super::problems::Problems;
-use crate::layout::{common_net, segment_net, Layout, COLON, DECIMAL_POINT};
+use crate::layout::{COLON, DECIMAL_POINT, Layout, common_net, segment_net};
 use std::collections::BTreeMap;
 
 /// One net and the key of the layout entry that makes it.

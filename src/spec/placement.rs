@@ -7,7 +7,7 @@
 
 use super::problems::Problems;
 use super::read::mm;
-use crate::geom::{self, pt, Polygon};
+use crate::geom::{self, Polygon, pt};
 use crate::layout::{DigitGroup, IconShape, Layout, Rect};
 
 /// Room to the right of a digit for its decimal point or colon, in strokes.
@@ -102,7 +102,13 @@ pub fn check_placement(p: &mut Problems, l: &Layout) {
             if !l.window.contains_rect(&bounds(&outline)) {
                 p.bad(&i.key, format!("icon `{}` reaches outside the window", i.name), &window_text(&l.window));
             }
-            placed.push(Placed { outline, key: i.key.clone(), entry: i.key.clone(), what: format!("icon `{}`", i.name), group: None });
+            placed.push(Placed {
+                outline,
+                key: i.key.clone(),
+                entry: i.key.clone(),
+                what: format!("icon `{}`", i.name),
+                group: None,
+            });
         }
     }
     for lg in &l.legends {
@@ -182,7 +188,10 @@ fn overlaps(p: &mut Problems, placed: &[Placed]) {
             if a.group.is_some() && a.group == b.group {
                 p.bad(
                     &b.key.replace(".origin", ".pitch"),
-                    format!("{} overlaps {}: the pitch is too small for the width, slant and point room", b.what, a.what),
+                    format!(
+                        "{} overlaps {}: the pitch is too small for the width, slant and point room",
+                        b.what, a.what
+                    ),
                     "a pitch of at least the width plus room for decimal points or colons",
                 );
             } else {

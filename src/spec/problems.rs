@@ -86,8 +86,7 @@ impl Problems {
 /// True when `key` is `prefix` or lies below it (`pads.pitch` under `pads`, `digits[0]`
 /// under `digits`).
 pub fn is_under(key: &str, prefix: &str) -> bool {
-    key == prefix
-        || (key.starts_with(prefix) && matches!(key.as_bytes().get(prefix.len()), Some(b'.') | Some(b'[')))
+    key == prefix || (key.starts_with(prefix) && matches!(key.as_bytes().get(prefix.len()), Some(b'.') | Some(b'[')))
 }
 
 /// Turns a serde_yaml error into an input problem: line and column from its location,
@@ -125,14 +124,7 @@ pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error, repeats: &BTreeMap<St
             (line, column) = (Some(*l), None);
         }
     }
-    InputProblem {
-        file: file.to_path_buf(),
-        line,
-        column,
-        key,
-        message,
-        allowed,
-    }
+    InputProblem { file: file.to_path_buf(), line, column, key, message, allowed }
 }
 
 fn join_key(path: &str, field: &str) -> String {

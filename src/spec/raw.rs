@@ -3,8 +3,8 @@
 //! every leaf a lenient [`Scalar`] so that bad values are reported with their key path.
 
 use super::scalar::{Entries, OneOrList, RawPoint, Scalar};
-use serde::de::{self, Deserialize, Deserializer, MapAccess, Visitor};
 use serde::Deserialize as DeriveDeserialize;
+use serde::de::{self, Deserialize, Deserializer, MapAccess, Visitor};
 use std::fmt;
 
 /// The whole file.

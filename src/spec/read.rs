@@ -4,8 +4,8 @@
 
 use super::problems::Problems;
 use super::scalar::{RawPoint, Scalar, ScalarKind};
-use super::units::{parse_angle, parse_length, LENGTH_UNITS};
-use crate::geom::{pt, Pt};
+use super::units::{LENGTH_UNITS, parse_angle, parse_length};
+use crate::geom::{Pt, pt};
 
 /// What sign a length must have.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -97,11 +97,19 @@ impl Problems {
         match n {
             Some(n) if n >= min => n,
             Some(n) => {
-                self.add(key, format!("must be at least {min} (got {n})"), Some(format!("a whole number, at least {min}")));
+                self.add(
+                    key,
+                    format!("must be at least {min} (got {n})"),
+                    Some(format!("a whole number, at least {min}")),
+                );
                 min
             }
             None => {
-                self.add(key, format!("{} is not a whole number", describe(v)), Some(format!("a whole number, at least {min}")));
+                self.add(
+                    key,
+                    format!("{} is not a whole number", describe(v)),
+                    Some(format!("a whole number, at least {min}")),
+                );
                 min
             }
         }

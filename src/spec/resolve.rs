@@ -5,7 +5,7 @@
 
 use super::problems::Problems;
 use super::raw::*;
-use super::read::{mm, Sign};
+use super::read::{Sign, mm};
 use super::scalar::{OneOrList, Scalar, ScalarKind};
 use crate::layout::*;
 use std::collections::BTreeMap;
@@ -82,7 +82,11 @@ pub fn cell_gap(p: &mut Problems, v: Option<&Scalar>) -> f64 {
     // Common practice: cells are 5–10 µm thick; we accept a generous 1–50 µm.
     let g = p.length(v, "cell_gap", Some(0.007), Sign::Positive);
     if p.clean(&["cell_gap"]) && !(0.001..=0.05).contains(&g) {
-        p.bad("cell_gap", format!("{} is not a plausible cell gap (check the unit)", mm(g)), "1um to 50um; usually 5um to 10um");
+        p.bad(
+            "cell_gap",
+            format!("{} is not a plausible cell gap (check the unit)", mm(g)),
+            "1um to 50um; usually 5um to 10um",
+        );
     }
     g
 }
@@ -270,7 +274,11 @@ pub fn drive(p: &mut Problems, d: Option<&RawDrive>) -> Drive {
             // at 1/3 bias; 1/2 bias at higher duty loses most of the contrast
             // (Alt & Pleshko 1974: N=4, a=2 gives Von/Voff = √21/3 ≈ 1.53 against √3 at a=3).
             if a == 2 && n > 2 {
-                p.bad("drive.bias", format!("bias 1/2 with duty 1/{n} gives poor contrast"), "bias 1/3 for duty 1/3 and 1/4");
+                p.bad(
+                    "drive.bias",
+                    format!("bias 1/2 with duty 1/{n} gives poor contrast"),
+                    "bias 1/3 for duty 1/3 and 1/4",
+                );
                 return stat;
             }
             Drive { commons: n, bias: Some(a) }
@@ -363,7 +371,11 @@ pub fn fonts(p: &mut Problems, f: Option<&Vec<Scalar>>, file: &Path) -> Vec<Font
         let path = dir.join(&name);
         match std::fs::read_to_string(&path) {
             Ok(text) => out.push(FontSource { path, text }),
-            Err(e) => p.bad(&key, format!("cannot read `{}`: {e}", path.display()), "a readable font file, relative to the layout file"),
+            Err(e) => p.bad(
+                &key,
+                format!("cannot read `{}`: {e}", path.display()),
+                "a readable font file, relative to the layout file",
+            ),
         }
     }
     out

@@ -85,7 +85,12 @@ fn every_problem_is_reported_at_its_line() {
     let keys: Vec<(&str, Option<usize>)> = v.iter().map(|p| (p.key.as_str(), p.line)).collect();
     assert_eq!(
         keys,
-        [("name", Some(3)), ("digits[0].height", Some(14)), ("digits[0].width", Some(15)), ("digits[0].slant", Some(16))]
+        [
+            ("name", Some(3)),
+            ("digits[0].height", Some(14)),
+            ("digits[0].width", Some(15)),
+            ("digits[0].slant", Some(16))
+        ]
     );
     assert!(v[1].message.contains("greater than 0"));
     assert_eq!(v[2].message, "unit `cm` not known");
