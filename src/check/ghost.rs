@@ -17,8 +17,11 @@ use crate::geom::{self, Polygon, Region};
 use crate::layout::PlateId;
 use geo::{Contains, InteriorPoint, Intersects};
 
-/// Ghost pieces smaller than this (1 µm²) are boolean noise, not pixels.
-pub const MIN_GHOST_MM2: f64 = 1e-6;
+/// Ghost pieces smaller than this (10 µm square: a third of the finest line a film
+/// holds, about 30 µm — common practice) cannot switch visibly and are the slivers that
+/// boolean work leaves where a lead leaves its electrode, not pixels. A real crossing of
+/// two leads at the minimum width is about 100 times larger.
+pub const MIN_GHOST_MM2: f64 = 1e-4;
 
 /// The ITO of one plate clipped to a region.
 fn plate_ito(ex: &Extraction, plate: PlateId, clip: &Region) -> Region {

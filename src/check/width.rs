@@ -31,8 +31,10 @@ use crate::layout::{PlateId, Rules};
 pub const SLACK_MM: f64 = crate::geom::SNAP_MM;
 
 /// Two edges count as facing when the angle between one and the reverse of the other is
-/// below this (45°, as a cosine).
-const FACING_COS: f64 = std::f64::consts::FRAC_1_SQRT_2;
+/// below this (30°, as a cosine). Wedges of 45° and more — mitred segment corners, and
+/// the corner a lead makes where it leaves a segment next to such a corner — are points
+/// that etch round, not lines that etch through (common practice for segment glass).
+const FACING_COS: f64 = 0.866_025_403_784_438_6;
 
 /// A line end: the outline on one side of a facing pair is at most this many times the
 /// measured distance long (a semicircular end is π/2 ≈ 1.57 times, a square end 1 to 3

@@ -40,7 +40,14 @@ pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tra
     // Pieces that face no electrode (slivers of junction filling cut off by a lead) have
     // no pixel to serve: they are dropped rather than joined.
     let min_overlap = rules.min_width * rules.min_width;
-    let mut islands: Vec<Region> = difference(&com.outline, &cuts)
+    // An opening (shrink, then grow back) removes the slivers too narrow to etch that
+    // the cuts leave beside segment corners.
+    let keep_width = rules.min_width + 2.0 * (rules.undercut - rules.film_bias());
+    let r = keep_width / 2.0 + 1e-4;
+    let cut_body = difference(&com.outline, &cuts);
+    // Flattened arcs of the grow-back may stray a chord's sagitta into a cut: cut again.
+    let body = difference(&offset_round(&offset_round(&cut_body, -r, tol), r, tol), &cuts);
+    let mut islands: Vec<Region> = body
         .0
         .into_iter()
         .map(|p| region_of([p]))
@@ -129,7 +136,10 @@ fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
     g.for_cells_in(&keep, |c| cells.push(c));
     for c in cells {
         let p = g.centre(c);
-        let inside = |r: &crate::layout::Rect| p.x >= r.x && p.x <= r.x1() && p.y >= r.y && p.y <= r.y1();
+        // A cell counts as in the window (or the liquid crystal) when a lead centred on
+        // it would reach in.
+        let m = layout.rules.lead_width / 2.0 + h;
+        let inside = |r: &crate::layout::Rect| p.x >= r.x - m && p.x <= r.x1() + m && p.y >= r.y - m && p.y <= r.y1() + m;
         if inside(&w) {
             g.cost[c] = f32::INFINITY;
         } else if inside(&lc) {
