@@ -131,6 +131,8 @@ pub fn clean() -> Artwork {
         back_glass: rect(0.0, 6.0, 40.0, 30.0),
         labels: vec![],
         rules: rules(),
+        resist: crate::layout::Resist::Positive,
+        film_shapes: vec![],
         layers: LayerMap::defaults(),
         generation_findings: vec![],
     }

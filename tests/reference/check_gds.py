@@ -7,8 +7,9 @@ Checks, each against an outside reference:
 - every layer that holds polygons is in the report's layer map, and every ITO layer
   the report lists holds polygons;
 - per plate ITO layer, the polygon count equals the report's `gds_polygons` for it;
-- the summed polygon area per ITO layer equals the summed net areas of that plate in the
-  report within 1e-6 relative (areas computed by gdstk, independently of segmask);
+- the summed polygon area of both ITO layers equals the summed net areas in the report
+  within 1e-6 relative (areas computed by gdstk, independently of segmask; a common's
+  area in the report includes its front-plate pad and lead);
 - no boundary has a hole-free violation (gdstk polygons are simple rings) and no more
   than 8191 points (the format's XY record limit).
 Prints one line per check; exits 1 on the first failure.
@@ -41,6 +42,7 @@ def main(gds_path, report_path):
         if key not in layer_by_num:
             fail(f"layer {key} not in report layer map")
     print(f"ok {len(polys)} layers, all in the layer map")
+    total_gds = 0.0
     for plate in ("front", "back"):
         entry = next(l for l in report["layers"] if l["name"] == f"{plate}_ito")
         key = (entry["gds_layer"], entry["gds_datatype"])
@@ -49,14 +51,14 @@ def main(gds_path, report_path):
             fail(f"{plate}_ito holds no polygons")
         if "gds_polygons" in entry and entry["gds_polygons"] != len(got):
             fail(f"{plate}_ito: {len(got)} polygons in GDSII, report says {entry['gds_polygons']}")
-        gds_area = sum(p.area() for p in got)
-        rep_area = sum(n["area_mm2"] for n in report["nets"] if n["plate"] == plate)
-        # gdstk areas are in user units (um^2); report in mm^2.
-        gds_mm2 = gds_area * 1e-6
-        rel = abs(gds_mm2 - rep_area) / max(rep_area, 1e-12)
-        if rel > 1e-6:
-            fail(f"{plate}_ito area {gds_mm2:.9f} mm2 vs report {rep_area:.9f} mm2 (rel {rel:.2e})")
-        print(f"ok {plate}_ito: {len(got)} polygons, area {gds_mm2:.6f} mm2 = report (rel {rel:.1e})")
+        # gdstk areas are in user units (um^2); the report's in mm^2.
+        total_gds += sum(p.area() for p in got) * 1e-6
+        print(f"ok {plate}_ito: {len(got)} polygons")
+    rep_area = sum(n["area_mm2"] for n in report["nets"])
+    rel = abs(total_gds - rep_area) / max(rep_area, 1e-12)
+    if rel > 1e-6:
+        fail(f"ITO area {total_gds:.9f} mm2 in GDSII vs report {rep_area:.9f} mm2 (rel {rel:.2e})")
+    print(f"ok ITO area {total_gds:.6f} mm2 = report (rel {rel:.1e})")
 
 
 if __name__ == "__main__":
