@@ -1,0 +1,63 @@
+//! A layout with one design mistake makes `segmask check` exit 1 and name the rule, the
+//! nets and the place; the same layout without the mistake checks clean (exit 0), so each
+//! test would fail if the mistake went unnoticed or the base layout were dirty.
+
+use std::path::PathBuf;
+use std::process::Command;
+
+fn layout(gap_x: f64, extra: &str) -> (tempfile::TempDir, PathBuf) {
+    let base = std::fs::read_to_string(PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures/findings/base.yaml")).unwrap();
+    let text = base.replace("GAP_X", &gap_x.to_string()).replace("EXTRA", extra);
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("two-squares.yaml");
+    std::fs::write(&path, text).unwrap();
+    (dir, path)
+}
+
+fn check(path: &PathBuf) -> (Option<i32>, String) {
+    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("check").arg(path).output().unwrap();
+    (o.status.code(), String::from_utf8_lossy(&o.stderr).into_owned())
+}
+
+#[test]
+fn base_layout_checks_clean() {
+    let (_d, p) = layout(16.0, "");
+    let (code, err) = check(&p);
+    assert_eq!(code, Some(0), "{err}");
+}
+
+/// Squares 0.03 mm apart, below the 0.05 mm minimum gap.
+#[test]
+fn gap_below_minimum_is_an_error_naming_both_nets() {
+    let (_d, p) = layout(12.03, "");
+    let (code, err) = check(&p);
+    assert_eq!(code, Some(1), "{err}");
+    let line = err.lines().find(|l| l.contains("error[gap]")).unwrap_or_else(|| panic!("no gap finding:\n{err}"));
+    assert!(line.contains("two-squares.yaml"), "{line}");
+    assert!(err.contains("LEFT") && err.contains("RIGHT"), "{err}");
+    assert!(err.contains("at: (12.0"), "the place is between the squares:\n{err}");
+    assert!(err.contains("measured 0.03"), "{err}");
+}
+
+/// A bus of LEFT drawn onto RIGHT joins the two nets.
+#[test]
+fn bus_touching_another_net_is_a_short() {
+    let (_d, p) = layout(16.0, "buses:\n  - {net: LEFT, plate: front, width: 0.2, points: [[11, 14], [17, 14]]}\n");
+    let (code, err) = check(&p);
+    assert_eq!(code, Some(1), "{err}");
+    assert!(err.contains("error[short]"), "{err}");
+    assert!(err.contains("LEFT") && err.contains("RIGHT"), "{err}");
+}
+
+/// A back-plate bus of the common drawn across a front bus inside the window makes front
+/// and back ITO overlap where no pixel is designed.
+#[test]
+fn common_bus_over_a_front_lead_in_the_window_is_a_ghost() {
+    let extra = "buses:\n  - {net: LEFT, plate: front, width: 0.2, points: [[10, 12], [10, 10], [14, 10]]}\n  - {net: COM1, plate: back, width: 0.2, points: [[13, 9], [13, 11]]}\n";
+    let (_d, p) = layout(16.0, extra);
+    let (code, err) = check(&p);
+    assert_eq!(code, Some(1), "{err}");
+    let line = err.lines().find(|l| l.contains("error[ghost]")).unwrap_or_else(|| panic!("no ghost finding:\n{err}"));
+    assert!(line.contains("LEFT") && line.contains("COM1"), "{line}");
+    assert!(err.contains("at: (13.0"), "the place is the crossing:\n{err}");
+}
