@@ -59,7 +59,7 @@ impl Layout {
     pub fn problem(&self, key: &str, message: impl Into<String>, allowed: Option<String>) -> crate::error::InputProblem {
         crate::error::InputProblem {
             file: self.source.clone(),
-            line: self.key_lines.get(key).copied(),
+            line: key_line(&self.key_lines, key),
             column: None,
             key: key.to_string(),
             message: message.into(),
@@ -174,7 +174,8 @@ pub struct Rules {
     pub film_min_feature: f64,
     /// How far a common electrode extends beyond the segments it faces.
     pub backplane_overlap: f64,
-    /// Smallest distance from any ITO (except pads) to the glass edge.
+    /// Smallest distance from ITO inside the liquid-crystal region to the glass edge
+    /// (outside it, ITO must only stay on its glass; docs/checks.md).
     pub edge_clearance: f64,
     /// Width of automatically drawn leads.
     pub lead_width: f64,
@@ -511,6 +512,19 @@ pub fn segment_net(group: &str, digit: u32, segment: &str) -> String {
 /// Net name of common electrode `index` (0-based): `COM1`, `COM2`, …
 pub fn common_net(index: u32) -> String {
     format!("COM{}", index + 1)
+}
+
+/// The line of `key`, or of its nearest parent key that has one (a key the user left to
+/// its default has no line of its own).
+pub fn key_line(lines: &BTreeMap<String, usize>, key: &str) -> Option<usize> {
+    let mut k = key;
+    loop {
+        if let Some(l) = lines.get(k) {
+            return Some(*l);
+        }
+        let cut = k.rfind(['.', '['])?;
+        k = &k[..cut];
+    }
 }
 
 /// A small hand-built layout for unit tests of the later stages.

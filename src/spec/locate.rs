@@ -25,14 +25,7 @@ pub fn key_lines_and_repeats(text: &str) -> (BTreeMap<String, usize>, BTreeMap<S
 /// Line of `key`, or of its nearest ancestor that is in `lines` (`pads.pitch` → `pads`
 /// when `pitch` is missing), or `None`.
 pub fn line_of(lines: &BTreeMap<String, usize>, key: &str) -> Option<usize> {
-    let mut k = key;
-    loop {
-        if let Some(l) = lines.get(k) {
-            return Some(*l);
-        }
-        let cut = k.rfind(['.', '['])?;
-        k = &k[..cut];
-    }
+    crate::layout::key_line(lines, key)
 }
 
 /// Nesting deeper than this is not located (no real layout comes near; serde_yaml refuses
