@@ -129,13 +129,15 @@ fn title_lines(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Vec<
         PlateId::Front => "PRINTED AS THE VIEWER SEES IT",
         PlateId::Back => "PRINTED MIRRORED",
     };
+    let grown = if art.film_shapes.is_empty() {
+        String::new()
+    } else {
+        format!(" - GROWN {:.1} UM PER EDGE FOR ETCH", art.rules.film_bias() * 1000.0)
+    };
     let mut lines = vec![
         format!("{} - {} FILM", art.name, plate_words(plate)),
-        format!("{tone} FOR {} RESIST - {reading} - 1:1 - {date}", resist_name(art.resist)),
+        format!("{tone} FOR {} RESIST - {reading} - 1:1{grown} - {date}", resist_name(art.resist)),
     ];
-    if !art.film_shapes.is_empty() {
-        lines.push(format!("ETCH COMPENSATED: FEATURES GROWN {:.1} UM PER EDGE", art.rules.film_bias() * 1000.0));
-    }
     if errors > 0 {
         lines.push(format!("NOT CHECKED CLEAN: {errors} RULE ERROR(S) - SEE REPORT"));
     }

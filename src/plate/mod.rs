@@ -142,7 +142,7 @@ fn labels(layout: &Layout) -> Vec<Label> {
     let f = layout.glass.front;
     let b = layout.glass.back;
     vec![
-        Label { plate: PlateId::Front, text: format!("{} FRONT", layout.name), at: crate::geom::pt(f.x, f.y1() + 1.0), height: 2.0 },
-        Label { plate: PlateId::Back, text: format!("{} BACK", layout.name), at: crate::geom::pt(b.x, b.y1() + 1.0), height: 2.0 },
+        Label { plate: PlateId::Front, text: format!("{} FRONT", layout.name), at: crate::geom::pt(f.x, f.y1() + 0.5), height: 1.5 },
+        Label { plate: PlateId::Back, text: format!("{} BACK", layout.name), at: crate::geom::pt(b.x, b.y1() + 0.5), height: 1.5 },
     ]
 }
