@@ -38,6 +38,24 @@ enum Command {
         /// Layout file (YAML).
         layout: PathBuf,
     },
+    /// Print an intermediate form (for debugging and reviews): the resolved layout or
+    /// the artwork, as Rust debug text.
+    Dump {
+        /// What to print.
+        #[arg(value_enum)]
+        what: DumpWhat,
+        /// Layout file (YAML).
+        layout: PathBuf,
+    },
+}
+
+/// Intermediate forms `dump` can print.
+#[derive(Clone, Copy, clap::ValueEnum)]
+enum DumpWhat {
+    /// The resolved layout (all lengths in mm, defaults filled).
+    Layout,
+    /// The artwork: every polygon with its layer, role and net, and the intent.
+    Artwork,
 }
 
 /// Runs the command line and returns the process exit code.
@@ -48,6 +66,7 @@ pub fn run() -> ExitCode {
             build(&layout, &out, masks_despite_errors, date)
         }
         Command::Check { layout } => check(&layout),
+        Command::Dump { what, layout } => dump(what, &layout),
     };
     match result {
         Ok(code) => code,
@@ -78,6 +97,14 @@ fn check(layout: &Path) -> segmask::Result<ExitCode> {
     let built = segmask::pipeline::build_layout_file(layout)?;
     print_findings(layout, &built);
     Ok(exit_for(&built.findings))
+}
+
+fn dump(what: DumpWhat, layout: &Path) -> segmask::Result<ExitCode> {
+    match what {
+        DumpWhat::Layout => println!("{:#?}", segmask::spec::load_layout(layout)?),
+        DumpWhat::Artwork => println!("{:#?}", segmask::pipeline::build_layout_file(layout)?.artwork),
+    }
+    Ok(ExitCode::SUCCESS)
 }
 
 fn print_findings(layout: &Path, built: &Built) {
