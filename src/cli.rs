@@ -32,6 +32,9 @@ enum Command {
         /// Date printed on films and stored in GDSII, YYYY-MM-DD [default: today].
         #[arg(long)]
         date: Option<String>,
+        /// Print the time each stage took.
+        #[arg(long)]
+        timings: bool,
     },
     /// Build the artwork in memory and print the findings; writes nothing.
     Check {
@@ -62,8 +65,8 @@ enum DumpWhat {
 pub fn run() -> ExitCode {
     let cli = Cli::parse();
     let result = match cli.command {
-        Command::Build { layout, out, masks_despite_errors, date } => {
-            build(&layout, &out, masks_despite_errors, date)
+        Command::Build { layout, out, masks_despite_errors, date, timings } => {
+            build(&layout, &out, masks_despite_errors, date, timings)
         }
         Command::Check { layout } => check(&layout),
         Command::Dump { what, layout } => dump(what, &layout),
@@ -77,8 +80,13 @@ pub fn run() -> ExitCode {
     }
 }
 
-fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>) -> segmask::Result<ExitCode> {
+fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: bool) -> segmask::Result<ExitCode> {
     let built = segmask::pipeline::build_layout_file(layout)?;
+    if timings {
+        for (stage, d) in &built.timings {
+            eprintln!("time {stage:>9}: {:8.3} s", d.as_secs_f64());
+        }
+    }
     print_findings(layout, &built);
     let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
     let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks };

@@ -5,6 +5,7 @@ use crate::finding::Finding;
 use crate::layout::Layout;
 use crate::Result;
 use std::path::Path;
+use std::time::Instant;
 
 /// Everything one run produces before writing.
 #[derive(Debug)]
@@ -15,21 +16,38 @@ pub struct Built {
     pub artwork: Artwork,
     /// Generation and check findings together.
     pub findings: Vec<Finding>,
+    /// Wall-clock time of each stage, in pipeline order.
+    pub timings: Vec<(&'static str, std::time::Duration)>,
 }
 
 /// Reads, resolves, builds and checks a layout.
 pub fn build_layout_file(path: &Path) -> Result<Built> {
+    let start = Instant::now();
     let layout = crate::spec::load_layout(path)?;
-    build_layout(layout)
+    let spec_time = start.elapsed();
+    let mut built = build_layout(layout)?;
+    built.timings.insert(0, ("spec", spec_time));
+    Ok(built)
 }
 
 /// Builds and checks an already resolved layout.
 pub fn build_layout(layout: Layout) -> Result<Built> {
+    let mut timings = Vec::new();
+    let mut t = Instant::now();
+    let mut lap = |name: &'static str, t: &mut Instant| {
+        timings.push((name, t.elapsed()));
+        *t = Instant::now();
+    };
     let elements = crate::glyph::build_elements(&layout)?;
+    lap("glyph", &mut t);
     let electrodes = crate::electrode::build_electrodes(&layout, &elements)?;
+    lap("electrode", &mut t);
     let routes = crate::route::route_leads(&layout, &electrodes)?;
+    lap("route", &mut t);
     let artwork = crate::plate::build_artwork(&layout, &electrodes, &routes)?;
+    lap("plate", &mut t);
     let mut findings = artwork.generation_findings.clone();
     findings.extend(crate::check::check_artwork(&artwork));
-    Ok(Built { layout, artwork, findings })
+    lap("check", &mut t);
+    Ok(Built { layout, artwork, findings, timings })
 }

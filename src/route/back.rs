@@ -62,62 +62,63 @@ pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tra
     };
     let grid = back_grid(layout, &leads);
     let mut search = Search::new(grid.nx * grid.ny);
-    let mut island_of = vec![u32::MAX; grid.owner.len()];
-    for (k, isl) in islands.iter().enumerate() {
-        grid.for_cells_in(isl, |c| island_of[c] = k as u32);
-    }
     let mut in_tree = vec![false; grid.owner.len()];
     let mut tree = Vec::new();
     grid.for_cells_in(&region_of([dot.pad.clone()]), |c| {
         in_tree[c] = true;
         tree.push(c);
     });
-    let mut joined = vec![false; islands.len()];
-    for _ in 0..islands.len() {
-        let goal = |c: usize| island_of[c] != u32::MAX && !joined[island_of[c] as usize];
-        match search.find(&grid, 1, &tree, goal, |_| 0.0) {
+    // Islands nearest the dot join first, each by a search from its own cells to the
+    // tree grown so far: every search stops at the nearest part of the tree, so the work
+    // stays local instead of flooding the plate from the whole tree each time.
+    let mut order: Vec<usize> = (0..islands.len()).collect();
+    let centre = |k: usize| {
+        use geo::Centroid;
+        islands[k].centroid().map(|p| p.0).unwrap_or(dot.at)
+    };
+    let d2 = |p: crate::geom::Pt| (p.x - dot.at.x).powi(2) + (p.y - dot.at.y).powi(2);
+    order.sort_by(|&a, &b| d2(centre(a)).total_cmp(&d2(centre(b))));
+    for k in order {
+        let mut cells = Vec::new();
+        grid.for_cells_in(&islands[k], |c| cells.push(c));
+        if cells.iter().any(|&c| in_tree[c]) || cells.is_empty() {
+            for c in cells {
+                if !in_tree[c] {
+                    in_tree[c] = true;
+                    tree.push(c);
+                }
+            }
+            continue;
+        }
+        let it = &in_tree;
+        match search.find(&grid, 1, &cells, |c| it[c], |_| 0.0) {
             Ok(path) => {
-                let k = island_of[*path.last().expect("paths are never empty")] as usize;
-                joined[k] = true;
                 let pts = corners(&grid, &path);
                 if pts.len() >= 2 {
                     let outline = stroke_polyline(&pts, rules.lead_width, tol);
                     out.push(Lead { net: com.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false });
                 }
-                for &c in &path {
+                for &c in path.iter().chain(cells.iter()) {
                     if !in_tree[c] {
                         in_tree[c] = true;
                         tree.push(c);
                     }
                 }
-                grid.for_cells_in(&islands[k], |c| {
-                    if !in_tree[c] {
-                        in_tree[c] = true;
-                        tree.push(c);
-                    }
-                });
             }
-            Err(b) => {
-                for (k, isl) in islands.iter().enumerate().filter(|(k, _)| !joined[*k]) {
-                    use geo::Centroid;
-                    let at = isl.centroid().map(|p| p.0).unwrap_or(grid.centre(b.nearest));
-                    findings.push(Finding {
-                        rule: Rule::Unroutable,
-                        severity: Severity::Error,
-                        plate: Some(PlateId::Back),
-                        nets: vec![com.net.clone()],
-                        location: at,
-                        measured: None,
-                        required: None,
-                        message: format!(
-                            "part {} of common electrode {} cannot reach its transfer dot without facing a front lead in the window",
-                            k + 1,
-                            com.net
-                        ),
-                    });
-                }
-                break;
-            }
+            Err(_) => findings.push(Finding {
+                rule: Rule::Unroutable,
+                severity: Severity::Error,
+                plate: Some(PlateId::Back),
+                nets: vec![com.net.clone()],
+                location: centre(k),
+                measured: None,
+                required: None,
+                message: format!(
+                    "part {} of common electrode {} cannot reach its transfer dot without facing a front lead in the window",
+                    k + 1,
+                    com.net
+                ),
+            }),
         }
     }
     BackRoutes { leads: out, cuts, kept: islands }
