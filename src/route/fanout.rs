@@ -21,8 +21,8 @@ pub struct Arrival {
 /// total sideways travel smallest. Returns, for each arrival, the index of its pad.
 ///
 /// ```
-/// let m = segmask::route::fanout::match_in_order(&[1.0, 5.0], &[0.0, 2.0, 4.0, 6.0]);
-/// assert_eq!(m, vec![1, 2]);
+/// let m = segmask::route::fanout::match_in_order(&[1.1, 5.2], &[0.0, 2.0, 4.0, 6.0]);
+/// assert_eq!(m, vec![1, 3]);
 /// ```
 pub fn match_in_order(arrivals: &[f64], pads: &[f64]) -> Vec<usize> {
     let (n, m) = (arrivals.len(), pads.len());
