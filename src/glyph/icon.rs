@@ -32,11 +32,11 @@ fn problem(field: &'static str, message: impl Into<String>, allowed: Option<Stri
 pub fn describe(shape: &IconShape) -> String {
     match shape {
         IconShape::Named { icon, .. } => format!("icon {icon}"),
-        IconShape::Rectangle { .. } => "rectangle".into(),
-        IconShape::Circle { .. } => "circle".into(),
-        IconShape::Ring { .. } => "ring".into(),
-        IconShape::Polygon { .. } => "polygon".into(),
-        IconShape::Path { .. } => "path".into(),
+        IconShape::Rectangle { .. } => "rectangle icon".into(),
+        IconShape::Circle { .. } => "circle icon".into(),
+        IconShape::Ring { .. } => "ring icon".into(),
+        IconShape::Polygon { .. } => "polygon icon".into(),
+        IconShape::Path { .. } => "path icon".into(),
     }
 }
 

@@ -213,7 +213,7 @@ fn icons_of_every_kind() {
     let e = elements(&l);
     assert_eq!(e.len(), 6);
     let drives: Vec<&str> = e.iter().map(|x| x.drives.as_str()).collect();
-    assert_eq!(drives, ["icon battery", "rectangle", "circle", "ring", "polygon", "path"]);
+    assert_eq!(drives, ["icon battery", "rectangle icon", "circle icon", "ring icon", "polygon icon", "path icon"]);
     for x in &e {
         assert_eq!(x.kind, ElementKind::Icon);
         assert_clean(x);
