@@ -51,6 +51,8 @@ pub enum Rule {
     EdgeClearance,
     /// A lead that could not be drawn.
     Unroutable,
+    /// A designed pixel that does not light fully, or lights with the wrong common.
+    DriveTruth,
 }
 
 impl Rule {
@@ -67,6 +69,7 @@ impl Rule {
             Rule::PadCovered => "pad-covered",
             Rule::EdgeClearance => "edge-clearance",
             Rule::Unroutable => "unroutable",
+            Rule::DriveTruth => "drive-truth",
         }
     }
 }

@@ -6,6 +6,7 @@
 
 pub mod connectivity;
 pub mod disjoint;
+pub mod drive_truth;
 pub mod edge;
 pub mod gap;
 pub mod ghost;
@@ -37,6 +38,7 @@ pub fn check_extracted(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     out.extend(ghost::check_ghosts(art, ex));
     out.extend(pads::check_pads(art));
     out.extend(edge::check_edge(art, ex));
+    out.extend(drive_truth::check_drive_truth(art, ex));
     out
 }
 

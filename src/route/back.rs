@@ -46,7 +46,9 @@ pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tra
     let r = keep_width / 2.0 + 1e-4;
     let cut_body = difference(&com.outline, &cuts);
     // Flattened arcs of the grow-back may stray a chord's sagitta into a cut: cut again.
-    let body = difference(&offset_round(&offset_round(&cut_body, -r, tol), r, tol), &cuts);
+    let opened = difference(&offset_round(&offset_round(&cut_body, -r, tol), r, tol), &cuts);
+    // The opening must not shave the pixels themselves: what faces an electrode stays.
+    let body = crate::geom::union(&opened, &crate::geom::intersection(&cut_body, &electrodes));
     let mut islands: Vec<Region> = body
         .0
         .into_iter()
