@@ -28,6 +28,11 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
     if g.slant.abs() >= 45.0 {
         return Err(bad("slant", format!("slant {}°", g.slant), Some("between -45° and 45°".into())));
     }
+    for (field, list) in [("decimal_points", &g.decimal_points), ("colons", &g.colons), ("half_digits", &g.half_digits)] {
+        if let Some(n) = list.iter().find(|n| **n < 1 || **n > g.count) {
+            return Err(bad(field, format!("there is no digit {n}"), Some(format!("digit numbers 1 to {}", g.count))));
+        }
+    }
     let tol = layout.tolerance;
     let cell_of = |i: u32| Cell {
         origin: crate::geom::pt(g.origin.x + f64::from(i - 1) * g.pitch, g.origin.y),
@@ -54,12 +59,16 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
             out.push(element(g, i, name, vec![outline.clone()], Some(vec![body.clone()]), drives)?);
         }
         // Dots must keep the gap from this digit, the next one and each other.
-        let mut near: Vec<Polygon> = outlines.iter().map(|s| s.1.clone()).collect();
-        if i < g.count && let Ok(next) = segs_of(i + 1, g.gap) {
-            near.extend(next.into_iter().map(|s| s.1));
+        let (has_dp, has_colon) = (g.decimal_points.contains(&i), g.colons.contains(&i));
+        let mut near: Vec<Polygon> = Vec::new();
+        if has_dp || has_colon {
+            near.extend(outlines.iter().map(|s| s.1.clone()));
+            if i < g.count && let Ok(next) = segs_of(i + 1, g.gap) {
+                near.extend(next.into_iter().map(|s| s.1));
+            }
         }
         let mut dots: Vec<Polygon> = Vec::new();
-        if g.decimal_points.contains(&i) {
+        if has_dp {
             let dp = decimal_point(skel, &cell, tol);
             if let Some(d) = too_close(&dp, &near, g.gap) {
                 problems.push(layout.problem(&format!("{}.decimal_points", g.key), format!("the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {} mm", g.gap), Some("a larger pitch, or a thinner stroke".into())));
@@ -67,7 +76,7 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
             dots.push(dp.clone());
             out.push(element(g, i, DECIMAL_POINT, vec![dp], None, format!("digit {i} decimal point"))?);
         }
-        if g.colons.contains(&i) {
+        if has_colon {
             let pieces = colon(skel, &cell, g.pitch, tol);
             let clash = pieces.iter().filter_map(|p| too_close(p, &near, g.gap).or(too_close(p, &dots, g.gap))).next();
             if let Some(d) = clash {

@@ -70,7 +70,7 @@ pub fn build_icon(fonts: &Fonts, shape: &IconShape, tol: f64) -> Result<Region, 
             Ok(region_of([circle(*centre, *radius, tol)]))
         }
         IconShape::Ring { centre, outer, inner } => {
-            if !(*inner > 0.0 && inner < outer) || !outer.is_finite() {
+            if !(*inner > 0.0 && inner < outer && outer.is_finite()) {
                 return Err(problem("inner", format!("inner radius {inner} mm must be above 0 and below the outer radius {outer} mm"), None));
             }
             Ok(region_of([ring(*centre, *outer, *inner, tol)]))

@@ -66,6 +66,8 @@ fn write_preview() {
     render(&crop, 3.0, &dir.join("glyph-preview-text.png"));
     let crop = svg.replacen(&format!(r#"width="{w}mm" height="{h}mm" viewBox="0 0 {w} {h}""#), r#"width="150mm" height="45mm" viewBox="0 155 150 45""#, 1);
     render(&crop, 3.0, &dir.join("glyph-preview-digits.png"));
+    let crop = svg.replacen(&format!(r#"width="{w}mm" height="{h}mm" viewBox="0 0 {w} {h}""#), r#"width="150mm" height="45mm" viewBox="140 155 150 45""#, 1);
+    render(&crop, 3.0, &dir.join("glyph-preview-digits-2.png"));
     let crop = svg.replacen(&format!(r#"width="{w}mm" height="{h}mm" viewBox="0 0 {w} {h}""#), r#"width="150mm" height="40mm" viewBox="0 60 150 40""#, 1);
     render(&crop, 3.0, &dir.join("glyph-preview-icons.png"));
 }

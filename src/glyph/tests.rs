@@ -254,6 +254,11 @@ fn bad_stroke_is_an_input_problem() {
     l.digits.push(g);
     let p = problems(&l);
     assert_eq!(p[0].key, "digits[0].stroke");
+    l.digits[0].stroke = 1.0;
+    l.digits[0].decimal_points = vec![2];
+    let p = problems(&l);
+    assert_eq!(p[0].key, "digits[0].decimal_points");
+    assert!(p[0].message.contains("no digit 2"));
 }
 
 
