@@ -5,7 +5,7 @@
 //! Takes `Layout.extra_fonts`; gives a [`Fonts`] to look glyphs, icons and skeletons up
 //! in, or the parse problems of the added files (file and line).
 
-use super::font::{parse_font, GlyphDef, IconDef, SkeletonDef};
+use super::font::{GlyphDef, IconDef, SkeletonDef, parse_font};
 use crate::layout::{DigitStyle, FontSource};
 use std::collections::BTreeMap;
 use std::path::Path;
@@ -161,7 +161,10 @@ mod tests {
 
     #[test]
     fn extra_file_errors_name_file_and_line() {
-        let bad = FontSource { path: PathBuf::from("bad.strokes"), text: "strokes 1\ncap 10\nglyph B 5\n line 0 0 x 1\n".into() };
+        let bad = FontSource {
+            path: PathBuf::from("bad.strokes"),
+            text: "strokes 1\ncap 10\nglyph B 5\n line 0 0 x 1\n".into(),
+        };
         let crate::Error::Input(p) = Fonts::with_extra(&[bad]).unwrap_err() else { panic!() };
         assert_eq!(p[0].file, PathBuf::from("bad.strokes"));
         assert_eq!(p[0].line, Some(4));
