@@ -5,10 +5,10 @@
 //! vertices lie on the true curve, so a flattened convex curve lies inside the true one
 //! (DESIGN.md §7). `lyon_path` is not used: it stores `f32`.
 
-use super::{pt, Polygon, Pt, Region};
+use super::{Polygon, Pt, Region, pt};
 use geo::algorithm::bool_ops::FillRule;
 use geo::{BooleanOps, LineString};
-use lyon_geom::{point, vector, Angle, ArcFlags, CubicBezierSegment, QuadraticBezierSegment, SvgArc};
+use lyon_geom::{Angle, ArcFlags, CubicBezierSegment, QuadraticBezierSegment, SvgArc, point, vector};
 
 /// One drawing command of a sub-path, in absolute coordinates.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -216,7 +216,8 @@ pub fn ring_polygon(mut v: Vec<Pt>) -> Polygon {
 /// assert!((area(&r) - 12.0).abs() < 1e-9);
 /// ```
 pub fn fill_even_odd(rings: &[Vec<Pt>]) -> Region {
-    let polys: Vec<Polygon> = rings.iter().filter(|r| r.len() >= 3).map(|r| super::snap(&ring_polygon(r.clone()))).collect();
+    let polys: Vec<Polygon> =
+        rings.iter().filter(|r| r.len() >= 3).map(|r| super::snap(&ring_polygon(r.clone()))).collect();
     if polys.is_empty() {
         return Region::new(vec![]);
     }
@@ -578,7 +579,9 @@ mod tests {
     /// without hanging; non-ASCII input is reported by character position.
     #[test]
     fn degenerate_curves_and_unicode() {
-        for d in ["M0 0 Q0 0 0 0", "M0 0 C0 0 0 0 0 0", "M0 0 A0 0 0 0 1 1 1", "M0 0 A1 1 0 0 1 0 0", "M1 1 T1 1 S1 1 1 1"] {
+        for d in
+            ["M0 0 Q0 0 0 0", "M0 0 C0 0 0 0 0 0", "M0 0 A0 0 0 0 1 1 1", "M0 0 A1 1 0 0 1 0 0", "M1 1 T1 1 S1 1 1 1"]
+        {
             let subs = parse_svg_path(d).unwrap();
             let p = subs[0].flatten(1e-3);
             assert!(p.len() < 10 && p.iter().all(|q| q.x.is_finite() && q.y.is_finite()), "{d}: {p:?}");

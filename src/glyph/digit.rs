@@ -22,7 +22,7 @@
 //! without gaps.
 
 use super::font::{DotShape, SegmentDef, SkeletonDef};
-use crate::geom::{pt, Polygon, Pt};
+use crate::geom::{Polygon, Pt, pt};
 use geo::LineString;
 use std::f64::consts::TAU;
 
@@ -350,9 +350,28 @@ mod tests {
             let segs = build_segments(skel, &cell(8.0), gap).unwrap();
             let idx = |n: &str| segs.iter().position(|s| s.0 == n).unwrap();
             let pairs: &[(&str, &str)] = if style == DigitStyle::Fourteen {
-                &[("a", "h"), ("h", "f"), ("a", "i"), ("i", "h"), ("i", "j"), ("g1", "h"), ("g2", "k"), ("l", "d"), ("b", "c")]
+                &[
+                    ("a", "h"),
+                    ("h", "f"),
+                    ("a", "i"),
+                    ("i", "h"),
+                    ("i", "j"),
+                    ("g1", "h"),
+                    ("g2", "k"),
+                    ("l", "d"),
+                    ("b", "c"),
+                ]
             } else {
-                &[("a1", "a2"), ("a1", "i"), ("a2", "i"), ("h", "i"), ("d1", "l"), ("d1", "d2"), ("m", "g1"), ("a1", "h")]
+                &[
+                    ("a1", "a2"),
+                    ("a1", "i"),
+                    ("a2", "i"),
+                    ("h", "i"),
+                    ("d1", "l"),
+                    ("d1", "d2"),
+                    ("m", "g1"),
+                    ("a1", "h"),
+                ]
             };
             for (a, b) in pairs {
                 let d = distance(&segs[idx(a)].1, &segs[idx(b)].1);

@@ -6,8 +6,8 @@
 //! cap height of 1, icons to a box of 1, skeletons stay in their unit cell.
 
 use crate::error::InputProblem;
-use crate::geom::path::{parse_svg_path, SubPath, PATH_COMMANDS};
-use crate::geom::{pt, Pt};
+use crate::geom::path::{PATH_COMMANDS, SubPath, parse_svg_path};
+use crate::geom::{Pt, pt};
 use crate::layout::DigitStyle;
 use std::path::{Path, PathBuf};
 
@@ -251,14 +251,14 @@ impl Reader<'_> {
             "glyph" => self.begin_glyph(rest),
             "icon" => self.begin_icon(rest),
             "style" => self.begin_style(rest),
-            _ => match &self.block {
-                Block::Glyph(..) | Block::Icon(..) => self.mark(word, rest),
-                Block::Style(..) => self.style_line(word, rest),
-                Block::None => Err(self.problem(
-                    format!("`{word}` outside a definition"),
-                    Some("strokes, cap, glyph, icon, style"),
-                )),
-            },
+            _ => {
+                match &self.block {
+                    Block::Glyph(..) | Block::Icon(..) => self.mark(word, rest),
+                    Block::Style(..) => self.style_line(word, rest),
+                    Block::None => Err(self
+                        .problem(format!("`{word}` outside a definition"), Some("strokes, cap, glyph, icon, style"))),
+                }
+            }
         }
     }
 
@@ -282,11 +282,7 @@ impl Reader<'_> {
     }
 
     fn positive(&self, v: f64, what: &str) -> R<f64> {
-        if v > 0.0 {
-            Ok(v)
-        } else {
-            Err(self.problem(format!("{what} must be greater than 0, found {v}"), None))
-        }
+        if v > 0.0 { Ok(v) } else { Err(self.problem(format!("{what} must be greater than 0, found {v}"), None)) }
     }
 
     fn finish_block(&mut self) -> R<()> {
@@ -597,7 +593,8 @@ mod tests {
         assert!(e.message.contains("twice") && e.line == Some(4), "{e}");
         let e = parse("strokes 1\nicon x 10\npath M 0 0 Q 1\n").unwrap_err();
         assert!(e.message.contains("character") && e.line == Some(3));
-        let e = parse("strokes 1\nstyle seven\nsegment a 0 1 1 1\ndp square 1 1\ncolon square 1 0.3 0.7\n").unwrap_err();
+        let e =
+            parse("strokes 1\nstyle seven\nsegment a 0 1 1 1\ndp square 1 1\ncolon square 1 0.3 0.7\n").unwrap_err();
         assert!(e.message.contains("exactly") && e.line == Some(2), "{e}");
         let e = parse("strokes 1\nstyle eleven\n").unwrap_err();
         assert!(e.allowed.unwrap().contains("fourteen"));

@@ -5,7 +5,7 @@
 //! Takes `Layout.extra_fonts`; gives a [`Fonts`] to look glyphs, icons and skeletons up
 //! in, or the parse problems of the added files (file and line).
 
-use super::font::{parse_font, GlyphDef, IconDef, SkeletonDef};
+use super::font::{GlyphDef, IconDef, SkeletonDef, parse_font};
 use crate::layout::{DigitStyle, FontSource};
 use std::collections::BTreeMap;
 use std::path::Path;
@@ -159,9 +159,25 @@ mod tests {
         assert_eq!(f.glyph('μ'), f.glyph('µ'));
     }
 
+    /// A layout file may restyle a digit: here a seven-segment skeleton with round dots.
+    #[test]
+    fn extra_file_replaces_a_style() {
+        let text = "strokes 1\nstyle seven\n segment a 0 1 1 1\n segment b 1 1 1 0.5\n segment c 1 0.5 1 0\n\
+                    segment d 1 0 0 0\n segment e 0 0 0 0.5\n segment f 0 0.5 0 1\n segment g 0 0.5 1 0.5\n\
+                    dp round 1.5 0.5\n colon round 1.5 0.25 0.75\n";
+        let f = Fonts::with_extra(&[FontSource { path: PathBuf::from("round.strokes"), text: text.into() }]).unwrap();
+        let dp = f.style(DigitStyle::Seven).dp;
+        assert_eq!((dp.shape, dp.size), (crate::glyph::font::DotShape::Round, 1.5));
+        assert_eq!(f.style(DigitStyle::Seven).origin.file, PathBuf::from("round.strokes"));
+        assert_eq!(Fonts::builtin().unwrap().style(DigitStyle::Seven).dp.size, 1.25);
+    }
+
     #[test]
     fn extra_file_errors_name_file_and_line() {
-        let bad = FontSource { path: PathBuf::from("bad.strokes"), text: "strokes 1\ncap 10\nglyph B 5\n line 0 0 x 1\n".into() };
+        let bad = FontSource {
+            path: PathBuf::from("bad.strokes"),
+            text: "strokes 1\ncap 10\nglyph B 5\n line 0 0 x 1\n".into(),
+        };
         let crate::Error::Input(p) = Fonts::with_extra(&[bad]).unwrap_err() else { panic!() };
         assert_eq!(p[0].file, PathBuf::from("bad.strokes"));
         assert_eq!(p[0].line, Some(4));

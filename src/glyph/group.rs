@@ -4,13 +4,13 @@
 //! (segments in the style's order, then `dp`, then `col`), or the input problems found
 //! (a cell too small for its stroke, dots that do not fit between the digits).
 
-use super::digit::{build_segments, colon, decimal_point, Cell};
+use super::digit::{Cell, build_segments, colon, decimal_point};
 use super::fonts::Fonts;
 use super::outline::finish;
 use super::{Element, ElementKind};
+use crate::geom::{Polygon, distance, region_of};
+use crate::layout::{COLON, DECIMAL_POINT, DigitGroup, Layout, segment_net};
 use crate::{Error, Result};
-use crate::geom::{distance, region_of, Polygon};
-use crate::layout::{segment_net, DigitGroup, Layout, COLON, DECIMAL_POINT};
 
 /// The half-digit segments (a leading "1").
 pub const HALF_DIGIT_SEGMENTS: [&str; 2] = ["b", "c"];
@@ -18,15 +18,31 @@ pub const HALF_DIGIT_SEGMENTS: [&str; 2] = ["b", "c"];
 /// Builds every element of one group.
 pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec<Element>> {
     let skel = fonts.style(g.style);
-    let bad = |field: &str, msg: String, allowed: Option<String>| Error::input(layout.problem(&format!("{}.{field}", g.key), msg, allowed));
+    let bad = |field: &str, msg: String, allowed: Option<String>| {
+        Error::input(layout.problem(&format!("{}.{field}", g.key), msg, allowed))
+    };
     if !(g.stroke > 0.0 && 2.0 * g.stroke < g.width.min(g.height)) {
-        return Err(bad("stroke", format!("stroke {} mm is too wide for a {} × {} mm digit", g.stroke, g.width, g.height), Some(format!("more than 0 and less than {} mm", g.width.min(g.height) / 2.0))));
+        return Err(bad(
+            "stroke",
+            format!("stroke {} mm is too wide for a {} × {} mm digit", g.stroke, g.width, g.height),
+            Some(format!("more than 0 and less than {} mm", g.width.min(g.height) / 2.0)),
+        ));
     }
     if !(g.gap >= 0.0 && g.gap < g.stroke) {
-        return Err(bad("gap", format!("gap {} mm", g.gap), Some(format!("0 to less than the stroke, {} mm", g.stroke))));
+        return Err(bad(
+            "gap",
+            format!("gap {} mm", g.gap),
+            Some(format!("0 to less than the stroke, {} mm", g.stroke)),
+        ));
     }
     if g.slant.abs() >= 45.0 {
         return Err(bad("slant", format!("slant {}°", g.slant), Some("between -45° and 45°".into())));
+    }
+    for (field, list) in [("decimal_points", &g.decimal_points), ("colons", &g.colons), ("half_digits", &g.half_digits)]
+    {
+        if let Some(n) = list.iter().find(|n| **n < 1 || **n > g.count) {
+            return Err(bad(field, format!("there is no digit {n}"), Some(format!("digit numbers 1 to {}", g.count))));
+        }
     }
     let tol = layout.tolerance;
     let cell_of = |i: u32| Cell {
@@ -54,24 +70,44 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
             out.push(element(g, i, name, vec![outline.clone()], Some(vec![body.clone()]), drives)?);
         }
         // Dots must keep the gap from this digit, the next one and each other.
-        let mut near: Vec<Polygon> = outlines.iter().map(|s| s.1.clone()).collect();
-        if i < g.count && let Ok(next) = segs_of(i + 1, g.gap) {
-            near.extend(next.into_iter().map(|s| s.1));
+        let (has_dp, has_colon) = (g.decimal_points.contains(&i), g.colons.contains(&i));
+        let mut near: Vec<Polygon> = Vec::new();
+        if has_dp || has_colon {
+            near.extend(outlines.iter().map(|s| s.1.clone()));
+            if i < g.count
+                && let Ok(next) = segs_of(i + 1, g.gap)
+            {
+                near.extend(next.into_iter().map(|s| s.1));
+            }
         }
         let mut dots: Vec<Polygon> = Vec::new();
-        if g.decimal_points.contains(&i) {
+        if has_dp {
             let dp = decimal_point(skel, &cell, tol);
             if let Some(d) = too_close(&dp, &near, g.gap) {
-                problems.push(layout.problem(&format!("{}.decimal_points", g.key), format!("the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {} mm", g.gap), Some("a larger pitch, or a thinner stroke".into())));
+                problems.push(layout.problem(
+                    &format!("{}.decimal_points", g.key),
+                    format!(
+                        "the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {} mm",
+                        g.gap
+                    ),
+                    Some("a larger pitch, or a thinner stroke".into()),
+                ));
             }
             dots.push(dp.clone());
             out.push(element(g, i, DECIMAL_POINT, vec![dp], None, format!("digit {i} decimal point"))?);
         }
-        if g.colons.contains(&i) {
+        if has_colon {
             let pieces = colon(skel, &cell, g.pitch, tol);
             let clash = pieces.iter().filter_map(|p| too_close(p, &near, g.gap).or(too_close(p, &dots, g.gap))).next();
             if let Some(d) = clash {
-                problems.push(layout.problem(&format!("{}.colons", g.key), format!("the colon after digit {i} comes within {d:.4} mm of a segment or dot; the gap is {} mm", g.gap), Some("a larger pitch, or a thinner stroke".into())));
+                problems.push(layout.problem(
+                    &format!("{}.colons", g.key),
+                    format!(
+                        "the colon after digit {i} comes within {d:.4} mm of a segment or dot; the gap is {} mm",
+                        g.gap
+                    ),
+                    Some("a larger pitch, or a thinner stroke".into()),
+                ));
             }
             out.push(element(g, i, COLON, pieces.to_vec(), None, format!("colon after digit {i}"))?);
         }
@@ -84,7 +120,14 @@ fn too_close(p: &Polygon, others: &[Polygon], gap: f64) -> Option<f64> {
     (d < gap - 1e-9).then_some(d)
 }
 
-fn element(g: &DigitGroup, i: u32, name: &str, outline: Vec<Polygon>, body: Option<Vec<Polygon>>, drives: String) -> Result<Element> {
+fn element(
+    g: &DigitGroup,
+    i: u32,
+    name: &str,
+    outline: Vec<Polygon>,
+    body: Option<Vec<Polygon>>,
+    drives: String,
+) -> Result<Element> {
     let net = segment_net(&g.name, i, name);
     let bug = |e: String| Error::Bug(format!("{net}: {e}"));
     let outline = finish(&region_of(outline)).map_err(bug)?;

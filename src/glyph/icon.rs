@@ -6,9 +6,9 @@
 //! centre lines span `size − stroke`, half a stroke in from the box edges.
 
 use super::fonts::Fonts;
-use super::ink::{ink, Pen};
-use crate::geom::path::{parse_svg_path, PATH_COMMANDS};
-use crate::geom::{circle, fill_even_odd, pt, region_of, ring, rounded_rect, Polygon, Pt, Region};
+use super::ink::{Pen, ink};
+use crate::geom::path::{PATH_COMMANDS, parse_svg_path};
+use crate::geom::{Polygon, Pt, Region, circle, fill_even_odd, pt, region_of, ring, rounded_rect};
 use crate::layout::IconShape;
 use geo::{LineString, Validation};
 
@@ -48,18 +48,35 @@ pub fn build_icon(fonts: &Fonts, shape: &IconShape, tol: f64) -> Result<Region, 
                 return Err(problem("icon", format!("there is no icon `{icon}`"), Some(fonts.icon_names().join(", "))));
             };
             if !(*stroke > 0.0 && stroke < size) {
-                return Err(problem("stroke", format!("stroke {stroke} mm must be above 0 and below the size {size} mm"), None));
+                return Err(problem(
+                    "stroke",
+                    format!("stroke {stroke} mm must be above 0 and below the size {size} mm"),
+                    None,
+                ));
             }
-            let pen = Pen { scale: size - stroke, origin: pt(at.x + stroke / 2.0, at.y + stroke / 2.0), stroke: *stroke, tol };
+            let pen = Pen {
+                scale: size - stroke,
+                origin: pt(at.x + stroke / 2.0, at.y + stroke / 2.0),
+                stroke: *stroke,
+                tol,
+            };
             Ok(ink(&def.marks, &pen))
         }
         IconShape::Rectangle { at, width, height, corner } => {
             if !(*width > 0.0 && *height > 0.0) {
-                return Err(problem("width", format!("a {width} × {height} mm rectangle"), Some("width and height above 0".into())));
+                return Err(problem(
+                    "width",
+                    format!("a {width} × {height} mm rectangle"),
+                    Some("width and height above 0".into()),
+                ));
             }
             let limit = width.min(*height) / 2.0;
             if *corner < 0.0 || *corner > limit + 1e-12 {
-                return Err(problem("corner", format!("corner radius {corner} mm does not fit"), Some(format!("0 to {limit} mm (half the shorter side)"))));
+                return Err(problem(
+                    "corner",
+                    format!("corner radius {corner} mm does not fit"),
+                    Some(format!("0 to {limit} mm (half the shorter side)")),
+                ));
             }
             Ok(region_of([rounded_rect(at.x, at.y, at.x + width, at.y + height, *corner, tol)]))
         }
@@ -70,8 +87,12 @@ pub fn build_icon(fonts: &Fonts, shape: &IconShape, tol: f64) -> Result<Region, 
             Ok(region_of([circle(*centre, *radius, tol)]))
         }
         IconShape::Ring { centre, outer, inner } => {
-            if !(*inner > 0.0 && inner < outer) || !outer.is_finite() {
-                return Err(problem("inner", format!("inner radius {inner} mm must be above 0 and below the outer radius {outer} mm"), None));
+            if !(*inner > 0.0 && inner < outer && outer.is_finite()) {
+                return Err(problem(
+                    "inner",
+                    format!("inner radius {inner} mm must be above 0 and below the outer radius {outer} mm"),
+                    None,
+                ));
             }
             Ok(region_of([ring(*centre, *outer, *inner, tol)]))
         }
@@ -92,7 +113,11 @@ fn polygon(points: &[Pt]) -> Result<Region, IconProblem> {
     v.push(v[0]);
     let p = Polygon::new(LineString::from(v), vec![]);
     if let Err(e) = p.check_validation() {
-        return Err(problem("points", format!("the polygon is not simple: {e}"), Some("a closed outline that does not cross or touch itself".into())));
+        return Err(problem(
+            "points",
+            format!("the polygon is not simple: {e}"),
+            Some("a closed outline that does not cross or touch itself".into()),
+        ));
     }
     Ok(region_of([p]))
 }
@@ -101,7 +126,11 @@ fn path(d: &str, at: Pt, tol: f64) -> Result<Region, IconProblem> {
     let subs = parse_svg_path(d).map_err(|e| problem("d", e.to_string(), Some(PATH_COMMANDS.into())))?;
     let rings: Vec<Vec<Pt>> = subs.iter().map(|s| s.mapped(1.0, at.x, at.y).flatten(tol)).collect();
     if let Some(i) = rings.iter().position(|r| r.len() < 3) {
-        return Err(problem("d", format!("sub-path {} encloses no area", i + 1), Some("closed outlines (a fill ignores lines)".into())));
+        return Err(problem(
+            "d",
+            format!("sub-path {} encloses no area", i + 1),
+            Some("closed outlines (a fill ignores lines)".into()),
+        ));
     }
     let r = fill_even_odd(&rings);
     if r.0.is_empty() {
@@ -154,11 +183,17 @@ mod tests {
     #[test]
     fn ring_and_rectangle() {
         let tol = 1e-4;
-        let a = area(&build_icon(fonts(), &IconShape::Ring { centre: pt(0.0, 0.0), outer: 2.0, inner: 1.0 }, tol).unwrap());
+        let a =
+            area(&build_icon(fonts(), &IconShape::Ring { centre: pt(0.0, 0.0), outer: 2.0, inner: 1.0 }, tol).unwrap());
         assert!((a - 3.0 * PI).abs() < 2.0 * PI * 3.0 * tol, "{a}");
-        let a = area(&build_icon(fonts(), &IconShape::Rectangle { at: pt(0.0, 0.0), width: 4.0, height: 2.0, corner: 0.5 }, tol).unwrap());
+        let a = area(
+            &build_icon(fonts(), &IconShape::Rectangle { at: pt(0.0, 0.0), width: 4.0, height: 2.0, corner: 0.5 }, tol)
+                .unwrap(),
+        );
         assert!((a - (8.0 - (4.0 - PI) * 0.25)).abs() < 1e-3, "{a}");
-        let e = build_icon(fonts(), &IconShape::Rectangle { at: pt(0.0, 0.0), width: 4.0, height: 2.0, corner: 1.5 }, tol).unwrap_err();
+        let e =
+            build_icon(fonts(), &IconShape::Rectangle { at: pt(0.0, 0.0), width: 4.0, height: 2.0, corner: 1.5 }, tol)
+                .unwrap_err();
         assert_eq!(e.field, "corner");
     }
 
@@ -167,7 +202,8 @@ mod tests {
     #[test]
     fn path_half_disc() {
         let tol = 1e-3;
-        let r = build_icon(fonts(), &IconShape::Path { d: "M 0 0 A 1 1 0 0 1 2 0 Z".into(), at: pt(5.0, 5.0) }, tol).unwrap();
+        let r = build_icon(fonts(), &IconShape::Path { d: "M 0 0 A 1 1 0 0 1 2 0 Z".into(), at: pt(5.0, 5.0) }, tol)
+            .unwrap();
         let a = area(&r);
         assert!((a - PI / 2.0).abs() <= 2.0 * tol * PI, "{a}");
         let bb = r.bounding_rect().unwrap();
@@ -176,7 +212,8 @@ mod tests {
 
     #[test]
     fn path_even_odd_subpaths() {
-        let r = build_icon(fonts(), &IconShape::Path { d: "M0 0H4V4H0Z M1 1H3V3H1Z".into(), at: pt(0.0, 0.0) }, 1e-3).unwrap();
+        let r = build_icon(fonts(), &IconShape::Path { d: "M0 0H4V4H0Z M1 1H3V3H1Z".into(), at: pt(0.0, 0.0) }, 1e-3)
+            .unwrap();
         assert!((area(&r) - 12.0).abs() < 1e-9);
         assert_eq!(r.0.len(), 1);
         assert_eq!(r.0[0].interiors().len(), 1);
@@ -184,8 +221,12 @@ mod tests {
 
     #[test]
     fn bad_icons_say_what_is_allowed() {
-        let e = build_icon(fonts(), &IconShape::Named { icon: "kettle".into(), at: pt(0.0, 0.0), size: 5.0, stroke: 0.3 }, 1e-3)
-            .unwrap_err();
+        let e = build_icon(
+            fonts(),
+            &IconShape::Named { icon: "kettle".into(), at: pt(0.0, 0.0), size: 5.0, stroke: 0.3 },
+            1e-3,
+        )
+        .unwrap_err();
         assert_eq!(e.field, "icon");
         assert!(e.allowed.unwrap().contains("battery"));
         let bow_tie = vec![pt(0.0, 0.0), pt(1.0, 1.0), pt(1.0, 0.0), pt(0.0, 1.0)];

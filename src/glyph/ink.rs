@@ -9,8 +9,8 @@
 
 use super::font::{Mark, Prim};
 use crate::geom::{
-    arc_points, circle, difference, fill_even_odd, offset_round, pt, region_of, ring, rounded_rect, snap,
-    stroke_polyline, union_all, Polygon, Pt, Region,
+    Polygon, Pt, Region, arc_points, circle, difference, fill_even_odd, offset_round, pt, region_of, ring,
+    rounded_rect, snap, stroke_polyline, union_all,
 };
 use geo::LineString;
 

@@ -12,8 +12,8 @@
 //! capitals).
 
 use super::fonts::Fonts;
-use super::ink::{ink, Pen};
-use crate::geom::{pt, translate, union_all, Pt, Region};
+use super::ink::{Pen, ink};
+use crate::geom::{Pt, Region, pt, translate, union_all};
 use crate::layout::Align;
 use geo::BoundingRect;
 
@@ -102,7 +102,10 @@ mod tests {
         let y0 = 5.0 + w / 2.0;
         let circles = [(2.5, 7.6, 2.4), (2.5, 2.6, 2.6)].map(|(x, y, r)| (pt(x0 + x * k, y0 + y * k), r * k));
         let dist = |p: Pt| {
-            circles.iter().map(|(c, r)| (((p.x - c.x).powi(2) + (p.y - c.y).powi(2)).sqrt() - r).abs()).fold(f64::MAX, f64::min)
+            circles
+                .iter()
+                .map(|(c, r)| (((p.x - c.x).powi(2) + (p.y - c.y).powi(2)).sqrt() - r).abs())
+                .fold(f64::MAX, f64::min)
         };
         let s = sampled_area(dist, w, (bb.min(), bb.max()), 0.005);
         assert!((a - s).abs() / s < 0.005, "{a} vs sampled {s}");

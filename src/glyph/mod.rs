@@ -104,7 +104,11 @@ fn build_legend(layout: &Layout, fonts: &Fonts, l: &crate::layout::Legend) -> Re
     }
     let region = set_text(fonts, &l.text, l.at, l.height, l.stroke, l.align, layout.tolerance).map_err(|missing| {
         let list: Vec<String> = missing.iter().map(|c| font::char_label(*c)).collect();
-        let msg = format!("the legend font has no {} {}", if list.len() == 1 { "character" } else { "characters" }, list.join(", "));
+        let msg = format!(
+            "the legend font has no {} {}",
+            if list.len() == 1 { "character" } else { "characters" },
+            list.join(", ")
+        );
         Error::input(layout.problem(&key("text"), msg, Some(fonts.glyph_list())))
     })?;
     if region.0.is_empty() {

@@ -1,7 +1,7 @@
 //! Final clean-up every element outline goes through: snapped to the 1 nm grid, repeated
 //! points removed, exteriors counter-clockwise and holes clockwise, validity checked.
 
-use crate::geom::{area, orient_ccw, snap, union_all, Polygon, Region};
+use crate::geom::{Polygon, Region, area, orient_ccw, snap, union_all};
 use geo::{RemoveRepeatedPoints, Validation};
 
 /// Cleans a region; an error (a bug, not the user's fault) names what is invalid.

@@ -81,7 +81,14 @@ fn truth_table_matches_geometry() {
         ((c.x() - ox - y * tan) / w, y / h)
     };
     let set = |pred: &dyn Fn(f64, f64) -> bool| -> Vec<&str> {
-        let mut v: Vec<&str> = e.iter().filter(|x| { let (u, v) = pos(x); pred(u, v) }).map(|x| &x.name[3..]).collect();
+        let mut v: Vec<&str> = e
+            .iter()
+            .filter(|x| {
+                let (u, v) = pos(x);
+                pred(u, v)
+            })
+            .map(|x| &x.name[3..])
+            .collect();
         v.sort();
         v
     };
@@ -165,7 +172,15 @@ fn dots_keep_the_gap_or_the_pitch_is_reported() {
 }
 
 fn legend(text: &str) -> Legend {
-    Legend { name: "UNIT".into(), text: text.into(), at: pt(30.0, 5.0), height: 3.0, stroke: 0.3, align: Align::Centre, key: "legends[0]".into() }
+    Legend {
+        name: "UNIT".into(),
+        text: text.into(),
+        at: pt(30.0, 5.0),
+        height: 3.0,
+        stroke: 0.3,
+        align: Align::Centre,
+        key: "legends[0]".into(),
+    }
 }
 
 #[test]
@@ -236,7 +251,10 @@ fn unknown_icon_lists_the_names() {
 #[test]
 fn layout_fonts_add_icons_and_report_their_lines() {
     let mut l = empty_layout();
-    l.extra_fonts.push(FontSource { path: "mine.strokes".into(), text: "strokes 1\nicon flag 10\n  line 0 0 0 10 8 8 0 6\n".into() });
+    l.extra_fonts.push(FontSource {
+        path: "mine.strokes".into(),
+        text: "strokes 1\nicon flag 10\n  line 0 0 0 10 8 8 0 6\n".into(),
+    });
     let shape = IconShape::Named { icon: "flag".into(), at: pt(5.0, 30.0), size: 6.0, stroke: 0.3 };
     l.icons.push(Icon { name: "F".into(), shape, key: "icons[0]".into() });
     assert_eq!(elements(&l)[0].drives, "icon flag");
@@ -254,8 +272,12 @@ fn bad_stroke_is_an_input_problem() {
     l.digits.push(g);
     let p = problems(&l);
     assert_eq!(p[0].key, "digits[0].stroke");
+    l.digits[0].stroke = 1.0;
+    l.digits[0].decimal_points = vec![2];
+    let p = problems(&l);
+    assert_eq!(p[0].key, "digits[0].decimal_points");
+    assert!(p[0].message.contains("no digit 2"));
 }
-
 
 /// The brief's gap check on the finished (snapped) outlines of whole digits: neighbours
 /// exactly `gap` apart, no pair closer. Snapping moves each vertex by at most √2/2 nm, so
