@@ -53,6 +53,8 @@ pub enum Rule {
     Unroutable,
     /// A designed pixel that does not light fully, or lights with the wrong common.
     DriveTruth,
+    /// A pixel its common electrode does not cover fully (trimmed where two commons meet).
+    Coverage,
 }
 
 impl Rule {
@@ -70,6 +72,7 @@ impl Rule {
             Rule::EdgeClearance => "edge-clearance",
             Rule::Unroutable => "unroutable",
             Rule::DriveTruth => "drive-truth",
+            Rule::Coverage => "coverage",
         }
     }
 }

@@ -34,6 +34,8 @@ pub struct Layout {
     pub pads: Pads,
     /// Drive scheme.
     pub drive: Drive,
+    /// COM and SEG choices fixed by hand (`drive.fixed`), by element name.
+    pub fixed_lines: BTreeMap<String, FixedLine>,
     /// Alignment marks.
     pub marks: Marks,
     /// Digit groups.
@@ -260,6 +262,15 @@ pub struct Drive {
     pub commons: u32,
     /// Bias divisor `a` (bias 1/a); `None` for static.
     pub bias: Option<u32>,
+}
+
+/// A COM electrode and SEG line fixed by hand for one element (1-based, as written).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct FixedLine {
+    /// COM electrode number, 1 … N.
+    pub com: Option<u32>,
+    /// SEG line number, from 1.
+    pub seg: Option<u32>,
 }
 
 /// Alignment marks.
@@ -507,6 +518,11 @@ pub const COLON: &str = "col";
 /// Net name of a segment: group name, 1-based digit number, dot, segment name (`D3.g`).
 pub fn segment_net(group: &str, digit: u32, segment: &str) -> String {
     format!("{group}{digit}.{segment}")
+}
+
+/// Net name of multiplexed SEG line `index` (0-based): `SEG1`, `SEG2`, …
+pub fn line_net(index: u32) -> String {
+    format!("SEG{}", index + 1)
 }
 
 /// Net name of common electrode `index` (0-based): `COM1`, `COM2`, …

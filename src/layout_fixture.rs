@@ -38,6 +38,7 @@ pub fn tiny_layout() -> Layout {
             fixed: BTreeMap::new(),
         },
         drive: Drive { commons: 1, bias: None },
+        fixed_lines: BTreeMap::new(),
         marks: Marks { size: 1.0, line: 0.15 },
         digits: vec![],
         legends: vec![],

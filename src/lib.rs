@@ -13,6 +13,7 @@
 //! contracts; `geom` wraps the geometry crates; each stage only uses earlier ones.
 
 pub mod artwork;
+pub mod assign;
 pub mod check;
 pub mod drive;
 pub mod electrode;

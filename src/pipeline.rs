@@ -40,7 +40,9 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     };
     let elements = crate::glyph::build_elements(&layout)?;
     lap("glyph", &mut t);
-    let electrodes = crate::electrode::build_electrodes(&layout, &elements)?;
+    let assignment = crate::assign::assign(&layout, &elements)?;
+    lap("assign", &mut t);
+    let electrodes = crate::electrode::build_electrodes(&layout, &elements, &assignment)?;
     lap("electrode", &mut t);
     let routes = crate::route::route_leads(&layout, &electrodes)?;
     lap("route", &mut t);

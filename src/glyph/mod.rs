@@ -18,7 +18,7 @@ pub mod patterns;
 #[cfg(test)]
 mod preview;
 #[cfg(test)]
-mod testkit;
+pub(crate) mod testkit;
 #[cfg(test)]
 mod tests;
 

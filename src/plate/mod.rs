@@ -73,7 +73,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         resist: layout.resist,
         layers: layout.layers.clone(),
         film_shapes: film_shapes(layout, &shapes_for_film),
-        generation_findings: routes.findings.clone(),
+        generation_findings: el.findings.iter().chain(&routes.findings).cloned().collect(),
     })
 }
 
@@ -129,11 +129,10 @@ fn nets(el: &Electrodes) -> Vec<Net> {
 fn pixels(el: &Electrodes) -> Vec<Pixel> {
     el.elements
         .iter()
-        .map(|e| Pixel {
-            element: e.name.clone(),
-            seg_net: e.name.clone(),
-            com_net: el.coms[0].net.clone(),
-            region: e.outline.clone(),
+        .enumerate()
+        .map(|(i, e)| {
+            let (seg, com) = el.nets_of(i);
+            Pixel { element: e.name.clone(), seg_net: seg.to_string(), com_net: com.to_string(), region: e.outline.clone() }
         })
         .collect()
 }

@@ -1,140 +1,226 @@
-//! The back plate: cuts the common electrode clear of the front leads, then joins its
-//! islands and leads them to the transfer dot, never facing a front lead inside the window.
+//! The back plate: cuts every common electrode clear of the front leads, then joins each
+//! common's islands and leads them to its transfer dot.
 //!
-//! Under static drive every front electrode faces the one common, so back leads may run
-//! over front electrodes (that area switches with the electrode anyway); only front leads
-//! must be avoided: forbidden inside the window, costly in the rest of the liquid crystal,
-//! free under or outside the seal.
+//! A back lead faces front ITO of another net only where that cannot light: it is
+//! forbidden over front leads inside the window, costly over them in the rest of the
+//! liquid crystal and free under or outside the seal. A lead of one common keeps the gap
+//! from every other common's electrode and leads (facing another common's pixels would
+//! switch them with the wrong SEG line); the overlap margins give way to the passages
+//! the assignment keeps for back leads. Commons are routed one after another, islands
+//! nearest the dot first, with rip-up and a new order when one is stuck.
 
 use super::grid::Grid;
 use super::search::{corners, Search};
 use super::{Lead, TransferSite};
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
-use crate::geom::{difference, offset_round, region_of, stroke_polyline, union_all, Region};
+use crate::geom::{difference, offset_round, region_of, stroke_polyline, union_all, Polygon, Pt, Region};
 use crate::layout::{Layout, PlateId};
 
 /// Extra cost (per cell) of a back lead facing a front lead outside the window.
 const HIDDEN_CROSSING_COST: f32 = 40.0;
+/// How many orders of the commons are tried.
+const ATTEMPTS: usize = 4;
 
 /// What the back plate routing gives.
 #[derive(Debug, Clone)]
 pub struct BackRoutes {
-    /// Back-plate leads joining the common's islands and the transfer dot.
+    /// Back-plate leads joining each common's islands and its transfer dot.
     pub leads: Vec<Lead>,
-    /// The pieces of the common electrode that are kept (each faces an electrode).
-    pub kept: Vec<Region>,
-    /// The part of the grown common electrode removed around front leads.
-    pub cuts: Region,
+    /// The pieces of each common electrode that are kept (net, piece).
+    pub kept: Vec<(String, Region)>,
 }
 
-/// Cuts and routes the common electrode.
-pub fn route_common(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], findings: &mut Vec<Finding>) -> BackRoutes {
-    let rules = &layout.rules;
+/// One common's islands and its dot.
+struct Common {
+    net: String,
+    owner: u32,
+    islands: Vec<Region>,
+    dot: Option<Polygon>,
+}
+
+/// Cuts and routes every common electrode.
+pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], findings: &mut Vec<Finding>) -> BackRoutes {
     let tol = layout.tolerance;
     let electrodes = union_all(el.segs.iter().flat_map(|s| s.outline.0.iter().cloned()));
     let leads = union_all(front_leads.iter().flat_map(|l| l.outline.0.iter().cloned()));
     let bare = difference(&leads, &electrodes);
-    let cuts = difference(&offset_round(&bare, rules.min_gap, tol), &electrodes);
-    let com = &el.coms[0];
-    // Pieces that face no electrode (slivers of junction filling cut off by a lead) have
-    // no pixel to serve: they are dropped rather than joined.
-    let min_overlap = rules.min_width * rules.min_width;
-    // An opening (shrink, then grow back) removes the slivers too narrow to etch that
-    // the cuts leave beside segment corners.
-    let keep_width = rules.min_width + 2.0 * (rules.undercut - rules.film_bias());
-    let r = keep_width / 2.0 + 1e-4;
-    let cut_body = difference(&com.outline, &cuts);
-    // Flattened arcs of the grow-back may stray a chord's sagitta into a cut: cut again.
-    let opened = difference(&offset_round(&offset_round(&cut_body, -r, tol), r, tol), &cuts);
-    // The opening must not shave the pixels themselves: what faces an electrode stays.
-    let body = crate::geom::union(&opened, &crate::geom::intersection(&cut_body, &electrodes));
-    let mut islands: Vec<Region> = body
-        .0
-        .into_iter()
-        .map(|p| region_of([p]))
-        .filter(|isl| crate::geom::area(&crate::geom::intersection(isl, &electrodes)) > min_overlap)
+    let cuts = difference(&offset_round(&bare, layout.rules.min_gap, tol), &electrodes);
+    let passages = region_of(el.assignment.passages.iter().cloned());
+    let commons: Vec<Common> = el
+        .coms
+        .iter()
+        .enumerate()
+        .map(|(k, c)| {
+            let pixels = union_all(
+                el.elements.iter().zip(&el.assignment.com).filter(|(_, ck)| **ck == k as u32).flat_map(|(e, _)| e.outline.0.iter().cloned()),
+            );
+            let mut islands = islands_of(layout, &c.outline, &cuts, &pixels, &passages);
+            for b in layout.buses.iter().filter(|b| b.plate == PlateId::Back && b.net == c.net) {
+                islands.push(stroke_polyline(&b.points, b.width, tol));
+            }
+            let dot = transfers.iter().find(|t| t.net == c.net).map(|t| t.pad.clone());
+            Common { net: c.net.clone(), owner: k as u32 + 1, islands, dot }
+        })
         .collect();
-    for b in layout.buses.iter().filter(|b| b.plate == PlateId::Back && b.net == com.net) {
-        islands.push(stroke_polyline(&b.points, b.width, tol));
-    }
-    let mut out = Vec::new();
-    let Some(dot) = transfers.iter().find(|t| t.net == com.net) else {
-        return BackRoutes { leads: out, cuts, kept: islands };
-    };
-    let grid = back_grid(layout, &leads);
-    let mut search = Search::new(grid.nx * grid.ny);
-    let mut in_tree = vec![false; grid.owner.len()];
-    let mut tree = Vec::new();
-    grid.for_cells_in(&region_of([dot.pad.clone()]), |c| {
-        in_tree[c] = true;
-        tree.push(c);
-    });
-    // Islands nearest the dot join first, each by a search from its own cells to the
-    // tree grown so far: every search stops at the nearest part of the tree, so the work
-    // stays local instead of flooding the plate from the whole tree each time.
-    let mut order: Vec<usize> = (0..islands.len()).collect();
-    let centre = |k: usize| {
-        use geo::Centroid;
-        islands[k].centroid().map(|p| p.0).unwrap_or(dot.at)
-    };
-    let d2 = |p: crate::geom::Pt| (p.x - dot.at.x).powi(2) + (p.y - dot.at.y).powi(2);
-    order.sort_by(|&a, &b| d2(centre(a)).total_cmp(&d2(centre(b))));
-    for k in order {
-        let mut cells = Vec::new();
-        grid.for_cells_in(&islands[k], |c| cells.push(c));
-        if cells.iter().any(|&c| in_tree[c]) || cells.is_empty() {
-            for c in cells {
-                if !in_tree[c] {
-                    in_tree[c] = true;
-                    tree.push(c);
-                }
-            }
-            continue;
+    let base = back_grid(layout, &leads, &commons);
+    let mut order: Vec<usize> = (0..commons.len()).collect();
+    let mut best: Option<(Vec<Lead>, Vec<Finding>)> = None;
+    let mut search = Search::new(base.nx * base.ny);
+    for _ in 0..ATTEMPTS {
+        let (out, failed, notes) = attempt(layout, &commons, &order, base.clone(), &mut search);
+        let better = best.as_ref().is_none_or(|(_, f)| notes.len() < f.len());
+        if better {
+            best = Some((out, notes));
         }
-        let it = &in_tree;
-        match search.find(&grid, 1, &cells, |c| it[c], |_| 0.0) {
-            Ok(path) => {
-                let pts = corners(&grid, &path);
-                if pts.len() >= 2 {
-                    let outline = stroke_polyline(&pts, rules.lead_width, tol);
-                    out.push(Lead { net: com.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false });
-                }
-                for &c in path.iter().chain(cells.iter()) {
-                    if !in_tree[c] {
-                        in_tree[c] = true;
-                        tree.push(c);
-                    }
-                }
-            }
-            Err(_) => findings.push(Finding {
-                rule: Rule::Unroutable,
-                severity: Severity::Error,
-                plate: Some(PlateId::Back),
-                nets: vec![com.net.clone()],
-                location: centre(k),
-                measured: None,
-                required: None,
-                message: format!(
-                    "part {} of common electrode {} cannot reach its transfer dot without facing a front lead in the window",
-                    k + 1,
-                    com.net
-                ),
-            }),
+        if failed.is_empty() {
+            break;
         }
+        order.retain(|i| !failed.contains(i));
+        let mut next = failed;
+        next.extend(order);
+        order = next;
     }
-    BackRoutes { leads: out, cuts, kept: islands }
+    let (out, notes) = best.unwrap_or_default();
+    findings.extend(notes);
+    let kept = commons.iter().flat_map(|c| c.islands.iter().map(|r| (c.net.clone(), r.clone()))).collect();
+    BackRoutes { leads: out, kept }
 }
 
-fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
+/// The pieces of a grown common that remain after the cuts and face one of its pixels.
+fn islands_of(layout: &Layout, outline: &Region, cuts: &Region, pixels: &Region, passages: &Region) -> Vec<Region> {
+    let rules = &layout.rules;
+    let tol = layout.tolerance;
+    // An opening (shrink, then grow back) removes the slivers too narrow to etch that
+    // the cuts leave beside segment corners; what faces a pixel always stays.
+    let keep_width = rules.min_width + 2.0 * (rules.undercut - rules.film_bias());
+    let r = keep_width / 2.0 + 1e-4;
+    // Margins give way to the passages kept for back leads.
+    let cut_body = difference(&difference(outline, cuts), &difference(passages, pixels));
+    let opened = difference(&offset_round(&offset_round(&cut_body, -r, tol), r, tol), cuts);
+    let body = crate::geom::union(&opened, &crate::geom::intersection(&cut_body, pixels));
+    let min_overlap = rules.min_width * rules.min_width;
+    body.0
+        .into_iter()
+        .map(|p| region_of([p]))
+        .filter(|isl| crate::geom::area(&crate::geom::intersection(isl, pixels)) > min_overlap)
+        .collect()
+}
+
+type AttemptResult = (Vec<Lead>, Vec<usize>, Vec<Finding>);
+
+fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
+    let mut out = Vec::new();
+    let mut failed = Vec::new();
+    let mut notes = Vec::new();
+    for &k in order {
+        let c = &commons[k];
+        let Some(dot) = &c.dot else { continue };
+        let mut tree = Tree::new(grid.owner.len());
+        grid.for_cells_in(&region_of([dot.clone()]), |i| tree.add(i));
+        let mut ok = true;
+        for isl in nearest_first(&c.islands, dot) {
+            match join(layout, &mut grid, search, c, &mut tree, isl) {
+                Ok(Some(lead)) => out.push(lead),
+                Ok(None) => {}
+                Err(at) => {
+                    ok = false;
+                    notes.push(stuck(c, at));
+                }
+            }
+        }
+        if !ok {
+            failed.push(k);
+        }
+    }
+    (out, failed, notes)
+}
+
+/// Cells joined to a common's dot so far.
+struct Tree {
+    member: Vec<bool>,
+}
+
+impl Tree {
+    fn new(cells: usize) -> Tree {
+        Tree { member: vec![false; cells] }
+    }
+    fn add(&mut self, c: usize) {
+        self.member[c] = true;
+    }
+}
+
+/// Joins one island to the tree; the lead drawn, if one was needed, or the place where
+/// the search stopped.
+fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, c: &Common, tree: &mut Tree, isl: &Region) -> Result<Option<Lead>, Pt> {
+    let mut cells = Vec::new();
+    grid.for_cells_in(isl, |i| {
+        if grid.owner[i] == c.owner || grid.owner[i] == super::grid::FREE {
+            cells.push(i)
+        }
+    });
+    if cells.is_empty() || cells.iter().any(|&i| tree.member[i]) {
+        for i in cells {
+            tree.add(i);
+        }
+        return Ok(None);
+    }
+    let t = &tree.member;
+    match search.find(grid, c.owner, &cells, |i| t[i], |_| 0.0) {
+        Ok(path) => {
+            let pts = corners(grid, &path);
+            for &i in path.iter().chain(cells.iter()) {
+                tree.add(i);
+            }
+            if pts.len() < 2 {
+                return Ok(None);
+            }
+            let tol = layout.tolerance;
+            let outline = stroke_polyline(&pts, layout.rules.lead_width, tol);
+            let h = grid.h;
+            let keep = offset_round(&outline, layout.rules.min_gap + layout.rules.lead_width / 2.0 + h, tol.max(h / 4.0));
+            grid.claim(&keep, c.owner);
+            Ok(Some(Lead { net: c.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false }))
+        }
+        Err(b) => Err(grid.centre(b.nearest)),
+    }
+}
+
+fn nearest_first<'a>(islands: &'a [Region], dot: &Polygon) -> Vec<&'a Region> {
+    use geo::Centroid;
+    let at = dot.centroid().map(|p| p.0).unwrap_or_default();
+    let d2 = |r: &Region| r.centroid().map(|p| (p.0.x - at.x).powi(2) + (p.0.y - at.y).powi(2)).unwrap_or(f64::MAX);
+    let mut v: Vec<&Region> = islands.iter().collect();
+    v.sort_by(|a, b| d2(a).total_cmp(&d2(b)));
+    v
+}
+
+fn stuck(c: &Common, at: Pt) -> Finding {
+    Finding {
+        rule: Rule::Unroutable,
+        severity: Severity::Error,
+        plate: Some(PlateId::Back),
+        nets: vec![c.net.clone()],
+        location: at,
+        measured: None,
+        required: None,
+        message: format!(
+            "a part of common electrode {} cannot reach its transfer dot without facing a front lead in the window or another common's pixels",
+            c.net
+        ),
+    }
+}
+
+fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid {
     let b = layout.glass.back;
     let h = super::grid_step(layout);
+    let tol = layout.tolerance.max(h / 4.0);
     let mut g = Grid::new(b.x, b.y, b.x1(), b.y1(), h);
     g.block_outside(&region_of([b.inset(layout.rules.lead_width / 2.0 + h).polygon()]));
     let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
     let w = layout.window;
     let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + h;
-    let keep = offset_round(front_leads, reach, layout.tolerance.max(h / 4.0));
+    let keep = offset_round(front_leads, reach, tol);
     let mut cells = Vec::new();
     g.for_cells_in(&keep, |c| cells.push(c));
     for c in cells {
@@ -147,6 +233,14 @@ fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
             g.cost[c] = f32::INFINITY;
         } else if inside(&lc) {
             g.cost[c] = g.cost[c].max(HIDDEN_CROSSING_COST);
+        }
+    }
+    if commons.len() > 1 {
+        // Each common's islands, and its dot, are its own: other commons keep the gap.
+        for c in commons {
+            let mut mine: Vec<Polygon> = c.islands.iter().flat_map(|r| r.0.iter().cloned()).collect();
+            mine.extend(c.dot.clone());
+            g.claim(&offset_round(&union_all(mine), reach, tol), c.owner);
         }
     }
     g

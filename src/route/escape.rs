@@ -14,9 +14,14 @@ use crate::layout::{Layout, PlateId};
 const ATTEMPTS: usize = 8;
 
 /// Extra cost per cell of running inside a digit, legend or icon body (with its counters
-/// filled). Leads that cross a body cut the common electrode behind them; enough such
-/// cuts cut a piece of it off, so leads should leave a body by the shortest way.
+/// filled), under static drive. Leads that cross a body cut the common electrode behind
+/// them; enough such cuts cut a piece of it off, so leads should leave a body by the
+/// shortest way.
 const BODY_COST: f32 = 10.0;
+/// The same when multiplexed: SEG lines join their segments through the counters and the
+/// gaps of their own digit, which is shorter and keeps the sides of the digit free for the
+/// commons, so running inside a body costs only a little.
+const BODY_COST_MULTIPLEXED: f32 = 0.5;
 
 /// The result of escape routing.
 #[derive(Debug, Clone, Default)]
@@ -39,7 +44,9 @@ pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings:
     let filled = crate::geom::region_of(
         el.coms.iter().flat_map(|c| c.outline.0.iter()).map(|p| Polygon::new(p.exterior().clone(), vec![])),
     );
-    base.add_cost(&filled, BODY_COST);
+    base.add_cost(&filled, if el.coms.len() > 1 { BODY_COST_MULTIPLEXED } else { BODY_COST });
+    // Passages the assignment keeps for back leads stay free of front leads.
+    base.block(&crate::geom::region_of(el.assignment.passages.iter().cloned()));
     let mut order: Vec<usize> = (0..nets.len()).collect();
     order.sort_by(|&a, &b| nearest_v(frame, &nets[a]).total_cmp(&nearest_v(frame, &nets[b])));
     let mut search = Search::new(base.nx * base.ny);

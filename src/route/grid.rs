@@ -111,6 +111,15 @@ impl Grid {
         }
     }
 
+    /// Blocks every cell inside `region`.
+    pub fn block(&mut self, region: &Region) {
+        let mut cells = Vec::new();
+        self.for_cells_in(region, |i| cells.push(i));
+        for i in cells {
+            self.owner[i] = BLOCKED;
+        }
+    }
+
     /// Blocks every cell outside `region`.
     pub fn block_outside(&mut self, region: &Region) {
         let mut inside = vec![false; self.owner.len()];

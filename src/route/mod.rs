@@ -14,6 +14,7 @@
 //!    the window.
 
 pub mod back;
+pub mod dots;
 pub mod escape;
 pub mod fanout;
 pub mod grid;
@@ -73,8 +74,6 @@ pub struct Routes {
     pub pads: Vec<PadSite>,
     /// Transfer dots.
     pub transfers: Vec<TransferSite>,
-    /// Back-plate cut-outs made so front leads do not face common ITO.
-    pub common_cuts: Region,
     /// The pieces of each common electrode that remain after the cuts (net, piece).
     pub common_pieces: Vec<(String, Region)>,
     /// Problems met while routing.
@@ -105,12 +104,9 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
         leads.push(front_lead(layout, net, path.clone()));
     }
     let front_leads: Vec<&Lead> = leads.iter().filter(|l| l.plate == PlateId::Front).collect();
-    let back = back::route_common(layout, el, &front_leads, &transfers, &mut findings);
-    let common_cuts = back.cuts.clone();
-    let com = el.coms[0].net.clone();
-    let common_pieces = back.kept.into_iter().map(|r| (com.clone(), r)).collect();
+    let back = back::route_commons(layout, el, &front_leads, &transfers, &mut findings);
     leads.extend(back.leads);
-    Ok(Routes { leads, pads, transfers, common_cuts, common_pieces, findings })
+    Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings })
 }
 
 fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
@@ -177,7 +173,6 @@ fn plan_pads_and_fanout(
     findings: &mut Vec<Finding>,
 ) -> Result<Planned> {
     let p = &layout.pads;
-    let com = el.coms[0].net.clone();
     let nets_needed = el.segs.len() + el.coms.len();
     let row = pad_row(layout, frame, nets_needed);
     let pitch = lead_pitch(layout);
@@ -191,22 +186,27 @@ fn plan_pads_and_fanout(
         })
         .collect();
     let tpad = layout.transfer.pad;
-    let dot = place_transfer_dot(layout, frame, &arrivals, &row, pitch, tpad).ok_or_else(|| {
+    let us: Vec<f64> = arrivals.iter().map(|a| a.2.u).chain(row.iter().map(|r| r.0)).collect();
+    let dots = dots::place_transfer_dots(layout, frame, &us, pitch, el.coms.len()).ok_or_else(|| {
         crate::Error::input(layout.problem(
             "pads",
-            "no room in the seal beside the pad row for the transfer dot of the common electrode",
+            format!("no room in the seal beside the pad row for the {} transfer dot(s) of the common electrodes", el.coms.len()),
             Some("a shorter pad row (`pads.start`, `pads.pitch`) or a wider back plate".into()),
         ))
     })?;
-    let dot_at = frame.to_global(dot);
-    let band = frame.rect_global(dot.x - tpad / 2.0, frame.v_lc - layout.seal.width, dot.x + tpad / 2.0, frame.v_lc);
-    let square = frame.rect_global(dot.x - tpad / 2.0, dot.y - tpad / 2.0, dot.x + tpad / 2.0, dot.y + tpad / 2.0);
-    let pad_poly = crate::geom::intersection(&crate::geom::region_of([square]), &crate::geom::region_of([band]))
-        .0
-        .into_iter()
-        .next()
-        .unwrap_or_else(|| frame.rect_global(dot.x - tpad / 2.0, dot.y - tpad / 2.0, dot.x + tpad / 2.0, dot.y + tpad / 2.0));
-    arrivals.push((com.clone(), vec![dot_at], fanout::Arrival { u: dot.x, v: dot.y }));
+    let mut transfers = Vec::new();
+    for (c, dot) in el.coms.iter().zip(dots) {
+        let dot_at = frame.to_global(dot);
+        let band = frame.rect_global(dot.x - tpad / 2.0, frame.v_lc - layout.seal.width, dot.x + tpad / 2.0, frame.v_lc);
+        let square = frame.rect_global(dot.x - tpad / 2.0, dot.y - tpad / 2.0, dot.x + tpad / 2.0, dot.y + tpad / 2.0);
+        let pad_poly = crate::geom::intersection(&crate::geom::region_of([square.clone()]), &crate::geom::region_of([band]))
+            .0
+            .into_iter()
+            .next()
+            .unwrap_or(square);
+        arrivals.push((c.net.clone(), vec![dot_at], fanout::Arrival { u: dot.x, v: dot.y }));
+        transfers.push(TransferSite { net: c.net.clone(), at: dot_at, pad: pad_poly });
+    }
     arrivals.sort_by(|a, b| a.2.u.total_cmp(&b.2.u));
 
     // Fixed pins first, the rest matched in order to the free pads.
@@ -262,34 +262,7 @@ fn plan_pads_and_fanout(
         .zip(&pad_idx)
         .map(|((net, _, _), &k)| PadSite { pin: p.first_pin + k as u32, net: net.clone(), outline: row[k].1.clone() })
         .collect();
-    let transfers = vec![TransferSite { net: com, at: dot_at, pad: pad_poly }];
     Ok((pads, transfers, fan))
-}
-
-/// Puts the transfer dot in the seal beside the pad row: left of every lead and pad if
-/// there is room, else right of them. Returns its local (u, v).
-fn place_transfer_dot(
-    layout: &Layout,
-    frame: &SideFrame,
-    arrivals: &[(String, Vec<Pt>, fanout::Arrival)],
-    row: &[(f64, Polygon)],
-    pitch: f64,
-    tpad: f64,
-) -> Option<Pt> {
-    let us = arrivals.iter().map(|a| a.2.u).chain(row.iter().map(|r| r.0));
-    let (lo, hi) = us.fold((f64::MAX, f64::MIN), |(a, b), u| (a.min(u), b.max(u)));
-    let clear = tpad / 2.0 + pitch + layout.pads.width / 2.0;
-    let min_u = frame.u_back.0 + layout.seal.inset + tpad / 2.0;
-    let max_u = frame.u_back.1 - layout.seal.inset - tpad / 2.0;
-    let left = lo - clear;
-    let right = hi + clear;
-    if left >= min_u {
-        Some(crate::geom::pt(left, frame.v_seal))
-    } else if right <= max_u {
-        Some(crate::geom::pt(right, frame.v_seal))
-    } else {
-        None
-    }
 }
 
 fn report_crossings(arrivals: &[(String, Vec<Pt>, fanout::Arrival)], pad_idx: &[usize], frame: &SideFrame, findings: &mut Vec<Finding>) {

@@ -12,7 +12,8 @@ fn square(name: &str, x: f64, y: f64, s: f64) -> Element {
 
 fn routed(elements: &[Element]) -> (Layout, Electrodes, Routes) {
     let layout = crate::layout::fixture::tiny_layout();
-    let el = crate::electrode::build_electrodes(&layout, elements).unwrap();
+    let a = crate::assign::assign(&layout, elements).unwrap();
+    let el = crate::electrode::build_electrodes(&layout, elements, &a).unwrap();
     let routes = route_leads(&layout, &el).unwrap();
     (layout, el, routes)
 }

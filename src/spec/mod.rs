@@ -63,6 +63,7 @@ pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
         nets::check_unique(&mut p, &layout);
         nets::check_fixed_pins(&mut p, &layout);
         nets::check_buses(&mut p, &layout);
+        nets::check_fixed_lines(&mut p, &layout);
     }
     fit::check_fit(&mut p, &layout);
     placement::check_placement(&mut p, &layout);
@@ -92,6 +93,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
         resist: resolve::resist(p, raw.resist.as_ref()),
         transfer: resolve::transfer(p, raw.transfer_dots.as_ref()),
         drive: resolve::drive(p, raw.drive.as_ref()),
+        fixed_lines: resolve::fixed_lines(p, raw.drive.as_ref()),
         marks: resolve::marks(p, raw.marks.as_ref()),
         layers: resolve::layers(p, raw.gds_layers.as_ref()),
         extra_fonts: resolve::fonts(p, raw.fonts.as_ref(), path),

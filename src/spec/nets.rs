@@ -3,7 +3,7 @@
 //! nets that exist, pin numbers unique and on the pad row.
 
 use super::problems::Problems;
-use crate::layout::{COLON, DECIMAL_POINT, Layout, common_net, segment_net};
+use crate::layout::{COLON, DECIMAL_POINT, Layout, common_net, line_net, segment_net};
 use std::collections::BTreeMap;
 
 /// One net and the key of the layout entry that makes it.
@@ -123,7 +123,7 @@ pub fn check_fixed_pins(p: &mut Problems, layout: &Layout) {
             continue;
         }
         if !known.contains(net) {
-            p.bad(&key, unknown_net(net, &known), "a segment, legend, icon or COM net of this layout");
+            p.bad(&key, unknown_net(net, &known), "a net of this layout (elements and COM1 under static drive; SEG and COM lines when multiplexed)");
         }
         if *pin < lo || *pin >= hi {
             p.bad(&key, format!("pin {pin} is not on the pad row"), &format!("{lo} to {}", hi.saturating_sub(1)));
@@ -139,15 +139,44 @@ pub fn check_buses(p: &mut Problems, layout: &Layout) {
     for b in &layout.buses {
         let key = format!("{}.net", b.key);
         if p.clean(&[&key]) && !known.contains(&b.net) {
-            p.bad(&key, unknown_net(&b.net, &known), "a segment, legend, icon or COM net of this layout");
+            p.bad(&key, unknown_net(&b.net, &known), "a net of this layout (elements and COM1 under static drive; SEG and COM lines when multiplexed)");
         }
     }
 }
 
+/// Nets a pin or bus may name: under static drive every element and `COM1`; multiplexed,
+/// the SEG lines `SEG1` … (at most one per element) and the commons.
 fn known_nets(layout: &Layout) -> Vec<String> {
-    let mut v: Vec<String> = element_nets(layout).into_iter().map(|s| s.net).collect();
+    let elements = element_nets(layout);
+    let mut v: Vec<String> = if layout.drive.commons > 1 {
+        (0..elements.len() as u32).map(line_net).collect()
+    } else {
+        elements.into_iter().map(|s| s.net).collect()
+    };
     v.extend(common_nets(layout));
     v
+}
+
+/// Checks `drive.fixed`: known elements, and no (COM, SEG) pair given to two elements.
+pub fn check_fixed_lines(p: &mut Problems, layout: &Layout) {
+    let known: Vec<String> = element_nets(layout).into_iter().map(|s| s.net).collect();
+    let mut by_pair: BTreeMap<(u32, u32), &str> = BTreeMap::new();
+    for (name, f) in &layout.fixed_lines {
+        let key = format!("drive.fixed.{name}");
+        if !known.contains(name) {
+            let mut m = format!("unknown element `{name}`");
+            if let Some(near) = super::problems::nearest(name, known.iter().map(String::as_str)) {
+                m.push_str(&format!(" (did you mean `{near}`?)"));
+            }
+            p.bad(&key, m, "a segment, legend or icon of this layout");
+            continue;
+        }
+        if let (Some(c), Some(s)) = (f.com, f.seg) {
+            if let Some(other) = by_pair.insert((c, s), name) {
+                p.bad(&key, format!("COM{c} with SEG{s} is already fixed for `{other}`"), "each (com, seg) pair once");
+            }
+        }
+    }
 }
 
 fn unknown_net(net: &str, known: &[String]) -> String {

@@ -123,10 +123,19 @@ pub enum RawDrive {
 
 /// `drive: {duty, bias}`.
 #[derive(Debug, DeriveDeserialize)]
-#[serde(deny_unknown_fields, expecting = "a mapping with keys duty and bias")]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys duty, bias and fixed")]
 pub struct RawMultiplex {
     pub duty: Option<Scalar>,
     pub bias: Option<Scalar>,
+    pub fixed: Option<Entries<RawFixedLine>>,
+}
+
+/// `drive.fixed.ELEMENT: {com, seg}`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys com and seg")]
+pub struct RawFixedLine {
+    pub com: Option<Scalar>,
+    pub seg: Option<Scalar>,
 }
 
 impl<'de> Deserialize<'de> for RawDrive {

@@ -286,6 +286,29 @@ pub fn drive(p: &mut Problems, d: Option<&RawDrive>) -> Drive {
     }
 }
 
+/// `drive.fixed`: element name → the COM and SEG numbers fixed by hand. Ranges are
+/// checked here (COM within the duty, SEG from 1); names and pairs by `nets`.
+pub fn fixed_lines(p: &mut Problems, d: Option<&RawDrive>) -> BTreeMap<String, FixedLine> {
+    let mut out = BTreeMap::new();
+    let Some(RawDrive::Multiplexed(m)) = d else { return out };
+    let n = m.duty.as_ref().and_then(fraction).unwrap_or(1);
+    for (name, f) in m.fixed.as_ref().map(|e| e.0.as_slice()).unwrap_or(&[]) {
+        let key = format!("drive.fixed.{}", name.text);
+        if f.com.is_none() && f.seg.is_none() {
+            p.missing(&format!("{key}.com"), "com, seg or both");
+        }
+        let com = f.com.as_ref().map(|c| clamp_u32(p.int(Some(c), &format!("{key}.com"), None, 1)));
+        if let Some(c) = com.filter(|c| *c > n && (2..=4).contains(&n)) {
+            p.bad(&format!("{key}.com"), format!("COM{c} does not exist at duty 1/{n}"), &format!("1 … {n}"));
+        }
+        let seg = f.seg.as_ref().map(|s| clamp_u32(p.int(Some(s), &format!("{key}.seg"), None, 1)));
+        if out.insert(name.text.clone(), FixedLine { com, seg }).is_some() {
+            p.repeated(&key, format!("element `{}` is fixed twice", name.text), "each element once");
+        }
+    }
+    out
+}
+
 /// `1/N` → N.
 fn fraction(s: &Scalar) -> Option<u32> {
     if s.kind != ScalarKind::Text {

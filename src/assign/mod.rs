@@ -1,0 +1,242 @@
+//! Stage `assign`: elements → the COM electrode and SEG line of every element.
+//!
+//! Takes the layout (duty, choices fixed by hand in `drive.fixed`) and the elements from
+//! `glyph`; gives each element a common (0-based) and a SEG line (0-based), and the places
+//! that front leads must leave free so back leads can pass. Under static drive every
+//! element is its own SEG line on the one common.
+//!
+//! Multiplexed, in this order:
+//! 1. elements fixed by hand keep their COM and SEG;
+//! 2. seven-segment digits take their template (`template.rs`), one set of SEG lines per
+//!    digit, so each line's segments lie together and both plates can be routed;
+//! 3. every other element (legends, icons, colons, other digit styles, elements fixed in
+//!    one number only) takes a free common on the nearest line that has one; when no line
+//!    has room it opens a new line, on the common of its height in the window (top band →
+//!    COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉ (DESIGN.md §2)
+//!    whenever the templates leave their places free to others.
+//!
+//! A (COM, SEG) pair is never given twice; the pins are N + the number of lines.
+
+pub mod lines;
+pub mod template;
+
+use crate::geom::{circle, Polygon, Pt};
+use crate::glyph::Element;
+use crate::layout::{DigitStyle, Layout};
+use crate::Result;
+use lines::{nearest_free, Line};
+
+/// The COM and SEG line of every element.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Assignment {
+    /// Common (0-based) of each element, in element order.
+    pub com: Vec<u32>,
+    /// SEG line (0-based) of each element, in element order.
+    pub line: Vec<u32>,
+    /// Number of SEG lines.
+    pub lines: u32,
+    /// Places kept free of front-plate leads so back-plate leads can pass.
+    pub passages: Vec<Polygon>,
+}
+
+impl Assignment {
+    /// Elements (indices) on SEG line `j`.
+    pub fn on_line(&self, j: u32) -> impl Iterator<Item = usize> + '_ {
+        self.line.iter().enumerate().filter(move |(_, l)| **l == j).map(|(i, _)| i)
+    }
+}
+
+/// Assigns every element a common and a SEG line.
+pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
+    let n = layout.drive.commons.max(1);
+    if n == 1 {
+        let k = elements.len();
+        return Ok(Assignment { com: vec![0; k], line: (0..k as u32).collect(), lines: k as u32, passages: Vec::new() });
+    }
+    let centres: Vec<Pt> = elements.iter().map(centre).collect();
+    let mut lines: Vec<Line> = Vec::new();
+    let mut placed = vec![false; elements.len()];
+    let mut problems = Vec::new();
+
+    // 1. Fixed by hand, both numbers.
+    for (i, e) in elements.iter().enumerate() {
+        let Some(f) = layout.fixed_lines.get(&e.name) else { continue };
+        if let (Some(c), Some(s)) = (f.com, f.seg) {
+            let l = line_numbered(&mut lines, s - 1);
+            if !lines[l].is_free(c - 1) {
+                problems.push(layout.problem(&format!("drive.fixed.{}", e.name), format!("COM{c} of SEG{s} is already taken"), Some("each (com, seg) pair once".into())));
+                continue;
+            }
+            lines[l].add(i, c - 1, centres[i]);
+            placed[i] = true;
+        }
+    }
+    // 2. Templates, digit by digit.
+    let mut passages = Vec::new();
+    let mut digit_slots: Vec<(String, u32, usize)> = Vec::new();
+    for (i, e) in elements.iter().enumerate() {
+        if placed[i] || layout.fixed_lines.contains_key(&e.name) {
+            continue;
+        }
+        let (Some(digit), Some(t)) = (&e.digit, seven_template(layout, e)) else { continue };
+        let seg = e.name.rsplit('.').next().unwrap_or("");
+        let Some((com, slot)) = t.place(seg) else { continue };
+        let l = match digit_slots.iter().find(|(d, s, _)| d == digit && *s == slot) {
+            Some(x) => x.2,
+            None => {
+                lines.push(Line::new(None));
+                digit_slots.push((digit.clone(), slot, lines.len() - 1));
+                lines.len() - 1
+            }
+        };
+        lines[l].add(i, com, centres[i]);
+        placed[i] = true;
+        for (s, end) in t.passages {
+            if *s == seg {
+                passages.push(passage(layout, e, *end));
+            }
+        }
+    }
+    // 3. Everything else: free places on the nearest line first.
+    for (i, e) in elements.iter().enumerate() {
+        if placed[i] {
+            continue;
+        }
+        let fixed = layout.fixed_lines.get(&e.name).copied().unwrap_or_default();
+        let want = fixed.com.map(|c| c - 1).unwrap_or_else(|| band(layout, centres[i], n));
+        let l = match fixed.seg {
+            Some(s) => line_numbered(&mut lines, s - 1),
+            None => nearest_line_with_room(&lines, centres[i], fixed.com.map(|c| c - 1), n).unwrap_or_else(|| {
+                lines.push(Line::new(None));
+                lines.len() - 1
+            }),
+        };
+        let com = match fixed.com {
+            Some(c) if lines[l].is_free(c - 1) => Some(c - 1),
+            Some(_) => None,
+            None => nearest_free(&lines[l], n, want),
+        };
+        match com {
+            Some(c) => lines[l].add(i, c, centres[i]),
+            None => problems.push(layout.problem(
+                &format!("drive.fixed.{}", e.name),
+                format!("SEG line {} has no free common left for `{}`", l + 1, e.name),
+                Some(format!("at most {n} elements on one SEG line, each on its own common")),
+            )),
+        }
+    }
+    if !problems.is_empty() {
+        return Err(crate::Error::Input(problems));
+    }
+    let numbers = number_lines(layout, &lines, &mut problems);
+    if !problems.is_empty() {
+        return Err(crate::Error::Input(problems));
+    }
+    let mut com = vec![0; elements.len()];
+    let mut line = vec![0; elements.len()];
+    for (l, ln) in lines.iter().enumerate() {
+        for &(e, c) in &ln.members {
+            com[e] = c;
+            line[e] = numbers[l];
+        }
+    }
+    Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages })
+}
+
+fn centre(e: &Element) -> Pt {
+    use geo::Centroid;
+    e.outline.centroid().map(|p| p.0).unwrap_or_else(|| crate::geom::pt(0.0, 0.0))
+}
+
+/// The template of a seven-segment digit element at this duty.
+fn seven_template(layout: &Layout, e: &Element) -> Option<&'static template::Template> {
+    let g = layout.digits.iter().find(|g| g.key == e.key)?;
+    (g.style == DigitStyle::Seven).then_some(())?;
+    template::seven_segment(layout.drive.commons)
+}
+
+/// A place kept free of front leads beside one end of a segment: a band one and a half
+/// digit gaps wide from the segment's tip out past the outer edge of the digit (a stroke
+/// and two gaps long), along the segment.
+fn passage(layout: &Layout, e: &Element, end: template::End) -> Polygon {
+    let g = layout.digits.iter().find(|g| g.key == e.key);
+    let gap = g.map(|g| g.gap).unwrap_or(layout.rules.min_gap);
+    let stroke = g.map(|g| g.stroke).unwrap_or(1.0);
+    let pts = e.outline.0.iter().flat_map(|p| p.exterior().0.iter().copied());
+    let tip = match end {
+        template::End::Left => pts.min_by(|a, b| a.x.total_cmp(&b.x)),
+        template::End::Right => pts.max_by(|a, b| a.x.total_cmp(&b.x)),
+    }
+    .unwrap_or_else(|| centre(e));
+    let out = if end == template::End::Left { -1.0 } else { 1.0 };
+    let from = crate::geom::pt(tip.x - out * gap / 2.0, tip.y);
+    let to = crate::geom::pt(tip.x + out * (stroke + 2.0 * gap), tip.y);
+    let band = crate::geom::stroke_polyline(&[from, to], 1.5 * gap, layout.tolerance);
+    band.0.into_iter().next().unwrap_or_else(|| circle(tip, gap, layout.tolerance))
+}
+
+/// Common of an element's height in the window: the top band is COM1 (index 0).
+fn band(layout: &Layout, at: Pt, n: u32) -> u32 {
+    let w = layout.window;
+    let t = ((w.y1() - at.y) / w.height.max(1e-9) * n as f64).floor();
+    t.clamp(0.0, (n - 1) as f64) as u32
+}
+
+/// The line numbered `j` by hand, made if it does not exist yet.
+fn line_numbered(lines: &mut Vec<Line>, j: u32) -> usize {
+    if let Some(l) = lines.iter().position(|l| l.fixed == Some(j)) {
+        return l;
+    }
+    lines.push(Line::new(Some(j)));
+    lines.len() - 1
+}
+
+/// The non-empty line nearest to `at` with a free common (`com` if given).
+fn nearest_line_with_room(lines: &[Line], at: Pt, com: Option<u32>, n: u32) -> Option<usize> {
+    let d2 = |p: Pt| (p.x - at.x).powi(2) + (p.y - at.y).powi(2);
+    lines
+        .iter()
+        .enumerate()
+        .filter(|(_, l)| !l.members.is_empty() && l.fixed.is_none())
+        .filter(|(_, l)| match com {
+            Some(c) => l.is_free(c),
+            None => (0..n).any(|c| l.is_free(c)),
+        })
+        .min_by(|a, b| d2(a.1.centre()).total_cmp(&d2(b.1.centre())))
+        .map(|(i, _)| i)
+}
+
+/// Final SEG numbers: lines fixed by hand keep theirs; the others take the free numbers
+/// from the left of the glass to the right.
+fn number_lines(layout: &Layout, lines: &[Line], problems: &mut Vec<crate::error::InputProblem>) -> Vec<u32> {
+    let count = lines.len() as u32;
+    let mut numbers = vec![u32::MAX; lines.len()];
+    let mut taken = vec![false; lines.len()];
+    for (l, ln) in lines.iter().enumerate() {
+        if let Some(j) = ln.fixed {
+            if j >= count {
+                problems.push(layout.problem(
+                    "drive.fixed",
+                    format!("SEG{} is fixed but the layout makes only {count} SEG lines", j + 1),
+                    Some(format!("SEG1 … SEG{count}")),
+                ));
+                continue;
+            }
+            numbers[l] = j;
+            taken[j as usize] = true;
+        }
+    }
+    let mut free = (0..count).filter(|j| !taken[*j as usize]);
+    let mut auto: Vec<usize> = (0..lines.len()).filter(|l| lines[*l].fixed.is_none()).collect();
+    auto.sort_by(|&a, &b| {
+        let (p, q) = (lines[a].centre(), lines[b].centre());
+        p.x.total_cmp(&q.x).then(q.y.total_cmp(&p.y))
+    });
+    for l in auto {
+        numbers[l] = free.next().unwrap_or(u32::MAX);
+    }
+    numbers
+}
+
+#[cfg(test)]
+mod tests;

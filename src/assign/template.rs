@@ -1,0 +1,129 @@
+//! Assignments for seven-segment digits at duty 1/2, 1/3 and 1/4 that leave both plates
+//! routable in a row of digits.
+//!
+//! The commons are numbered from the top of the digit down. The reasoning, for a row of
+//! digits whose leads leave at the bottom (DESIGN.md §2; the planar-routing argument is
+//! ours):
+//! - the top common reaches the seal above the window from `a`; the bottom common reaches
+//!   the seal below from `d` (its leads may cross front leads under the seal);
+//! - every common in between must run through each digit and across the gaps between
+//!   digits, so it needs a way in on the left and a way out on the right;
+//! - each SEG line is joined on the front inside its digit, through the counters and
+//!   the gaps at corners and junctions, and reaches the bottom.
+//!
+//! At 1/4 duty the second common `{b, g}` enters each digit through the left junction
+//! (between the tips of `f` and `e`, beside the tip of `g`): that gap is kept free of
+//! front leads ([`Template::passages`]). At 1/3 duty the middle common `{e, g, c}` joins
+//! through the lower counter and runs from `e` to `c`. At 1/2 duty the two commons are the
+//! upper and lower halves.
+
+/// One seven-segment assignment: for each segment name, (COM index, SEG slot within the
+/// digit). Slots are numbered 0 … lines-1 inside a digit; the caller numbers them globally.
+#[derive(Debug, Clone, Copy)]
+pub struct Template {
+    /// Commons this template is for.
+    pub commons: u32,
+    /// `(segment, com, slot)` rows.
+    pub rows: &'static [(&'static str, u32, u32)],
+    /// Segment junctions to keep free of front leads, as `(segment whose tip, which
+    /// end)`: `(g, Left)` is the left junction.
+    pub passages: &'static [(&'static str, End)],
+}
+
+/// Which end of a segment's outline.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum End {
+    /// The vertex with the smallest x.
+    Left,
+    /// The vertex with the largest x.
+    Right,
+}
+
+const DUTY_2: Template = Template {
+    commons: 2,
+    rows: &[
+        ("f", 0, 0),
+        ("e", 1, 0),
+        ("b", 0, 1),
+        ("c", 1, 1),
+        ("g", 0, 2),
+        ("d", 1, 2),
+        ("a", 0, 3),
+        ("dp", 1, 3),
+    ],
+    passages: &[],
+};
+
+const DUTY_3: Template = Template {
+    commons: 3,
+    rows: &[
+        ("f", 0, 0),
+        ("e", 1, 0),
+        ("d", 2, 0),
+        ("b", 0, 1),
+        ("c", 1, 1),
+        ("dp", 2, 1),
+        ("a", 0, 2),
+        ("g", 1, 2),
+    ],
+    passages: &[],
+};
+
+const DUTY_4: Template = Template {
+    commons: 4,
+    rows: &[
+        ("f", 0, 0),
+        ("g", 1, 0),
+        ("e", 2, 0),
+        ("d", 3, 0),
+        ("a", 0, 1),
+        ("b", 1, 1),
+        ("c", 2, 1),
+        ("dp", 3, 1),
+    ],
+    passages: &[("g", End::Left)],
+};
+
+/// The seven-segment template for `commons` commons, if there is one.
+pub fn seven_segment(commons: u32) -> Option<&'static Template> {
+    match commons {
+        2 => Some(&DUTY_2),
+        3 => Some(&DUTY_3),
+        4 => Some(&DUTY_4),
+        _ => None,
+    }
+}
+
+impl Template {
+    /// COM and slot of a segment, if the template places it.
+    pub fn place(&self, segment: &str) -> Option<(u32, u32)> {
+        self.rows.iter().find(|r| r.0 == segment).map(|r| (r.1, r.2))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Every template is a valid multiplex: COM within the duty, each (COM, slot) pair
+    /// once, and the segments a–g and dp fill exactly ⌈8/N⌉ slots (N + ⌈S/N⌉ pins per
+    /// digit, DESIGN.md §2).
+    #[test]
+    fn templates_use_each_pair_once_and_the_fewest_slots() {
+        for n in 2..=4 {
+            let t = seven_segment(n).unwrap();
+            assert_eq!(t.commons, n);
+            let mut pairs = std::collections::BTreeSet::new();
+            for (s, c, slot) in t.rows {
+                assert!(*c < n, "{s}");
+                assert!(pairs.insert((*c, *slot)), "pair used twice at 1/{n}: {s}");
+            }
+            let slots = t.rows.iter().map(|r| r.2).max().unwrap() + 1;
+            assert_eq!(slots, 8u32.div_ceil(n));
+            for s in ["a", "b", "c", "d", "e", "f", "g", "dp"] {
+                assert!(t.place(s).is_some(), "{s} missing at 1/{n}");
+            }
+        }
+        assert!(seven_segment(1).is_none());
+    }
+}

@@ -1,0 +1,122 @@
+//! Stage tests of `assign` on hand-made layouts.
+
+use super::*;
+use crate::glyph::build_elements;
+use crate::glyph::testkit::{empty_layout, seven_group};
+use crate::layout::{Drive, FixedLine, Icon, IconShape};
+use std::collections::BTreeSet;
+
+fn layout(digits: u32, commons: u32, dps: Vec<u32>) -> Layout {
+    let mut l = empty_layout();
+    let mut g = seven_group(digits, 0.0);
+    g.decimal_points = dps;
+    l.digits.push(g);
+    l.drive = Drive { commons, bias: Some(3) };
+    l
+}
+
+fn icon(l: &mut Layout, name: &str, x: f64, y: f64) {
+    let i = l.icons.len();
+    l.icons.push(Icon { name: name.into(), shape: IconShape::Circle { centre: crate::geom::pt(x, y), radius: 0.6 }, key: format!("icons[{i}]") });
+}
+
+/// Every (COM, SEG) pair is used by one element at most, and the commons are in range.
+fn assert_pairs_once(a: &Assignment, n: u32) {
+    let mut seen = BTreeSet::new();
+    for (c, l) in a.com.iter().zip(&a.line) {
+        assert!(*c < n);
+        assert!(*l < a.lines);
+        assert!(seen.insert((*c, *l)), "pair (COM{}, SEG{}) used twice", c + 1, l + 1);
+    }
+}
+
+/// Pin count N + ⌈S/N⌉ (DESIGN.md §2; the usual count for an N-way multiplex): four
+/// digits with decimal points at 1/4 duty need 8 SEG lines (32 elements); at 1/2 duty 16.
+#[test]
+fn seven_segment_digits_take_the_fewest_lines() {
+    for (n, want) in [(4, 8), (2, 16)] {
+        let l = layout(4, n, vec![1, 2, 3, 4]);
+        let e = build_elements(&l).unwrap();
+        let a = assign(&l, &e).unwrap();
+        assert_eq!(a.lines, want, "1/{n}");
+        assert_eq!(a.lines, (e.len() as u32).div_ceil(n));
+        assert_pairs_once(&a, n);
+    }
+}
+
+/// At 1/3 duty a digit with its point takes three lines with one place free; icons fill
+/// the free places, so four digits and four icons (36 elements) need exactly 12 lines.
+#[test]
+fn icons_fill_the_places_digits_leave_free() {
+    let mut l = layout(4, 3, vec![1, 2, 3, 4]);
+    for k in 0..4 {
+        icon(&mut l, &format!("I{k}"), 10.0 + 9.0 * k as f64, 33.0);
+    }
+    let e = build_elements(&l).unwrap();
+    let a = assign(&l, &e).unwrap();
+    assert_eq!(e.len(), 36);
+    assert_eq!(a.lines, 12);
+    assert_pairs_once(&a, 3);
+    // Each icon shares a line with segments of the digit below it.
+    for k in 0..4 {
+        let i = e.iter().position(|x| x.name == format!("I{k}")).unwrap();
+        let digit = format!("D{}", k + 1);
+        assert!(a.on_line(a.line[i]).any(|j| e[j].digit.as_deref() == Some(digit.as_str())), "I{k}");
+    }
+}
+
+/// The 1/4 template puts the top bar on COM1 and the bottom bar on COM4, and keeps one
+/// passage per digit free for the back plate.
+#[test]
+fn commons_run_from_the_top_down() {
+    let l = layout(2, 4, vec![]);
+    let e = build_elements(&l).unwrap();
+    let a = assign(&l, &e).unwrap();
+    let com_of = |name: &str| a.com[e.iter().position(|x| x.name == name).unwrap()];
+    assert_eq!(com_of("D1.a"), 0);
+    assert_eq!(com_of("D1.d"), 3);
+    assert_eq!(com_of("D2.g"), 1);
+    assert_eq!(a.passages.len(), 2);
+    // Lines are numbered from the left: digit 1's lines come first.
+    assert!(a.line[e.iter().position(|x| x.name == "D1.f").unwrap()] < 2);
+}
+
+/// Choices fixed by hand are kept; the rest is assigned around them.
+#[test]
+fn fixed_choices_are_kept() {
+    let mut l = layout(2, 4, vec![1, 2]);
+    l.fixed_lines.insert("D2.a".into(), FixedLine { com: Some(3), seg: Some(1) });
+    l.fixed_lines.insert("D1.g".into(), FixedLine { com: Some(4), seg: None });
+    let e = build_elements(&l).unwrap();
+    let a = assign(&l, &e).unwrap();
+    let at = |name: &str| e.iter().position(|x| x.name == name).unwrap();
+    assert_eq!((a.com[at("D2.a")], a.line[at("D2.a")]), (2, 0));
+    assert_eq!(a.com[at("D1.g")], 3);
+    assert_pairs_once(&a, 4);
+}
+
+/// A SEG number beyond the lines the layout makes is an input problem at `drive.fixed`.
+#[test]
+fn a_seg_number_out_of_range_is_reported() {
+    let mut l = layout(1, 4, vec![]);
+    l.fixed_lines.insert("D1.a".into(), FixedLine { com: Some(1), seg: Some(9) });
+    let e = build_elements(&l).unwrap();
+    match assign(&l, &e) {
+        Err(crate::Error::Input(p)) => {
+            assert_eq!(p[0].key, "drive.fixed");
+            assert!(p[0].message.contains("SEG9"), "{}", p[0].message);
+        }
+        other => panic!("expected an input problem, got {other:?}"),
+    }
+}
+
+/// Static drive: every element its own line on COM1.
+#[test]
+fn static_drive_is_one_line_per_element() {
+    let l = layout(2, 1, vec![]);
+    let e = build_elements(&l).unwrap();
+    let a = assign(&l, &e).unwrap();
+    assert_eq!(a.lines, 14);
+    assert!(a.com.iter().all(|c| *c == 0));
+    assert_pairs_once(&a, 1);
+}

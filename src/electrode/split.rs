@@ -1,0 +1,80 @@
+//! Common electrodes that share the back plate: each grown from its own pixels, split
+//! where two meet, and kept the minimum gap apart.
+//!
+//! Each common takes the points nearer its pixels' gap-free bodies than any other
+//! common's (a Voronoi cell, built as a union of growth steps), out to the overlap margin
+//! plus half the gap; the cell is then shrunk by half the gap. Two shrunk cells are at
+//! least the gap apart (each point keeps a disc of half the gap inside its own cell), and
+//! where the bodies of two commons touch — the middle of a segment gap — each common
+//! stops half the back gap short of the middle, so a segment gap at least as wide as the
+//! back gap leaves every pixel fully covered.
+
+use crate::geom::{difference, offset_round, union_all, Region};
+
+/// Back-plate outline of every common, from the bodies of its pixels (one region per
+/// common, in common order).
+pub fn split_commons(bodies: &[Region], margin: f64, gap: f64, tol: f64) -> Vec<Region> {
+    if bodies.len() == 1 {
+        return vec![offset_round(&bodies[0], margin, tol)];
+    }
+    let reach = margin + gap / 2.0;
+    let steps = ((reach / (gap / 2.0).max(1e-3)).ceil() as usize).clamp(2, 8);
+    let cells: Vec<Region> = (0..bodies.len())
+        .map(|k| {
+            let others = union_all(bodies.iter().enumerate().filter(|(l, _)| *l != k).flat_map(|(_, b)| b.0.iter().cloned()));
+            let mut parts: Vec<crate::geom::Polygon> = bodies[k].0.clone();
+            for i in 1..=steps {
+                let t = reach * i as f64 / steps as f64;
+                let ring = difference(&offset_round(&bodies[k], t, tol), &offset_round(&others, t, tol));
+                parts.extend(ring.0);
+            }
+            union_all(parts)
+        })
+        .collect();
+    // Flattened arcs of the shrink may cut a chord inside the exact offset: a little more.
+    cells.iter().map(|c| offset_round(c, -(gap / 2.0 + tol), tol)).collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::{area, distance, intersection, rect, region_of};
+
+    /// Two squares 0.4 mm apart on different commons, margin 0.3, gap 0.05: the commons
+    /// keep the gap (measured with geo's polygon distance), each still covers its square,
+    /// and the free sides keep the whole margin (area ≥ that of the square grown by it on
+    /// three sides; plane geometry).
+    #[test]
+    fn two_commons_meet_in_the_middle_and_keep_the_gap() {
+        let a = region_of([rect(0.0, 0.0, 1.0, 1.0)]);
+        let b = region_of([rect(1.4, 0.0, 2.4, 1.0)]);
+        let out = split_commons(&[a.clone(), b.clone()], 0.3, 0.05, 1e-4);
+        let d = distance(&out[0].0[0], &out[1].0[0]);
+        assert!(d >= 0.05 - 1e-6, "gap {d}");
+        assert!(d <= 0.05 + 0.1, "the split leaves no wide strip: {d}");
+        for (sq, c) in [(&a, &out[0]), (&b, &out[1])] {
+            assert!((area(&intersection(sq, c)) - 1.0).abs() < 1e-6, "square not covered");
+        }
+        assert!(area(&out[0]) > 1.0 + 3.0 * 0.3 - 1e-3);
+    }
+
+    /// Touching bodies (a gap-free digit) split at their common edge with the gap centred
+    /// on it.
+    #[test]
+    fn touching_bodies_split_on_their_edge() {
+        let a = region_of([rect(0.0, 0.0, 1.0, 1.0)]);
+        let b = region_of([rect(1.0, 0.0, 2.0, 1.0)]);
+        let out = split_commons(&[a, b], 0.2, 0.06, 1e-4);
+        let xa = out[0].0[0].exterior().0.iter().filter(|c| c.y > 0.1 && c.y < 0.9).map(|c| c.x).fold(f64::MIN, f64::max);
+        let xb = out[1].0[0].exterior().0.iter().filter(|c| c.y > 0.1 && c.y < 0.9).map(|c| c.x).fold(f64::MAX, f64::min);
+        assert!((xa - 0.97).abs() < 1e-6 && (xb - 1.03).abs() < 1e-6, "{xa} {xb}");
+    }
+
+    /// One common: the bodies grown by the margin, as under static drive.
+    #[test]
+    fn one_common_is_the_grown_bodies() {
+        let a = region_of([rect(0.0, 0.0, 1.0, 1.0)]);
+        let out = split_commons(&[a], 0.2, 0.05, 1e-4);
+        assert!((area(&out[0]) - (1.0 + 0.8 + std::f64::consts::PI * 0.04)).abs() < 2e-3);
+    }
+}

@@ -1,0 +1,67 @@
+//! Where the transfer dots go: in the seal on the pad side, beside the pad row, one per
+//! common electrode.
+//!
+//! With one common the dot goes left of every lead and pad if there is room, else right.
+//! With several, the top and bottom commons go right (the top one outermost) and the
+//! commons in between go left (the upper one outermost): a row of digits brings its
+//! middle commons out at its left end one above the other, while the top common comes
+//! down the right side around the bottom one (see `assign::template`).
+
+use super::side::SideFrame;
+use crate::geom::{pt, Pt};
+use crate::layout::Layout;
+
+/// Local (u, v) centre of each common's dot, in common order; `None` when they do not
+/// fit in the seal on the pad side. `us` are the `u` of every lead arrival and pad.
+pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch: f64, commons: usize) -> Option<Vec<Pt>> {
+    let tpad = layout.transfer.pad;
+    let (lo, hi) = us.iter().fold((f64::MAX, f64::MIN), |(a, b), u| (a.min(*u), b.max(*u)));
+    let clear = tpad / 2.0 + pitch + layout.pads.width / 2.0;
+    let min_u = frame.u_back.0 + layout.seal.inset + tpad / 2.0;
+    let max_u = frame.u_back.1 - layout.seal.inset - tpad / 2.0;
+    let step = tpad + pitch;
+    // Each side's commons, innermost first.
+    let (left, right): (Vec<usize>, Vec<usize>) = if commons == 1 {
+        (vec![0], vec![])
+    } else {
+        let right = vec![commons - 1, 0];
+        (((1..commons - 1).rev()).collect(), right)
+    };
+    let fits = |left: &[usize], right: &[usize]| {
+        let l_ok = left.is_empty() || lo - clear - step * (left.len() - 1) as f64 >= min_u;
+        let r_ok = right.is_empty() || hi + clear + step * (right.len() - 1) as f64 <= max_u;
+        l_ok && r_ok
+    };
+    let all: Vec<usize> = (0..commons).rev().collect();
+    let choice = [(left, right), (all.clone(), vec![]), (vec![], all)]
+    .into_iter()
+    .find(|(l, r)| fits(l, r))?;
+    let mut at = vec![pt(0.0, 0.0); commons];
+    for (i, &c) in choice.0.iter().enumerate() {
+        at[c] = pt(lo - clear - step * i as f64, frame.v_seal);
+    }
+    for (i, &c) in choice.1.iter().enumerate() {
+        at[c] = pt(hi + clear + step * i as f64, frame.v_seal);
+    }
+    Some(at)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Four commons: COM1 outermost right, COM4 inner right, COM2 outer left, COM3 inner
+    /// left; neighbouring dots one pad plus one lead pitch apart.
+    #[test]
+    fn four_dots_take_their_sides() {
+        let layout = crate::layout::fixture::tiny_layout();
+        let frame = SideFrame::of(&layout);
+        let us = [12.0, 18.0];
+        let at = place_transfer_dots(&layout, &frame, &us, 0.3, 4).unwrap();
+        assert!(at[0].x > at[3].x && at[3].x > 18.0);
+        assert!(at[1].x < at[2].x && at[2].x < 12.0);
+        assert!((at[0].x - at[3].x - (layout.transfer.pad + 0.3)).abs() < 1e-9);
+        let one = place_transfer_dots(&layout, &frame, &us, 0.3, 1).unwrap();
+        assert!(one[0].x < 12.0);
+    }
+}
