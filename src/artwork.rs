@@ -10,7 +10,7 @@
 
 use crate::finding::Finding;
 use crate::geom::{Polygon, Pt, Region};
-use crate::layout::{LayerMap, PlateId, Resist, Rules};
+use crate::layout::{Drive, LayerMap, PlateId, Resist, Rules};
 
 /// A drawn layer. ITO and mark layers belong to one plate; the seal, transfer dots and
 /// window lie between the plates.
@@ -225,6 +225,8 @@ pub struct Artwork {
     pub layers: LayerMap,
     /// Photoresist tone, which decides whether the films are clear-field or dark-field.
     pub resist: Resist,
+    /// Drive scheme the nets were assigned for (static, or 1/N duty with its bias).
+    pub drive: Drive,
     /// The etched layers as the films carry them when the rules ask for etch
     /// compensation: each net's ITO grown by the undercut. Empty when films carry the
     /// drawn shapes.

@@ -11,7 +11,7 @@ fn names(files: &[OutputFile]) -> Vec<&str> {
 }
 
 #[test]
-fn clean_build_gives_all_six_files() {
+fn clean_build_gives_all_eight_files() {
     let files = render_outputs(&artwork(), &[warning()], &opts()).unwrap();
     assert_eq!(
         names(&files),
@@ -21,6 +21,8 @@ fn clean_build_gives_all_six_files() {
             "fixture.preview.svg",
             "fixture.gds",
             "fixture.pins.csv",
+            "fixture.segmap.csv",
+            "fixture.segmap.json",
             "fixture.report.json"
         ]
     );
@@ -30,10 +32,11 @@ fn clean_build_gives_all_six_files() {
 fn errors_withhold_films_and_gdsii() {
     let findings = [warning(), error()];
     let files = render_outputs(&artwork(), &findings, &opts()).unwrap();
-    assert_eq!(names(&files), ["fixture.preview.svg", "fixture.pins.csv", "fixture.report.json"]);
+    let always = ["preview.svg", "pins.csv", "segmap.csv", "segmap.json", "report.json"].map(|s| format!("fixture.{s}"));
+    assert_eq!(names(&files), always);
     let forced = EmitOptions { masks_despite_errors: true, ..opts() };
     let files = render_outputs(&artwork(), &findings, &forced).unwrap();
-    assert_eq!(files.len(), 6);
+    assert_eq!(files.len(), 8);
     // A film made despite errors says so on its face (stroke text, so look for the
     // title element instead): the title line count grows by one.
     let clean = render_outputs(&artwork(), &[], &opts()).unwrap();
@@ -84,7 +87,7 @@ fn report_holds_rules_nets_findings_and_summary() {
 fn pin_map_is_sorted_by_pin() {
     let files = render_outputs(&artwork(), &[], &opts()).unwrap();
     let csv = std::str::from_utf8(output(&files, "pins.csv")).unwrap();
-    assert_eq!(csv, "pin,net,plate,drives\n1,S1,front,square S1\n2,COM1,back,common electrode 1\n");
+    assert_eq!(csv, "pin,net,plate,role,index,drives\n1,S1,front,SEG,1,square S1\n2,COM1,back,COM,1,common electrode 1\n");
 }
 
 #[test]

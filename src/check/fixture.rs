@@ -132,6 +132,7 @@ pub fn clean() -> Artwork {
         labels: vec![],
         rules: rules(),
         resist: crate::layout::Resist::Positive,
+        drive: crate::layout::Drive { commons: 1, bias: None },
         film_shapes: vec![],
         layers: LayerMap::defaults(),
         generation_findings: vec![],

@@ -17,7 +17,7 @@ pub mod shorts;
 pub mod width;
 
 #[cfg(test)]
-mod fixture;
+pub(crate) mod fixture;
 
 pub use connectivity::Extraction;
 

@@ -1,11 +1,13 @@
 //! Stage `emit`: `Artwork` + findings → output files.
 //!
 //! Takes the artwork and the findings, gives the bytes of every output file (films,
-//! preview, GDSII, pin map, report) and writes them atomically. Writers never compute
+//! preview, GDSII, pin map, segment map, report) and writes them atomically. Writers never compute
 //! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the
 //! one exception is cutting polygons into hole-free GDSII pieces ([`split`]), which the
 //! format demands. docs/outputs.md describes every file.
 
+mod csv;
+mod drive_info;
 mod files;
 mod film;
 pub mod gds;
@@ -15,6 +17,7 @@ mod pins;
 mod preview;
 mod report;
 mod ruler;
+pub mod segmap;
 mod split;
 pub mod svg_path;
 pub mod text;
@@ -48,10 +51,12 @@ pub struct EmitOptions {
 }
 
 /// Renders every output of a build, in this order: `NAME.front.svg`, `NAME.back.svg`,
-/// `NAME.preview.svg`, `NAME.gds`, `NAME.pins.csv`, `NAME.report.json`.
+/// `NAME.preview.svg`, `NAME.gds`, `NAME.pins.csv`, `NAME.segmap.csv`,
+/// `NAME.segmap.json`, `NAME.report.json`.
 ///
 /// While any finding is an error and `masks_despite_errors` is off, the mask files
-/// (films and GDSII) are withheld and only preview, pin map and report are given.
+/// (films and GDSII) are withheld and only preview, pin map, segment map and report are
+/// given.
 pub fn render_outputs(art: &Artwork, findings: &[Finding], opts: &EmitOptions) -> Result<Vec<OutputFile>> {
     let date = gds::parse_date(&opts.date).ok_or_else(|| bad_date(&opts.date))?;
     let errors = crate::finding::count(findings, Severity::Error);
@@ -68,6 +73,8 @@ pub fn render_outputs(art: &Artwork, findings: &[Finding], opts: &EmitOptions) -
         out.push(file("gds", gdsii::render_gds(art, date)?));
     }
     out.push(file("pins.csv", pins::render_pins(art)));
+    out.push(file("segmap.csv", segmap::render_segmap_csv(art)));
+    out.push(file("segmap.json", segmap::render_segmap_json(art)?));
     out.push(file("report.json", report::render_report(art, findings)?));
     Ok(out)
 }

@@ -2,38 +2,61 @@
 //!
 //! Takes the artwork's pins and nets, gives a CSV table (RFC 4180: comma separated,
 //! CRLF-free `\n` line ends, fields with commas, quotes or line breaks quoted and inner
-//! quotes doubled) with header `pin,net,plate,drives`, one row per pin, sorted by pin.
+//! quotes doubled) with header `pin,net,plate,role,index,drives`, one row per pin, sorted
+//! by pin. `role` is `COM` or `SEG`; `index` is the 1-based COM index or SEG line.
 
-use crate::artwork::Artwork;
+use super::csv::field;
+use crate::artwork::{Artwork, NetKind};
 
-/// Quotes a CSV field when it needs it (RFC 4180 §2).
-fn field(s: &str) -> String {
-    if s.contains([',', '"', '\n', '\r']) { format!("\"{}\"", s.replace('"', "\"\"")) } else { s.to_string() }
+/// Header line of the pin map.
+pub const HEADER: &str = "pin,net,plate,role,index,drives\n";
+
+/// Name of a net kind in the pin and segment maps.
+pub fn role_name(kind: NetKind) -> &'static str {
+    match kind {
+        NetKind::Common => "COM",
+        NetKind::Segment => "SEG",
+    }
 }
 
-/// The pin map of an artwork.
+/// The pin map of an artwork. A pin whose net is not in the net list keeps its number
+/// and net name; its other cells are empty.
 pub fn render_pins(art: &Artwork) -> Vec<u8> {
     let mut pins: Vec<_> = art.pins.iter().collect();
     pins.sort_by(|a, b| a.number.cmp(&b.number).then_with(|| a.net.cmp(&b.net)));
-    let mut out = String::from("pin,net,plate,drives\n");
+    let mut out = String::from(HEADER);
     for p in pins {
         let net = art.net(&p.net);
         let plate = net.map(|n| n.plate.name()).unwrap_or("");
+        let role = net.map(|n| role_name(n.kind)).unwrap_or("");
+        let index = net.map(|n| (n.index + 1).to_string()).unwrap_or_default();
         let drives = net.map(|n| n.drives.as_str()).unwrap_or("");
-        out.push_str(&format!("{},{},{},{}\n", p.number, field(&p.net), plate, field(drives)));
+        out.push_str(&format!("{},{},{plate},{role},{index},{}\n", p.number, field(&p.net), field(drives)));
     }
     out.into_bytes()
 }
 
 #[cfg(test)]
 mod tests {
-    use super::field;
+    use super::*;
+    use crate::artwork::Pin;
+    use crate::geom::rect;
 
-    /// RFC 4180 §2.6–2.7: fields with commas or quotes are quoted, quotes doubled.
+    /// Rows sorted by pin; role and 1-based index from the net; a pin on an unknown net
+    /// keeps empty cells (RFC 4180 §2.4: every record has the same number of fields).
     #[test]
-    fn fields_are_quoted_per_rfc_4180() {
-        assert_eq!(field("D1.a"), "D1.a");
-        assert_eq!(field("digit 1, segment a"), "\"digit 1, segment a\"");
-        assert_eq!(field("the \"a\" bar"), "\"the \"\"a\"\" bar\"");
+    fn rows_carry_role_and_one_based_index() {
+        let mut art = crate::check::fixture::clean();
+        art.pins.push(Pin { number: 9, net: "stray".into(), pad: rect(0.0, 0.0, 1.0, 1.0) });
+        art.nets[0].drives = "digit 1, segment a".into();
+        let csv = String::from_utf8(render_pins(&art)).unwrap();
+        let want = concat!(
+            "pin,net,plate,role,index,drives\n",
+            "1,S1,front,SEG,1,\"digit 1, segment a\"\n",
+            "2,S2,front,SEG,2,fixture S2\n",
+            "3,COM1,back,COM,1,fixture COM1\n",
+            "9,stray,,,,\n",
+        );
+        assert_eq!(csv, want);
     }
 }

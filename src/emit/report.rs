@@ -1,9 +1,12 @@
 //! The machine-readable report `NAME.report.json`.
 //!
 //! Takes the artwork and the findings, gives pretty-printed JSON: the rules in effect,
-//! the layer map, every net with its pin and ITO area, every finding, and the counts of
+//! the layer map, every net with its pin and ITO area, every element with its COM and
+//! SEG (the segment map's rows), the drive summary, every finding, and the counts of
 //! errors and warnings. Keys end in their unit (`_mm`, `_mm2`).
 
+use super::drive_info::{DriveSummary, drive_summary};
+use super::segmap::{SegmentRow, segment_rows};
 use crate::artwork::{Artwork, Layer, NetKind};
 use crate::finding::{Finding, Severity, count};
 use crate::layout::Resist;
@@ -17,6 +20,8 @@ struct Report<'a> {
     rules: Rules,
     layers: Vec<LayerRow>,
     nets: Vec<NetRow<'a>>,
+    segments: Vec<SegmentRow>,
+    drive: DriveSummary,
     findings: Vec<FindingRow<'a>>,
     summary: Summary,
 }
@@ -142,6 +147,8 @@ pub fn render_report(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
         rules: rules(art),
         layers,
         nets,
+        segments: segment_rows(art),
+        drive: drive_summary(art),
         findings: findings.iter().map(finding_row).collect(),
         summary: Summary { errors: count(findings, Severity::Error), warnings: count(findings, Severity::Warning) },
     };

@@ -6,12 +6,14 @@
 //! before boolean work, unions use the non-zero fill rule, and round joins take their
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
+mod centroid;
 mod interior;
 mod segment;
 mod shapes;
 pub mod path;
 pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
 
+pub use centroid::centroid;
 pub use interior::interior_point;
 pub use segment::{cross3, dist, dist2, point_segment_closest, segment_closest_points, segment_intersection};
 pub use shapes::{circle, rect, regular_arc_step, ring, stroke_polyline};

@@ -71,6 +71,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         labels: labels(layout),
         rules: layout.rules.clone(),
         resist: layout.resist,
+        drive: layout.drive,
         layers: layout.layers.clone(),
         film_shapes: film_shapes(layout, &shapes_for_film),
         generation_findings: el.findings.iter().chain(&routes.findings).cloned().collect(),

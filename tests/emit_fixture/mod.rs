@@ -10,7 +10,7 @@ use segmask::artwork::*;
 use segmask::emit::EmitOptions;
 use segmask::finding::{Finding, Rule, Severity};
 use segmask::geom::{Polygon, Pt, area, circle, pt, rect};
-use segmask::layout::{LayerMap, PlateId, Resist, Rules};
+use segmask::layout::{Drive, LayerMap, PlateId, Resist, Rules};
 
 /// A polygon from an outer ring and holes given as corner lists.
 pub fn poly(outer: &[(f64, f64)], holes: &[&[(f64, f64)]]) -> Polygon {
@@ -133,6 +133,7 @@ pub fn artwork() -> Artwork {
         rules: rules(),
         layers: LayerMap::defaults(),
         resist: Resist::Positive,
+        drive: Drive { commons: 1, bias: None },
         film_shapes: vec![],
         generation_findings: vec![],
     }
