@@ -175,8 +175,10 @@ impl Geometry {
         let pad_pitch = PAD_PITCHES.iter().copied().find(|q| f64::from(pads) * q <= cw).unwrap_or(0.5);
         let pad_row = f64::from(pads) * PAD_SPARE * pad_pitch + 2.0 * (PAD_EDGE + SEAL + 1.5);
         let glass_w = round_up((cw + 2.0 * (SEAL + 2.0 * MARGIN)).max(pad_row), 0.5);
-        // Fan-out levels: a channel's leads spread out to their pads under it.
-        let levels = f64::from(2 * per_channel + 10);
+        // Fan-out levels: leads leave the channels in bunches and spread out to evenly
+        // spaced pads; the router stacks one level per lead a lead passes under. Measured
+        // at static drive: 16 digits + 20 icons (149 pads) needed 61 levels.
+        let levels = f64::from((2 * per_channel).max(pads / 2) + 10);
         let ledge = round_up((PAD_LENGTH + PAD_EDGE + levels * LEAD_PITCH - SEAL + 1.0).max(5.0), 0.5);
         let cx = (glass_w - cw) / 2.0;
         let cy = ledge + SEAL + 2.0 * MARGIN;
