@@ -54,7 +54,19 @@ fn default_benchmark_size_fits_at_quarter_duty() {
 #[test]
 fn every_size_and_drive_passes_the_spec_checks() {
     let drives = [Drive::Static, Drive::Duty(2), Drive::Duty(3), Drive::Duty(4)];
-    let sizes = [(1, None, 0), (3, None, 1), (9, None, 11), (17, Some(2), 5), (16, Some(4), 60), (40, None, 50)];
+    // Odd sizes, then the sweep's (examples/benchmark/main.rs).
+    let sizes = [
+        (1, None, 0),
+        (3, None, 1),
+        (9, None, 11),
+        (17, Some(2), 5),
+        (16, Some(4), 60),
+        (40, None, 50),
+        (4, None, 5),
+        (8, None, 10),
+        (16, None, 20),
+        (32, None, 40),
+    ];
     for drive in drives {
         for (digits, rows, icons) in sizes {
             let p = params(digits, rows, icons, drive);
