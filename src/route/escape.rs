@@ -79,9 +79,30 @@ fn collect_pieces(layout: &Layout, el: &Electrodes) -> Vec<NetPieces> {
             for b in layout.buses.iter().filter(|b| b.plate == PlateId::Front && b.net == s.net) {
                 pieces.extend(stroke_polyline(&b.points, b.width, layout.tolerance).0);
             }
-            NetPieces { name: s.net.clone(), pieces }
+            NetPieces { name: s.net.clone(), pieces: nearest_chain(pieces) }
         })
         .collect()
+}
+
+/// The pieces in the order they join: the first, then always the piece nearest to those
+/// taken so far (Prim's order for a minimum spanning tree, on polygon distances), so a
+/// net's joins stay short and inside its own part of the glass.
+fn nearest_chain(mut rest: Vec<Polygon>) -> Vec<Polygon> {
+    if rest.len() < 3 {
+        return rest;
+    }
+    let mut out = vec![rest.remove(0)];
+    let mut best: Vec<f64> = rest.iter().map(|p| crate::geom::distance(p, &out[0])).collect();
+    while !rest.is_empty() {
+        let k = (0..rest.len()).min_by(|&a, &b| best[a].total_cmp(&best[b])).expect("rest is not empty");
+        let p = rest.remove(k);
+        best.remove(k);
+        for (i, q) in rest.iter().enumerate() {
+            best[i] = best[i].min(crate::geom::distance(q, &p));
+        }
+        out.push(p);
+    }
+    out
 }
 
 fn nearest_v(frame: &SideFrame, n: &NetPieces) -> f64 {
