@@ -174,7 +174,10 @@ impl Geometry {
         let ch = f64::from(rows) * (DIGIT_H + row_gap) + f64::from(icon_rows) * ICON_PITCH;
         let pad_pitch = PAD_PITCHES.iter().copied().find(|q| f64::from(pads) * q <= cw).unwrap_or(0.5);
         let pad_row = f64::from(pads) * PAD_SPARE * pad_pitch + 2.0 * (PAD_EDGE + SEAL + 1.5);
-        let glass_w = round_up((cw + 2.0 * (SEAL + 2.0 * MARGIN)).max(pad_row), 0.5);
+        // Room in the seal at each end for half the transfer dots (one per common, 1.2 mm
+        // pads a lead pitch apart) beyond the outermost lead.
+        let dots = 2.0 * (f64::from(n).div_euclid(2.0) + 1.0) * 1.5;
+        let glass_w = round_up((cw + 2.0 * (SEAL + 2.0 * MARGIN)).max(pad_row) + dots, 0.5);
         // Fan-out levels: leads leave the channels in bunches and spread out to evenly
         // spaced pads; the router stacks one level per lead a lead passes under. Measured
         // at static drive: 16 digits + 20 icons (149 pads) needed 61 levels.

@@ -3,7 +3,9 @@
 //! For each pixel assigned to (COM k, SEG j) the region that switches when that pair is
 //! driven — front ITO connected to SEG j ∩ back ITO connected to COM k ∩ the liquid
 //! crystal, all re-derived from the polygons by extraction — must cover the whole pixel,
-//! and no other common may face it. Light where no pixel is designed is the `ghost` rule.
+//! and no other common may face it; no pair may be given to two elements; and no pair
+//! may light anything inside the window beyond its own elements (the same overlap the
+//! `ghost` rule reports, here named by the (COM, SEG) pair that would light it).
 
 use super::connectivity::Extraction;
 use super::ghost::MIN_GHOST_MM2;
@@ -11,6 +13,7 @@ use crate::artwork::Artwork;
 use crate::finding::{Finding, Rule, Severity};
 use crate::geom::{self, region_of, Region};
 use crate::layout::PlateId;
+use std::collections::BTreeMap;
 
 /// ITO of one plate's components whose nets include `net` (or exclude it).
 fn ito_of(ex: &Extraction, plate: PlateId, net: &str, with: bool) -> Region {
@@ -36,10 +39,26 @@ fn finding(part: &Region, nets: Vec<String>, message: String) -> Finding {
     }
 }
 
+/// The (COM net, SEG net) pairs that more than one pixel uses, sorted, each once. Every
+/// pair must switch at most one element — two on one pair always switch together — so
+/// anything here is a fault of net assignment. Empty when all is well.
+pub fn shared_pairs(art: &Artwork) -> Vec<(String, String)> {
+    let mut uses: BTreeMap<(&str, &str), usize> = BTreeMap::new();
+    for p in &art.pixels {
+        *uses.entry((p.com_net.as_str(), p.seg_net.as_str())).or_default() += 1;
+    }
+    uses.into_iter().filter(|&(_, n)| n > 1).map(|((c, s), _)| (c.to_string(), s.to_string())).collect()
+}
+
 /// Compares what each (COM, SEG) pair lights with the pixels assigned to it.
 pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     let lc = region_of([art.lc_region.clone()]);
     let mut out = Vec::new();
+    for (com, seg) in shared_pairs(art) {
+        let names: Vec<&str> = art.pixels.iter().filter(|p| p.com_net == com && p.seg_net == seg).map(|p| p.element.as_str()).collect();
+        let first = art.pixels.iter().find(|p| p.com_net == com && p.seg_net == seg).map(|p| p.region.clone()).unwrap_or_else(|| region_of([]));
+        out.push(finding(&first, vec![seg.clone(), com.clone()], format!("{} share the pair ({com}, {seg}) and would always switch together", names.join(", "))));
+    }
     for p in &art.pixels {
         let designed = geom::intersection(&p.region, &lc);
         let seg = ito_of(ex, PlateId::Front, &p.seg_net, true);
@@ -68,9 +87,37 @@ pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
             out.push(finding(
                 &wrong,
                 nets,
-                format!("{} also faces back ITO of {} and would light with the wrong common", p.element, who.join(", ")),
+                format!(
+                    "{:.4} mm² of {} also faces back ITO of {}: driving ({}, {}) would light it with the wrong common",
+                    geom::area(&wrong),
+                    p.element,
+                    who.join(", "),
+                    who.join("/"),
+                    p.seg_net
+                ),
             ));
         }
+    }
+    for piece in &super::ghost::ghost_region(art, ex).0 {
+        use geo::{InteriorPoint, Intersects};
+        if geom::area(piece) <= MIN_GHOST_MM2 || !piece.intersects(&art.window) {
+            continue;
+        }
+        let at = piece.interior_point().map(|p| p.0).unwrap_or_default();
+        let segs = super::ghost::nets_under(ex, PlateId::Front, piece, at);
+        let coms = super::ghost::nets_under(ex, PlateId::Back, piece, at);
+        let pairs: Vec<String> = coms.iter().flat_map(|c| segs.iter().map(move |s| format!("({c}, {s})"))).collect();
+        let mut nets = segs.clone();
+        nets.extend(coms.iter().cloned());
+        out.push(finding(
+            &region_of([piece.clone()]),
+            nets,
+            format!(
+                "driving {} lights {:.4} mm² inside the window where no element is assigned to it",
+                if pairs.is_empty() { "no pair".to_string() } else { pairs.join(" or ") },
+                geom::area(piece)
+            ),
+        ));
     }
     out
 }

@@ -77,7 +77,7 @@ pub fn check_ghosts(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
 }
 
 /// Nets of the component holding `at` (else of those meeting the piece).
-fn nets_under(ex: &Extraction, plate: PlateId, piece: &Polygon, at: geom::Pt) -> Vec<String> {
+pub(crate) fn nets_under(ex: &Extraction, plate: PlateId, piece: &Polygon, at: geom::Pt) -> Vec<String> {
     let meeting = ex.components_meeting(plate, piece);
     let holding: Vec<usize> = meeting.iter().copied().filter(|&c| ex.components[c].region.contains(&at)).collect();
     ex.nets_of(if holding.is_empty() { &meeting } else { &holding })

@@ -12,7 +12,6 @@ use super::drive_info::{bias_name, duty_name};
 use crate::artwork::{Artwork, Pixel};
 use crate::{Error, Result};
 use serde::Serialize;
-use std::collections::BTreeMap;
 
 /// Header line of `NAME.segmap.csv`.
 pub const HEADER: &str = "element,drives,com,com_net,com_pin,seg,seg_net,seg_pin,area_mm2,centroid_x_mm,centroid_y_mm\n";
@@ -116,17 +115,6 @@ pub fn render_segmap_json(art: &Artwork) -> Result<Vec<u8>> {
     let mut bytes = serde_json::to_vec_pretty(&doc).map_err(|e| Error::Bug(format!("segment map JSON: {e}")))?;
     bytes.push(b'\n');
     Ok(bytes)
-}
-
-/// The (COM net, SEG net) pairs that more than one pixel uses, sorted, each once. Every
-/// pair must switch at most one element — two on one pair always switch together — so
-/// anything here is a fault of net assignment. Empty when all is well.
-pub fn pairs_used_once(art: &Artwork) -> Vec<(String, String)> {
-    let mut uses: BTreeMap<(&str, &str), usize> = BTreeMap::new();
-    for p in &art.pixels {
-        *uses.entry((p.com_net.as_str(), p.seg_net.as_str())).or_default() += 1;
-    }
-    uses.into_iter().filter(|&(_, n)| n > 1).map(|((c, s), _)| (c.to_string(), s.to_string())).collect()
 }
 
 #[cfg(test)]

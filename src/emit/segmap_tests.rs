@@ -109,9 +109,9 @@ fn unknown_nets_and_empty_pixels_keep_a_row() {
 #[test]
 fn shared_pairs_are_found() {
     let mut art = two_commons();
-    assert!(pairs_used_once(&art).is_empty());
+    assert!(crate::check::drive_truth::shared_pairs(&art).is_empty());
     let b = art.pixels[2].clone();
     art.pixels.push(Pixel { element: "B2".into(), ..b.clone() });
     art.pixels.push(Pixel { element: "B3".into(), ..b });
-    assert_eq!(pairs_used_once(&art), [("COM1".to_string(), "SEG1".to_string())]);
+    assert_eq!(crate::check::drive_truth::shared_pairs(&art), [("COM1".to_string(), "SEG1".to_string())]);
 }

@@ -235,7 +235,9 @@ fn plan_pads_and_fanout(
 
     let pad_u: Vec<f64> = pad_idx.iter().map(|&k| row[k].0).collect();
     let arr: Vec<fanout::Arrival> = arrivals.iter().map(|a| a.2).collect();
-    let v_top = frame.v_lc - pitch;
+    // With several transfer dots side by side in the seal, horizontal runs stay below the
+    // seal band so that no lead passes under another common's dot.
+    let v_top = if transfers.len() > 1 { frame.v_lc - layout.seal.width - pitch } else { frame.v_lc - pitch };
     let v_floor = p.edge_margin + p.length + pitch;
     let pad_end = p.edge_margin + p.length - p.width.min(p.length) / 2.0;
     let plans = match fanout::plan(&arr, &pad_u, v_top, v_floor, pitch, pad_end) {

@@ -1,0 +1,103 @@
+//! Multiplexed drive through the real CLI: the multiplexed demos route themselves, take
+//! N + ⌈S/N⌉ pins and pass the drive truth check; a bus that makes a common face a SEG
+//! lead in the window fails the check naming the pair; a digit whose junction gap is too
+//! narrow for the back-plate passage is unroutable, naming the common.
+
+use std::collections::BTreeSet;
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+fn root() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+fn build(layout: &Path, out: &Path) -> (Option<i32>, String) {
+    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("build").arg(layout).arg("--out").arg(out).output().unwrap();
+    (o.status.code(), String::from_utf8_lossy(&o.stderr).into_owned())
+}
+
+/// Rows of a CSV file without its header (fields here hold no commas).
+fn rows(path: &Path) -> Vec<Vec<String>> {
+    let text = std::fs::read_to_string(path).unwrap();
+    text.lines().skip(1).map(|l| l.split(',').map(str::to_string).collect()).collect()
+}
+
+/// Pin count N + ⌈S/N⌉ for N commons and S elements (Alt & Pleshko, IEEE Trans.
+/// Electron Devices ED-21, 1974, on matrix addressing; the usual count for segment glass,
+/// common practice), each (COM, SEG) pair used once, every pin on the ledge listed, and
+/// drive truth clean (exit 0: no errors, no warnings counted as errors).
+fn assert_multiplexed_demo(name: &str, commons: usize) {
+    let dir = tempfile::tempdir().unwrap();
+    let (code, err) = build(&root().join("demo-layouts").join(format!("{name}.yaml")), dir.path());
+    assert_eq!(code, Some(0), "{err}");
+    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
+    let segmap = rows(&dir.path().join(format!("{name}.segmap.csv")));
+    let pins = rows(&dir.path().join(format!("{name}.pins.csv")));
+    let s = segmap.len();
+    assert_eq!(pins.len(), commons + s.div_ceil(commons), "{name}: {} pins for {s} elements", pins.len());
+    let mut pairs = BTreeSet::new();
+    for r in &segmap {
+        // element, drives, com, com_net, com_pin, seg, seg_net, seg_pin, …
+        assert!(pairs.insert((r[2].clone(), r[5].clone())), "{name}: pair COM{} SEG{} used twice", r[2], r[5]);
+        assert!(!r[4].is_empty() && !r[7].is_empty(), "{name}: {} lacks a pin", r[0]);
+    }
+    let coms: BTreeSet<&str> = segmap.iter().map(|r| r[3].as_str()).collect();
+    assert_eq!(coms.len(), commons, "{name}: every common drives something");
+}
+
+#[test]
+fn four_digit_quarter_duty_demo_routes_itself() {
+    assert_multiplexed_demo("kiln-controller", 4);
+}
+
+#[test]
+fn six_digit_third_duty_demo_routes_itself() {
+    assert_multiplexed_demo("rain-gauge", 3);
+}
+
+fn two_squares(extra: &str) -> (tempfile::TempDir, PathBuf) {
+    let base = std::fs::read_to_string(root().join("tests/fixtures/findings/base.yaml")).unwrap();
+    let text = base.replace("GAP_X", "16").replace("drive: static", "drive: {duty: 1/2, bias: 1/3}").replace("EXTRA", extra);
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("two-squares.yaml");
+    std::fs::write(&path, text).unwrap();
+    (dir, path)
+}
+
+/// The two squares share SEG1 on two commons and build clean; the base of the next test.
+#[test]
+fn two_squares_on_two_commons_build_clean() {
+    let (d, p) = two_squares("");
+    let (code, err) = build(&p, &d.path().join("out"));
+    assert_eq!(code, Some(0), "{err}");
+    let pins = rows(&d.path().join("out/two-squares.pins.csv"));
+    assert_eq!(pins.len(), 3, "COM1, COM2 and SEG1: {pins:?}");
+}
+
+/// A back bus of COM2 drawn across a front bus of SEG1 inside the window: the crossing
+/// lights when (COM2, SEG1) is driven, where no element is assigned (DESIGN.md §2).
+#[test]
+fn a_common_bus_across_a_seg_lead_fails_drive_truth_naming_the_pair() {
+    let extra = "buses:\n  - {net: SEG1, plate: front, width: 0.2, points: [[10, 12], [10, 10], [14, 10]]}\n  - {net: COM2, plate: back, width: 0.2, points: [[13, 9], [13, 11]]}\n";
+    let (d, p) = two_squares(extra);
+    let (code, err) = build(&p, &d.path().join("out"));
+    assert_eq!(code, Some(1), "{err}");
+    let line = err.lines().find(|l| l.contains("error[drive-truth]")).unwrap_or_else(|| panic!("no drive-truth finding:\n{err}"));
+    assert!(line.contains("(COM2, SEG1)"), "{line}");
+    assert!(line.contains("inside the window"), "{line}");
+}
+
+/// Digit segment gaps of 0.2 mm leave no room at the left junction for the back lead that
+/// joins the second common of each digit (lead 0.11 mm + 2 × 0.05 mm gap, plus the grid):
+/// the build fails and names the common it cannot route.
+#[test]
+fn a_junction_too_narrow_for_the_back_lead_is_unroutable_naming_the_net() {
+    let text = std::fs::read_to_string(root().join("demo-layouts/kiln-controller.yaml")).unwrap().replace("gap: 0.35", "gap: 0.2");
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("narrow.yaml");
+    std::fs::write(&path, text).unwrap();
+    let (code, err) = build(&path, &dir.path().join("out"));
+    assert_eq!(code, Some(1), "{err}");
+    let line = err.lines().find(|l| l.contains("error[unroutable]")).unwrap_or_else(|| panic!("no unroutable finding:\n{err}"));
+    assert!(line.contains("COM") || line.contains("SEG"), "{line}");
+}
