@@ -39,16 +39,16 @@ fn small_static_layout_builds_clean_through_segmask_check() {
 
 #[test]
 fn default_benchmark_size_fits_at_quarter_duty() {
-    let p = params(32, None, 40, Drive::Duty(4));
+    let p = params(40, None, 40, Drive::Duty(4));
     let layout = resolve(&p);
     let g = layout_gen::generate(&p).expect("generated");
-    // 32 digits × (a–g + dp) + 40 icons.
-    assert_eq!(segmask::spec::element_nets(&layout).len(), 32 * 8 + 40);
-    assert_eq!(layout.digits.len(), 4, "8 digits to a row");
+    // Multiplexed: 40 digits × (a–g, no point) in one row + 40 icons under them.
+    assert_eq!(segmask::spec::element_nets(&layout).len(), 40 * 7 + 40);
+    assert_eq!(layout.digits.len(), 1, "one row of digits");
     // Multiplexed at duty 1/N: N commons + ⌈elements / N⌉ SEG lines (common practice;
-    // DESIGN.md §2) = 4 + ⌈296 / 4⌉ = 78.
-    assert_eq!(segmask::spec::pads_needed(&layout), 78);
-    assert_eq!(g.pads, 78, "the generator's own count sizes the pad row");
+    // DESIGN.md §2) = 4 + ⌈320 / 4⌉ = 84.
+    assert_eq!(segmask::spec::pads_needed(&layout), 84);
+    assert_eq!(g.pads, 84, "the generator's own count sizes the pad row");
 }
 
 #[test]
@@ -69,6 +69,8 @@ fn every_size_and_drive_passes_the_spec_checks() {
     ];
     for drive in drives {
         for (digits, rows, icons) in sizes {
+            // Multiplexed, each icon sits under a digit of the bottom row.
+            let icons = if drive == Drive::Static { icons } else { icons.min(u32::div_ceil(digits, rows.unwrap_or(1))) };
             let p = params(digits, rows, icons, drive);
             let layout = resolve(&p);
             let g = layout_gen::generate(&p).expect("generated");

@@ -148,7 +148,11 @@ impl Geometry {
         if p.digits == 0 {
             return Err("--digits must be at least 1".into());
         }
-        let rows = p.rows.unwrap_or(p.digits.div_ceil(8));
+        let n = p.drive.commons();
+        // Multiplexed, the commons run along a row of digits and the SEG leads leave
+        // below it: rows stacked above each other would cut the commons of the rows
+        // below (a planar-routing limit, docs/performance.md), so one row by default.
+        let rows = p.rows.unwrap_or(if n > 1 { 1 } else { p.digits.div_ceil(8) });
         if rows == 0 || rows > 26 || rows > p.digits {
             return Err(format!("--rows {rows} does not suit {} digits (allowed: 1 to 26, at most the digit count)", p.digits));
         }
@@ -156,21 +160,29 @@ impl Geometry {
         if per_row > 100 {
             return Err(format!("{per_row} digits in a row (allowed: at most 100; add rows)"));
         }
-        let n = p.drive.commons();
-        let elements = p.digits * SEGMENTS + p.icons;
+        let segments = if n > 1 { SEGMENTS - 1 } else { SEGMENTS };
+        if n > 1 && p.icons > per_row {
+            return Err(format!(
+                "{} icons (allowed: at most {per_row} under multiplexed drive, one under each digit of the bottom row)",
+                p.icons
+            ));
+        }
+        let elements = p.digits * segments + p.icons;
         let lines = |e: u32| e.div_ceil(n);
         let pads = if n == 1 { elements + 1 } else { n + lines(elements) };
         // Leads that must pass the bottom row: everything above it, shared N to a line,
         // spread over the channels, plus the bottom row's own.
-        let above = (rows - 1) * per_row * SEGMENTS + p.icons;
-        let per_channel = lines(above).div_ceil(per_row + 1) + SEGMENTS.div_ceil(n);
+        let above = (rows - 1) * per_row * segments + p.icons;
+        let per_channel = lines(above).div_ceil(per_row + 1) + segments.div_ceil(n);
         let channel = (f64::from(per_channel) * LEAD_PITCH * 1.6 + 0.8).max(1.5);
         let cell = DIGIT_W + DIGIT_H * SLANT_DEG.to_radians().tan() + 1.5 * STROKE;
         let digit_pitch = round_up(cell + channel, 0.05);
-        let row_gap = round_up((f64::from(SEGMENTS.div_ceil(n)) * LEAD_PITCH * 2.0 + 1.5).max(2.5), 0.05);
+        let row_gap = round_up((f64::from(segments.div_ceil(n)) * LEAD_PITCH * 2.0 + 1.5).max(2.5), 0.05);
         let cw = f64::from(per_row) * digit_pitch + channel;
         let icons_per_row = ((cw / ICON_PITCH).floor() as u32).max(1);
-        let icon_rows = p.icons.div_ceil(icons_per_row);
+        // Multiplexed: one band of icons under the bottom row (each shares the SEG line
+        // of the digit above it, which has no point); static: bands above the digits.
+        let icon_rows = if n > 1 { u32::from(p.icons > 0) } else { p.icons.div_ceil(icons_per_row) };
         let ch = f64::from(rows) * (DIGIT_H + row_gap) + f64::from(icon_rows) * ICON_PITCH;
         let pad_pitch = PAD_PITCHES.iter().copied().find(|q| f64::from(pads) * q <= cw).unwrap_or(0.5);
         let pad_row = f64::from(pads) * PAD_SPARE * pad_pitch + 2.0 * (PAD_EDGE + SEAL + 1.5);
@@ -242,7 +254,8 @@ fn digit_rows(y: &mut String, p: &Params, g: &Geometry) -> std::fmt::Result {
         let count = left.min(g.per_row);
         left -= count;
         let name = format!("R{}", char::from(b'A' + r as u8));
-        let oy = g.cy + f64::from(g.rows - 1 - r) * (DIGIT_H + g.row_gap);
+        let below = if p.drive.commons() > 1 { f64::from(g.icon_rows) * ICON_PITCH } else { 0.0 };
+        let oy = g.cy + below + f64::from(g.rows - 1 - r) * (DIGIT_H + g.row_gap);
         writeln!(y, "  - name: {name}")?;
         writeln!(y, "    style: seven")?;
         writeln!(y, "    count: {count}")?;
@@ -253,7 +266,9 @@ fn digit_rows(y: &mut String, p: &Params, g: &Geometry) -> std::fmt::Result {
         writeln!(y, "    slant: {}", mm(SLANT_DEG))?;
         writeln!(y, "    stroke: {}", mm(STROKE))?;
         writeln!(y, "    gap: {}", mm(GAP))?;
-        writeln!(y, "    decimal_points: all")?;
+        if p.drive.commons() == 1 {
+            writeln!(y, "    decimal_points: all")?;
+        }
     }
     Ok(())
 }
@@ -265,6 +280,18 @@ fn icon_band(y: &mut String, p: &Params, g: &Geometry) -> std::fmt::Result {
         return Ok(());
     }
     writeln!(y, "icons:")?;
+    if p.drive.commons() > 1 {
+        // Under each digit of the bottom row, centred below it.
+        let skew = DIGIT_H * SLANT_DEG.to_radians().tan() / 4.0;
+        for k in 0..p.icons {
+            let icon = ICON_NAMES[k as usize % ICON_NAMES.len()];
+            let net = format!("ST{:02}_{}", k + 1, icon.to_uppercase().replace('-', "_"));
+            let x = g.cx + g.channel + f64::from(k) * g.digit_pitch + DIGIT_W / 2.0 - skew;
+            let at = (x, g.cy + ICON / 2.0 + 0.3);
+            writeln!(y, "  - {{name: {net}, icon: {icon}, at: [{}, {}], size: {}, stroke: 0.25}}", mm(at.0), mm(at.1), mm(ICON * 0.8))?;
+        }
+        return Ok(());
+    }
     let base = g.cy + f64::from(g.rows) * (DIGIT_H + g.row_gap);
     let cols = g.icons_per_row.min(p.icons);
     let x0 = g.cx + (g.cw - f64::from(cols) * ICON_PITCH + (ICON_PITCH - ICON)) / 2.0;

@@ -24,7 +24,7 @@ use std::time::Duration;
 #[command(name = "benchmark")]
 struct Args {
     /// Number of seven-segment digits (each with a decimal point).
-    #[arg(long, default_value_t = 32)]
+    #[arg(long, default_value_t = 40)]
     digits: u32,
     /// Number of icons in the band above the digits.
     #[arg(long, default_value_t = 40)]
@@ -41,7 +41,7 @@ struct Args {
     /// Builds per layout; the table gives the shortest and the median.
     #[arg(long, default_value_t = 3)]
     repeat: u32,
-    /// Build 4, 8, 16 and 32 digits (icons scaled in proportion) and print route time
+    /// Build 5, 10, 20 and 40 digits (icons scaled in proportion) and print route time
     /// against digit count.
     #[arg(long)]
     sweep: bool,
@@ -126,7 +126,7 @@ fn print_table(m: &Measured) {
 }
 
 /// Digit counts of the sweep.
-const SWEEP: [u32; 4] = [4, 8, 16, 32];
+const SWEEP: [u32; 4] = [5, 10, 20, 40];
 
 fn sweep(args: &Args) -> Result<(), String> {
     let mut rows_out = Vec::new();
