@@ -70,7 +70,7 @@ mod tests {
         let f = check_artwork(&art);
         let mut rules: Vec<Rule> = f.iter().map(|f| f.rule).collect();
         rules.sort();
-        assert_eq!(rules, vec![Rule::Width, Rule::Ghost, Rule::PadCovered], "{}", show(&f));
+        assert_eq!(rules, vec![Rule::Width, Rule::Ghost, Rule::PadCovered, Rule::DriveTruth], "{}", show(&f));
     }
 }
 
