@@ -14,7 +14,7 @@ use crate::{Error, Result};
 use serde::Serialize;
 
 /// Header line of `NAME.segmap.csv`.
-pub const HEADER: &str = "element,drives,com,com_net,com_pin,seg,seg_net,seg_pin,area_mm2,centroid_x_mm,centroid_y_mm\n";
+pub const HEADER: &str = "element,drives,com,com_net,com_pin,seg,seg_net,seg_pin,area_mm2,centroid_x_mm,centroid_y_mm,coverage\n";
 
 /// One element of the segment map (a row of the CSV, an entry of the JSON).
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -42,6 +42,9 @@ pub struct SegmentRow {
     pub centroid_x_mm: Option<f64>,
     /// Centre of area, y, mm, 4 decimals; `None` for an empty pixel.
     pub centroid_y_mm: Option<f64>,
+    /// Share of the pixel its common's back ITO faces (1 = all of it), 4 decimals;
+    /// `None` for an empty pixel.
+    pub coverage: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -73,7 +76,23 @@ fn row(art: &Artwork, p: &Pixel) -> SegmentRow {
         area_mm2: round4(crate::geom::area(&p.region)),
         centroid_x_mm: c.map(|c| round4(c.x)),
         centroid_y_mm: c.map(|c| round4(c.y)),
+        coverage: coverage(art, p).map(round4),
     }
+}
+
+/// Area of the pixel faced by back ITO of its common, over the pixel's area.
+fn coverage(art: &Artwork, p: &Pixel) -> Option<f64> {
+    use geo::{BoundingRect, Intersects};
+    let whole = crate::geom::area(&p.region);
+    let bbox = p.region.bounding_rect()?;
+    let back = art
+        .shapes
+        .iter()
+        .filter(|s| s.layer == crate::artwork::Layer::BackIto && s.net.as_deref() == Some(p.com_net.as_str()))
+        .filter(|s| s.polygon.bounding_rect().is_some_and(|b| b.intersects(&bbox)))
+        .map(|s| s.polygon.clone());
+    let faced = crate::geom::area(&crate::geom::intersection(&p.region, &crate::geom::region_of(back)));
+    (whole > 0.0).then(|| (faced / whole).min(1.0))
 }
 
 /// Every pixel as a segment-map row, sorted by COM index, SEG line, element name (rows
@@ -101,6 +120,7 @@ pub fn render_segmap_csv(art: &Artwork) -> Vec<u8> {
             fixed4(r.area_mm2),
             r.centroid_x_mm.map(fixed4).unwrap_or_default(),
             r.centroid_y_mm.map(fixed4).unwrap_or_default(),
+            r.coverage.map(fixed4).unwrap_or_default(),
         ];
         out.push_str(&cells.join(","));
         out.push('\n');

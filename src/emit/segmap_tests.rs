@@ -51,10 +51,12 @@ fn two_commons() -> Artwork {
 fn csv_rows_by_hand() {
     let csv = String::from_utf8(render_segmap_csv(&two_commons())).unwrap();
     let want = concat!(
-        "element,drives,com,com_net,com_pin,seg,seg_net,seg_pin,area_mm2,centroid_x_mm,centroid_y_mm\n",
-        "B,B,1,COM1,3,1,SEG1,1,20.0000,12.0000,17.5000\n",
-        "C,\"the \"\"C\"\" bar, alone\",1,COM1,3,2,SEG2,,8.0000,23.2500,16.7500\n",
-        "A,A,2,COM2,4,1,SEG1,1,20.0000,18.0000,17.5000\n",
+        "element,drives,com,com_net,com_pin,seg,seg_net,seg_pin,area_mm2,centroid_x_mm,centroid_y_mm,coverage\n",
+        // Coverage: the fixture's COM1 covers B; only a 0.2 mm² lead end faces C's 8 mm²;
+        // there is no COM2 ITO in the fixture (plane geometry).
+        "B,B,1,COM1,3,1,SEG1,1,20.0000,12.0000,17.5000,1.0000\n",
+        "C,\"the \"\"C\"\" bar, alone\",1,COM1,3,2,SEG2,,8.0000,23.2500,16.7500,0.0250\n",
+        "A,A,2,COM2,4,1,SEG1,1,20.0000,18.0000,17.5000,0.0000\n",
     );
     assert_eq!(csv, want);
 }
@@ -102,7 +104,7 @@ fn unknown_nets_and_empty_pixels_keep_a_row() {
     let mut art = two_commons();
     art.pixels.push(pixel("Z", "nowhere", "COM9", region_of([])));
     let csv = String::from_utf8(render_segmap_csv(&art)).unwrap();
-    assert_eq!(csv.lines().last(), Some("Z,Z,,COM9,,,nowhere,,0.0000,,"));
+    assert_eq!(csv.lines().last(), Some("Z,Z,,COM9,,,nowhere,,0.0000,,,"));
 }
 
 /// Two elements on one (COM, SEG) pair always switch together: reported once each.
