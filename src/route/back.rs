@@ -123,9 +123,9 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
             match join(layout, &mut grid, search, c, &mut tree, isl) {
                 Ok(Some(lead)) => out.push(lead),
                 Ok(None) => {}
-                Err(at) => {
+                Err((at, blockers)) => {
                     ok = false;
-                    notes.push(stuck(c, at));
+                    notes.push(stuck(c, at, &blockers, commons));
                 }
             }
         }
@@ -152,7 +152,7 @@ impl Tree {
 
 /// Joins one island to the tree; the lead drawn, if one was needed, or the place where
 /// the search stopped.
-fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, c: &Common, tree: &mut Tree, isl: &Region) -> Result<Option<Lead>, Pt> {
+fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, c: &Common, tree: &mut Tree, isl: &Region) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
     let mut cells = Vec::new();
     grid.for_cells_in(isl, |i| {
         if grid.owner[i] == c.owner || grid.owner[i] == super::grid::FREE {
@@ -182,7 +182,10 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, c: &Common, tree:
             grid.claim(&keep, c.owner);
             Ok(Some(Lead { net: c.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false }))
         }
-        Err(b) => Err(grid.centre(b.nearest)),
+        Err(b) => {
+            use geo::Centroid;
+            Err((isl.centroid().map(|p| p.0).unwrap_or_else(|| grid.centre(b.nearest)), b.blockers))
+        }
     }
 }
 
@@ -195,19 +198,22 @@ fn nearest_first<'a>(islands: &'a [Region], dot: &Polygon) -> Vec<&'a Region> {
     v
 }
 
-fn stuck(c: &Common, at: Pt) -> Finding {
+fn stuck(c: &Common, at: Pt, blockers: &[u32], commons: &[Common]) -> Finding {
+    let by: Vec<&str> = blockers.iter().filter_map(|&o| commons.iter().find(|x| x.owner == o)).map(|x| x.net.as_str()).take(2).collect();
+    let why = if by.is_empty() {
+        "front leads in the window close the way".to_string()
+    } else {
+        format!("blocked by {} and the front leads in the window", by.join(" and "))
+    };
     Finding {
         rule: Rule::Unroutable,
         severity: Severity::Error,
         plate: Some(PlateId::Back),
-        nets: vec![c.net.clone()],
+        nets: std::iter::once(c.net.clone()).chain(by.iter().map(|n| n.to_string())).collect(),
         location: at,
         measured: None,
         required: None,
-        message: format!(
-            "a part of common electrode {} cannot reach its transfer dot without facing a front lead in the window or another common's pixels",
-            c.net
-        ),
+        message: format!("a part of common electrode {} cannot reach its transfer dot: {why}", c.net),
     }
 }
 
