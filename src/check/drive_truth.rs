@@ -50,6 +50,12 @@ pub fn shared_pairs(art: &Artwork) -> Vec<(String, String)> {
     uses.into_iter().filter(|&(_, n)| n > 1).map(|((c, s), _)| (c.to_string(), s.to_string())).collect()
 }
 
+/// The polygons of `r` whose bounding boxes meet `bbox`.
+fn near(r: &Region, bbox: &geo::Rect<f64>) -> Region {
+    use geo::{BoundingRect, Intersects};
+    region_of(r.0.iter().filter(|p| p.bounding_rect().is_some_and(|b| b.intersects(bbox))).cloned())
+}
+
 /// Compares what each (COM, SEG) pair lights with the pixels assigned to it.
 pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     let lc = region_of([art.lc_region.clone()]);
@@ -59,10 +65,16 @@ pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
         let first = art.pixels.iter().find(|p| p.com_net == com && p.seg_net == seg).map(|p| p.region.clone()).unwrap_or_else(|| region_of([]));
         out.push(finding(&first, vec![seg.clone(), com.clone()], format!("{} share the pair ({com}, {seg}) and would always switch together", names.join(", "))));
     }
+    // Each net's ITO once, then per pixel only the polygons whose boxes meet it.
+    let mut front: std::collections::HashMap<&str, Region> = Default::default();
+    let mut back: std::collections::HashMap<&str, Region> = Default::default();
+    let mut not_back: std::collections::HashMap<&str, Region> = Default::default();
     for p in &art.pixels {
+        use geo::BoundingRect;
+        let Some(bbox) = p.region.bounding_rect() else { continue };
         let designed = geom::intersection(&p.region, &lc);
-        let seg = ito_of(ex, PlateId::Front, &p.seg_net, true);
-        let com = ito_of(ex, PlateId::Back, &p.com_net, true);
+        let seg = near(front.entry(&p.seg_net).or_insert_with(|| ito_of(ex, PlateId::Front, &p.seg_net, true)), &bbox);
+        let com = near(back.entry(&p.com_net).or_insert_with(|| ito_of(ex, PlateId::Back, &p.com_net, true)), &bbox);
         let lit = geom::intersection(&geom::intersection(&designed, &seg), &com);
         let dark = geom::difference(&designed, &lit);
         if geom::area(&dark) > MIN_GHOST_MM2 {
@@ -78,7 +90,7 @@ pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
                 ),
             ));
         }
-        let others = ito_of(ex, PlateId::Back, &p.com_net, false);
+        let others = near(not_back.entry(&p.com_net).or_insert_with(|| ito_of(ex, PlateId::Back, &p.com_net, false)), &bbox);
         let wrong = geom::intersection(&designed, &others);
         if geom::area(&wrong) > MIN_GHOST_MM2 {
             let who = ex.nets_of(&ex.components_meeting(PlateId::Back, &wrong.0[0]));
