@@ -126,48 +126,7 @@ fn is_ito(s: &Shape) -> bool {
 }
 
 fn touches(a: &Polygon, b: &Polygon) -> bool {
-    use geo::{BoundingRect, Contains};
-    let (Some(ba), Some(bb)) = (a.bounding_rect(), b.bounding_rect()) else { return false };
-    // Two polygons touch when some edges of theirs come within TOUCH_MM (this covers
-    // every crossing), or when one lies inside the other. Only edges near the other's
-    // box can come that close, so a long common electrode with thousands of edges is
-    // compared only where it passes a lead, not edge by edge all along.
-    let ea = edges_near(a, &bb);
-    let eb = edges_near(b, &ba);
-    let hit = |(p0, p1): (geom::Pt, geom::Pt), (q0, q1): (geom::Pt, geom::Pt)| geom::segment_closest_points(p0, p1, q0, q1).2 <= TOUCH_MM;
-    if ea.len() * eb.len() <= 4096 {
-        if ea.iter().any(|&e| eb.iter().any(|&f| hit(e, f))) {
-            return true;
-        }
-    } else {
-        // Many edges on both sides (two commons along a whole row): index one side.
-        use rstar::primitives::{GeomWithData, Rectangle};
-        let boxed = |(p, q): (geom::Pt, geom::Pt)| {
-            Rectangle::from_corners([p.x.min(q.x) - TOUCH_MM, p.y.min(q.y) - TOUCH_MM], [p.x.max(q.x) + TOUCH_MM, p.y.max(q.y) + TOUCH_MM])
-        };
-        let tree = rstar::RTree::bulk_load(eb.iter().map(|&f| GeomWithData::new(boxed(f), f)).collect());
-        for &e in &ea {
-            let env = rstar::RTreeObject::envelope(&boxed(e));
-            if tree.locate_in_envelope_intersecting(&env).any(|f| hit(e, f.data)) {
-                return true;
-            }
-        }
-    }
-    let first = |p: &Polygon| p.exterior().0.first().copied();
-    first(b).is_some_and(|v| a.contains(&v)) || first(a).is_some_and(|v| b.contains(&v))
-}
-
-/// The edges of `p` whose boxes meet `r` grown by `TOUCH_MM`.
-fn edges_near(p: &Polygon, r: &geo::Rect<f64>) -> Vec<(geom::Pt, geom::Pt)> {
-    let (lo, hi) = (r.min(), r.max());
-    let near = |a: geom::Pt, b: geom::Pt| {
-        a.x.max(b.x) >= lo.x - TOUCH_MM && a.x.min(b.x) <= hi.x + TOUCH_MM && a.y.max(b.y) >= lo.y - TOUCH_MM && a.y.min(b.y) <= hi.y + TOUCH_MM
-    };
-    std::iter::once(p.exterior())
-        .chain(p.interiors())
-        .flat_map(|ring| ring.0.windows(2).map(|w| (w[0], w[1])))
-        .filter(|&(a, b)| near(a, b))
-        .collect()
+    super::near::distance_below(a, b, 2.0 * TOUCH_MM) <= TOUCH_MM
 }
 
 impl Extraction {

@@ -6,8 +6,9 @@
 //! Pairs that bridging could not harm are skipped: components of one group (already
 //! joined through the dots), components carrying exactly the same nets, and two net-less
 //! pieces (marks). Candidates come from an R-tree of component boxes grown by the limit;
-//! the distance is the exact polygon distance (`geom::distance`, GEOS semantics: 0 when
-//! touching) and the location is midway between the closest points.
+//! the distance is the exact polygon distance below the limit (`near::distance_below`,
+//! GEOS semantics: 0 when touching) and the location is midway between the closest
+//! points.
 
 use super::connectivity::{Component, Extraction};
 use super::index::{bbox_of_region, expand, EdgeIndex};
@@ -85,7 +86,7 @@ fn region_distance(a: &geom::Region, b: &geom::Region, limit: f64) -> f64 {
         for pb in &b.0 {
             let near = super::index::bbox_of_polygon(pb).is_some_and(|bb| rstar::Envelope::intersects(&grown, &bb));
             if near {
-                best = best.min(geom::distance(pa, pb));
+                best = best.min(super::near::distance_below(pa, pb, limit));
             }
         }
     }

@@ -10,6 +10,7 @@ pub mod drive_truth;
 pub mod edge;
 pub mod gap;
 pub mod ghost;
+pub mod near;
 pub mod index;
 pub mod opens;
 pub mod pads;
