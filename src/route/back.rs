@@ -64,24 +64,11 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
         })
         .collect();
     let base = back_grid(layout, &leads, &commons);
-    let mut order: Vec<usize> = (0..commons.len()).collect();
-    let mut best: Option<(Vec<Lead>, Vec<Finding>)> = None;
     let mut search = Search::new(base.nx * base.ny);
-    for _ in 0..ATTEMPTS {
-        let (out, failed, notes) = attempt(layout, &commons, &order, base.clone(), &mut search);
-        let better = best.as_ref().is_none_or(|(_, f)| notes.len() < f.len());
-        if better {
-            best = Some((out, notes));
-        }
-        if failed.is_empty() {
-            break;
-        }
-        order.retain(|i| !failed.contains(i));
-        let mut next = failed;
-        next.extend(order);
-        order = next;
-    }
-    let (out, notes) = best.unwrap_or_default();
+    let (out, notes) = super::retry::rip_up_and_retry((0..commons.len()).collect(), ATTEMPTS, |order| {
+        attempt(layout, &commons, order, base.clone(), &mut search)
+    })
+    .unwrap_or_default();
     findings.extend(notes);
     let kept = commons.iter().flat_map(|c| c.islands.iter().map(|r| (c.net.clone(), r.clone()))).collect();
     BackRoutes { leads: out, kept }

@@ -50,23 +50,10 @@ pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings:
     let mut order: Vec<usize> = (0..nets.len()).collect();
     order.sort_by(|&a, &b| nearest_v(frame, &nets[a]).total_cmp(&nearest_v(frame, &nets[b])));
     let mut search = Search::new(base.nx * base.ny);
-    let mut best: Option<(Escapes, Vec<Finding>)> = None;
-    for _ in 0..ATTEMPTS {
-        let (esc, failed, notes) = attempt(layout, frame, &nets, &order, base.clone(), &mut search);
-        let better = best.as_ref().is_none_or(|(_, f)| notes.len() < f.len());
-        if better {
-            best = Some((esc, notes));
-        }
-        if failed.is_empty() {
-            break;
-        }
-        // Rip up everything and route the stuck nets first next time.
-        order.retain(|i| !failed.contains(i));
-        let mut next = failed;
-        next.extend(order);
-        order = next;
-    }
-    let (esc, notes) = best.expect("at least one attempt runs");
+    let (esc, notes) = super::retry::rip_up_and_retry(order, ATTEMPTS, |order| {
+        attempt(layout, frame, &nets, order, base.clone(), &mut search)
+    })
+    .unwrap_or_default();
     findings.extend(notes);
     esc
 }

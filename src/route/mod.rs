@@ -18,6 +18,7 @@ pub mod dots;
 pub mod escape;
 pub mod fanout;
 pub mod grid;
+pub mod retry;
 pub mod search;
 pub mod side;
 

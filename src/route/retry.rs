@@ -1,0 +1,59 @@
+//! Rip-up and retry: route every net in an order; when some are stuck, rip everything up
+//! and route the stuck ones first next time; keep the attempt with the fewest findings.
+
+use crate::finding::Finding;
+
+/// What one attempt gives: its result, the nets (indices) that were stuck, its findings.
+pub type Attempt<T> = (T, Vec<usize>, Vec<Finding>);
+
+/// Runs `attempt` up to `rounds` times starting from `order`, moving the stuck nets to the
+/// front each time; returns the result with the fewest findings (the first on ties), or
+/// `None` when `rounds` is 0.
+pub fn rip_up_and_retry<T>(mut order: Vec<usize>, rounds: usize, mut attempt: impl FnMut(&[usize]) -> Attempt<T>) -> Option<(T, Vec<Finding>)> {
+    let mut best: Option<(T, Vec<Finding>)> = None;
+    for _ in 0..rounds {
+        let (result, failed, notes) = attempt(&order);
+        if best.as_ref().is_none_or(|(_, f)| notes.len() < f.len()) {
+            best = Some((result, notes));
+        }
+        if failed.is_empty() {
+            break;
+        }
+        order.retain(|i| !failed.contains(i));
+        let mut next = failed;
+        next.extend(order);
+        order = next;
+    }
+    best
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Net 2 fails unless it goes first: the second round puts it first and succeeds.
+    #[test]
+    fn stuck_nets_go_first_next_time() {
+        let mut orders = Vec::new();
+        let r = rip_up_and_retry(vec![0, 1, 2], 5, |order| {
+            orders.push(order.to_vec());
+            let failed = if order[0] == 2 { vec![] } else { vec![2] };
+            let notes = failed
+                .iter()
+                .map(|_| Finding {
+                    rule: crate::finding::Rule::Unroutable,
+                    severity: crate::finding::Severity::Error,
+                    plate: None,
+                    nets: vec!["N2".into()],
+                    location: crate::geom::pt(0.0, 0.0),
+                    measured: None,
+                    required: None,
+                    message: "stuck".into(),
+                })
+                .collect();
+            (order.to_vec(), failed, notes)
+        });
+        assert_eq!(orders, [vec![0, 1, 2], vec![2, 0, 1]]);
+        assert_eq!(r.unwrap().0, vec![2, 0, 1]);
+    }
+}
