@@ -162,6 +162,8 @@ pub struct Pin {
 pub struct Pixel {
     /// Element name (same as its segment net under static drive).
     pub element: String,
+    /// What it shows, for people ("digit 1 segment a", "legend \"HOLD\"").
+    pub drives: String,
     /// Front-plate net (SEG line).
     pub seg_net: String,
     /// Back-plate net (COM).

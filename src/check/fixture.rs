@@ -109,6 +109,7 @@ pub fn clean() -> Artwork {
     let pin = |number, net: &str, x: f64| Pin { number, net: net.into(), pad: rect(x, 1.0, x + 2.0, 4.0) };
     let pixel = |name: &str, x: f64| Pixel {
         element: name.into(),
+        drives: format!("fixture {name}"),
         seg_net: name.into(),
         com_net: "COM1".into(),
         region: region_of([rect(x, 15.0, x + 4.0, 20.0)]),

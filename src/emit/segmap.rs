@@ -21,8 +21,7 @@ pub const HEADER: &str = "element,drives,com,com_net,com_pin,seg,seg_net,seg_pin
 pub struct SegmentRow {
     /// Element name (`D1.a`, `deg`, …).
     pub element: String,
-    /// What it shows, for people: its SEG net's `drives` when that net drives this
-    /// element alone (static drive), else the element name.
+    /// What it shows, for people (the element's own description).
     pub drives: String,
     /// 1-based COM index; `None` when the COM net is not in the net list.
     pub com: Option<u32>,
@@ -61,8 +60,7 @@ fn lowest_pin(art: &Artwork, net: &str) -> Option<u32> {
 
 fn row(art: &Artwork, p: &Pixel) -> SegmentRow {
     let seg = art.net(&p.seg_net);
-    let alone = art.pixels.iter().filter(|q| q.seg_net == p.seg_net).count() == 1;
-    let drives = seg.filter(|_| alone).map(|n| n.drives.clone()).unwrap_or_else(|| p.element.clone());
+    let drives = p.drives.clone();
     let c = crate::geom::centroid(&p.region);
     SegmentRow {
         element: p.element.clone(),

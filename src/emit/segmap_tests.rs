@@ -10,7 +10,7 @@ fn net(name: &str, plate: PlateId, kind: NetKind, index: u32, drives: &str) -> N
 }
 
 fn pixel(element: &str, seg: &str, com: &str, region: crate::geom::Region) -> Pixel {
-    Pixel { element: element.into(), seg_net: seg.into(), com_net: com.into(), region }
+    Pixel { element: element.into(), drives: element.into(), seg_net: seg.into(), com_net: com.into(), region }
 }
 
 /// 1/2 duty at 1/2 bias, two commons, two SEG lines, three elements:
@@ -40,6 +40,7 @@ fn two_commons() -> Artwork {
         pixel("A", "SEG1", "COM2", region_of([rect(16.0, 15.0, 20.0, 20.0)])),
         pixel("B", "SEG1", "COM1", region_of([rect(10.0, 15.0, 14.0, 20.0)])),
     ];
+    art.pixels[0].drives = "the \"C\" bar, alone".into();
     art
 }
 

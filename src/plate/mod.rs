@@ -133,7 +133,7 @@ fn pixels(el: &Electrodes) -> Vec<Pixel> {
         .enumerate()
         .map(|(i, e)| {
             let (seg, com) = el.nets_of(i);
-            Pixel { element: e.name.clone(), seg_net: seg.to_string(), com_net: com.to_string(), region: e.outline.clone() }
+            Pixel { element: e.name.clone(), drives: e.drives.clone(), seg_net: seg.to_string(), com_net: com.to_string(), region: e.outline.clone() }
         })
         .collect()
 }

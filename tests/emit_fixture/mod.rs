@@ -119,6 +119,7 @@ pub fn artwork() -> Artwork {
         pins: vec![Pin { number: 2, net: "COM1".into(), pad: pad2 }, Pin { number: 1, net: "S1".into(), pad: pad1 }],
         pixels: vec![Pixel {
             element: "S1".into(),
+            drives: "S1".into(),
             seg_net: "S1".into(),
             com_net: "COM1".into(),
             region: geo::MultiPolygon(vec![seg]),
