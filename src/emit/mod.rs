@@ -73,9 +73,10 @@ pub fn render_outputs(art: &Artwork, findings: &[Finding], opts: &EmitOptions) -
         out.push(file("gds", gdsii::render_gds(art, date)?));
     }
     out.push(file("pins.csv", pins::render_pins(art)));
-    out.push(file("segmap.csv", segmap::render_segmap_csv(art)));
-    out.push(file("segmap.json", segmap::render_segmap_json(art)?));
-    out.push(file("report.json", report::render_report(art, findings)?));
+    let rows = segmap::segment_rows(art);
+    out.push(file("segmap.csv", segmap::csv_of(&rows)));
+    out.push(file("segmap.json", segmap::json_of(art, rows.clone())?));
+    out.push(file("report.json", report::render_report(art, findings, rows)?));
     Ok(out)
 }
 

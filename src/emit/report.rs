@@ -6,7 +6,7 @@
 //! errors and warnings. Keys end in their unit (`_mm`, `_mm2`).
 
 use super::drive_info::{DriveSummary, drive_summary};
-use super::segmap::{SegmentRow, segment_rows};
+use super::segmap::SegmentRow;
 use crate::artwork::{Artwork, Layer, NetKind};
 use crate::finding::{Finding, Severity, count};
 use crate::layout::Resist;
@@ -118,8 +118,9 @@ fn finding_row(f: &Finding) -> FindingRow<'_> {
     }
 }
 
-/// The report of an artwork and its findings.
-pub fn render_report(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
+/// The report of an artwork and its findings, with the segment-map rows already made
+/// (`segmap::segment_rows`, which measures every pixel's coverage: made once per build).
+pub fn render_report(art: &Artwork, findings: &[Finding], segments: Vec<SegmentRow>) -> Result<Vec<u8>> {
     let layers = Layer::ALL
         .iter()
         .map(|&l| {
@@ -147,7 +148,7 @@ pub fn render_report(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
         rules: rules(art),
         layers,
         nets,
-        segments: segment_rows(art),
+        segments,
         drive: drive_summary(art),
         findings: findings.iter().map(finding_row).collect(),
         summary: Summary { errors: count(findings, Severity::Error), warnings: count(findings, Severity::Warning) },

@@ -104,8 +104,13 @@ pub fn segment_rows(art: &Artwork) -> Vec<SegmentRow> {
 
 /// `NAME.segmap.csv`: the header and one row per pixel; absent values are empty cells.
 pub fn render_segmap_csv(art: &Artwork) -> Vec<u8> {
+    csv_of(&segment_rows(art))
+}
+
+/// The CSV of rows already made (`segment_rows`).
+pub fn csv_of(rows: &[SegmentRow]) -> Vec<u8> {
     let mut out = String::from(HEADER);
-    for r in segment_rows(art) {
+    for r in rows.iter().cloned() {
         let cells = [
             field(&r.element),
             field(&r.drives),
@@ -129,7 +134,12 @@ pub fn render_segmap_csv(art: &Artwork) -> Vec<u8> {
 /// `NAME.segmap.json`: `{"name", "duty", "bias", "elements": [rows]}`, pretty-printed;
 /// absent values are `null`.
 pub fn render_segmap_json(art: &Artwork) -> Result<Vec<u8>> {
-    let doc = SegmapJson { name: &art.name, duty: duty_name(art.drive), bias: bias_name(art.drive), elements: segment_rows(art) };
+    json_of(art, segment_rows(art))
+}
+
+/// The JSON of rows already made (`segment_rows`).
+pub fn json_of(art: &Artwork, rows: Vec<SegmentRow>) -> Result<Vec<u8>> {
+    let doc = SegmapJson { name: &art.name, duty: duty_name(art.drive), bias: bias_name(art.drive), elements: rows };
     let mut bytes = serde_json::to_vec_pretty(&doc).map_err(|e| Error::Bug(format!("segment map JSON: {e}")))?;
     bytes.push(b'\n');
     Ok(bytes)
