@@ -1,28 +1,17 @@
 //! The segment map, pin map and drive summary as the real `segmask build` writes them
 //! for a demo layout (static drive).
 
+mod demo_build;
+
 use serde_json::Value;
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
 const DEMO: &str = "conductivity-meter";
 
 /// Builds the demo into a fresh folder; gives the folder (kept alive) and the output dir.
 fn build() -> (tempfile::TempDir, PathBuf) {
-    let dir = tempfile::tempdir().unwrap();
-    let out = dir.path().join("out");
-    let layout = Path::new(env!("CARGO_MANIFEST_DIR")).join("demo-layouts").join(format!("{DEMO}.yaml"));
-    let o = Command::new(env!("CARGO_BIN_EXE_segmask"))
-        .arg("build")
-        .arg(&layout)
-        .arg("--out")
-        .arg(&out)
-        .args(["--date", "2026-12-01"])
-        .output()
-        .unwrap();
-    assert_eq!(o.status.code(), Some(0), "{DEMO} must build clean:\n{}", String::from_utf8_lossy(&o.stderr));
-    (dir, out)
+    demo_build::build_demo(DEMO)
 }
 
 /// Reads a CSV table per RFC 4180 §2 (written here independently of the writer): fields

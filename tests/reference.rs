@@ -3,6 +3,8 @@
 //! installed by this test into a virtual environment under `target/`. The test fails,
 //! never skips, when Python or the packages cannot be set up.
 
+mod demo_build;
+
 use std::path::{Path, PathBuf};
 use std::process::Command;
 use std::sync::OnceLock;
@@ -36,18 +38,7 @@ fn python() -> &'static Path {
 }
 
 fn build_demo(name: &str) -> (tempfile::TempDir, PathBuf, PathBuf) {
-    let dir = tempfile::tempdir().unwrap();
-    let out = dir.path().join("out");
-    let layout = root().join("demo-layouts").join(format!("{name}.yaml"));
-    let o = Command::new(env!("CARGO_BIN_EXE_segmask"))
-        .arg("build")
-        .arg(&layout)
-        .arg("--out")
-        .arg(&out)
-        .args(["--date", "2026-12-01"])
-        .output()
-        .unwrap();
-    assert_eq!(o.status.code(), Some(0), "{name} must build clean:\n{}", String::from_utf8_lossy(&o.stderr));
+    let (dir, out) = demo_build::build_demo(name);
     let gds = out.join(format!("{name}.gds"));
     let report = out.join(format!("{name}.report.json"));
     (dir, gds, report)
