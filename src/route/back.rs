@@ -11,6 +11,8 @@
 
 use super::grid::Grid;
 use super::search::{corners, Search};
+use super::corridor::{find_guided, Corridors};
+use super::target::Targets;
 use super::{Lead, TransferSite};
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
@@ -100,14 +102,16 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
     let mut out = Vec::new();
     let mut failed = Vec::new();
     let mut notes = Vec::new();
+    let mut tree = Targets::new(&grid);
+    let mut corridors = Corridors::new(&grid);
     for &k in order {
         let c = &commons[k];
         let Some(dot) = &c.dot else { continue };
-        let mut tree = Tree::new(grid.owner.len());
+        tree.clear();
         grid.for_cells_in(&region_of([dot.clone()]), |i| tree.add(i));
         let mut ok = true;
         for isl in nearest_first(&c.islands, dot) {
-            match join(layout, &mut grid, search, c, &mut tree, isl) {
+            match join(layout, &mut grid, search, &mut corridors, c, &mut tree, isl) {
                 Ok(Some(lead)) => out.push(lead),
                 Ok(None) => {}
                 Err((at, blockers)) => {
@@ -123,37 +127,22 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
     (out, failed, notes)
 }
 
-/// Cells joined to a common's dot so far.
-struct Tree {
-    member: Vec<bool>,
-}
-
-impl Tree {
-    fn new(cells: usize) -> Tree {
-        Tree { member: vec![false; cells] }
-    }
-    fn add(&mut self, c: usize) {
-        self.member[c] = true;
-    }
-}
-
 /// Joins one island to the tree; the lead drawn, if one was needed, or the place where
 /// the search stopped.
-fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, c: &Common, tree: &mut Tree, isl: &Region) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
+fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut Corridors, c: &Common, tree: &mut Targets, isl: &Region) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
     let mut cells = Vec::new();
     grid.for_cells_in(isl, |i| {
         if grid.owner[i] == c.owner || grid.owner[i] == super::grid::FREE {
             cells.push(i)
         }
     });
-    if cells.is_empty() || cells.iter().any(|&i| tree.member[i]) {
+    if cells.is_empty() || cells.iter().any(|&i| tree.contains(i)) {
         for i in cells {
             tree.add(i);
         }
         return Ok(None);
     }
-    let t = &tree.member;
-    match search.find(grid, c.owner, &cells, |i| t[i], |_| 0.0) {
+    match find_guided(search, corridors, grid, c.owner, &cells, &*tree) {
         Ok(path) => {
             let pts = corners(grid, &path);
             for &i in path.iter().chain(cells.iter()) {

@@ -4,6 +4,8 @@
 
 use super::grid::Grid;
 use super::search::{corners, Search};
+use super::corridor::{find_guided, Corridors, Goal, TileGeom};
+use super::target::Targets;
 use super::side::SideFrame;
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
@@ -129,37 +131,32 @@ fn attempt(layout: &Layout, frame: &SideFrame, nets: &[NetPieces], order: &[usiz
     let mut notes = Vec::new();
     let h = grid.h;
     let k = keepout(layout, h);
+    let mut joined = Targets::new(&grid);
+    let mut corridors = Corridors::new(&grid);
     for &i in order {
         let owner = i as u32 + 1;
         let n = &nets[i];
         let mut tree: Vec<usize> = Vec::new();
-        let mut in_tree = vec![false; 0];
+        joined.clear();
         let mut ok = true;
         for (pi, piece) in n.pieces.iter().enumerate() {
             let cells = piece_cells(&grid, piece, owner);
-            if pi == 0 {
-                in_tree = vec![false; grid.owner.len()];
+            if pi == 0 || cells.iter().any(|&c| joined.contains(c)) {
                 for &c in &cells {
-                    in_tree[c] = true;
-                }
-                tree.extend(cells);
-                continue;
-            }
-            if cells.iter().any(|&c| in_tree[c]) {
-                tree.extend(cells.iter().copied().filter(|&c| !in_tree[c]));
-                for &c in &cells {
-                    in_tree[c] = true;
+                    if !joined.contains(c) {
+                        joined.add(c);
+                        tree.push(c);
+                    }
                 }
                 continue;
             }
-            let it = &in_tree;
-            match search.find(&grid, owner, &cells, |c| it[c], |_| 0.0) {
+            match find_guided(search, &mut corridors, &grid, owner, &cells, &joined) {
                 Ok(path) => {
                     let pts = corners(&grid, &path);
                     claim_lead(&mut grid, layout, &pts, owner, k);
                     for &c in path.iter().chain(cells.iter()) {
-                        if !in_tree[c] {
-                            in_tree[c] = true;
+                        if !joined.contains(c) {
+                            joined.add(c);
                             tree.push(c);
                         }
                     }
@@ -176,10 +173,8 @@ fn attempt(layout: &Layout, frame: &SideFrame, nets: &[NetPieces], order: &[usiz
             failed.push(i);
             continue;
         }
-        let v_goal = frame.v_lc;
-        let goal = |c: usize| frame.to_local(grid.centre(c)).y < v_goal;
-        let heur = |c: usize| ((frame.to_local(grid.centre(c)).y - v_goal) / h).max(0.0) as f32;
-        match search.find(&grid, owner, &tree, goal, heur) {
+        let goal = SealBand { frame, grid: &grid, v_goal: frame.v_lc };
+        match find_guided(search, &mut corridors, &grid, owner, &tree, &goal) {
             Ok(path) => {
                 let pts = corners(&grid, &path);
                 claim_lead(&mut grid, layout, &pts, owner, k);
@@ -192,6 +187,25 @@ fn attempt(layout: &Layout, frame: &SideFrame, nets: &[NetPieces], order: &[usiz
         }
     }
     (esc, failed, notes)
+}
+
+/// The escape ends in the seal band on the pad side: below `v_goal` in the side's frame.
+struct SealBand<'a> {
+    frame: &'a SideFrame,
+    grid: &'a Grid,
+    v_goal: f64,
+}
+
+impl Goal for SealBand<'_> {
+    fn is_goal(&self, c: usize) -> bool {
+        self.frame.to_local(self.grid.centre(c)).y < self.v_goal
+    }
+    fn is_goal_tile(&self, tiles: &TileGeom, t: usize) -> bool {
+        tiles.corner_cells(t).iter().any(|&c| self.is_goal(c))
+    }
+    fn bound(&self, c: usize) -> f32 {
+        ((self.frame.to_local(self.grid.centre(c)).y - self.v_goal) / self.grid.h).max(0.0) as f32
+    }
 }
 
 /// Cells inside a piece that its own net may use; at least the cell nearest its centre.

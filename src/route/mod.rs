@@ -14,6 +14,7 @@
 //!    the window.
 
 pub mod back;
+pub mod corridor;
 pub mod dots;
 pub mod escape;
 pub mod fanout;
@@ -21,6 +22,7 @@ pub mod grid;
 pub mod retry;
 pub mod search;
 pub mod side;
+pub mod target;
 
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};

@@ -12,6 +12,8 @@ const TURN_PENALTY: f32 = 3.0;
 /// Reusable search state (so a search does not clear millions of cells).
 pub struct Search {
     g: Vec<f32>,
+    /// The heuristic of each cell reached in this search, computed once.
+    hv: Vec<f32>,
     dir: Vec<u8>,
     parent: Vec<u32>,
     stamp: Vec<u32>,
@@ -47,7 +49,7 @@ impl Ord for Open {
 impl Search {
     /// State for grids of `cells` cells.
     pub fn new(cells: usize) -> Search {
-        Search { g: vec![0.0; cells], dir: vec![8; cells], parent: vec![0; cells], stamp: vec![0; cells], generation: 0 }
+        Search { g: vec![0.0; cells], hv: vec![0.0; cells], dir: vec![8; cells], parent: vec![0; cells], stamp: vec![0; cells], generation: 0 }
     }
 
     /// Finds the cheapest path from any of `sources` to a cell where `goal` holds, moving
@@ -61,6 +63,20 @@ impl Search {
         goal: impl Fn(usize) -> bool,
         heuristic: impl Fn(usize) -> f32,
     ) -> Result<Vec<usize>, Blocked> {
+        self.find_within(grid, owner, sources, goal, heuristic, |_| true)
+    }
+
+    /// As `find`, but never entering a cell where `allowed` is false (the corridor of a
+    /// coarse search; sources are always allowed).
+    pub fn find_within(
+        &mut self,
+        grid: &Grid,
+        owner: u32,
+        sources: &[usize],
+        goal: impl Fn(usize) -> bool,
+        heuristic: impl Fn(usize) -> f32,
+        allowed: impl Fn(usize) -> bool,
+    ) -> Result<Vec<usize>, Blocked> {
         self.generation += 1;
         let stamp_now = self.generation;
         let mut open = BinaryHeap::new();
@@ -70,22 +86,23 @@ impl Search {
             if self.stamp[s] != stamp_now {
                 self.stamp[s] = stamp_now;
                 self.g[s] = 0.0;
+                self.hv[s] = heuristic(s);
                 self.dir[s] = 8;
                 self.parent[s] = s as u32;
-                open.push(Open { f: heuristic(s), cell: s as u32 });
+                open.push(Open { f: self.hv[s], cell: s as u32 });
             }
         }
         let (nx, ny) = (grid.nx as i64, grid.ny as i64);
         while let Some(Open { f, cell }) = open.pop() {
             let c = cell as usize;
             let gc = self.g[c];
-            if f - heuristic(c) > gc + 1e-3 {
+            let hc = self.hv[c];
+            if f - hc > gc + 1e-3 {
                 continue; // stale entry
             }
             if goal(c) {
                 return Ok(self.path_to(c));
             }
-            let hc = heuristic(c);
             if hc < nearest.0 {
                 nearest = (hc, c);
             }
@@ -96,6 +113,9 @@ impl Search {
                     continue;
                 }
                 let n = (y * nx + x) as usize;
+                if !allowed(n) {
+                    continue;
+                }
                 let o = grid.owner[n];
                 if o != FREE && o != owner {
                     if o != BLOCKED {
@@ -118,12 +138,16 @@ impl Search {
                 let step = if d % 2 == 1 { std::f32::consts::SQRT_2 } else { 1.0 };
                 let turn = if self.dir[c] != 8 && self.dir[c] as usize != d { TURN_PENALTY } else { 0.0 };
                 let ng = gc + step * (1.0 + extra) + turn;
-                if self.stamp[n] != stamp_now || ng < self.g[n] {
-                    self.stamp[n] = stamp_now;
+                let fresh = self.stamp[n] != stamp_now;
+                if fresh || ng < self.g[n] {
+                    if fresh {
+                        self.stamp[n] = stamp_now;
+                        self.hv[n] = heuristic(n);
+                    }
                     self.g[n] = ng;
                     self.dir[n] = d as u8;
                     self.parent[n] = c as u32;
-                    open.push(Open { f: ng + heuristic(n), cell: n as u32 });
+                    open.push(Open { f: ng + self.hv[n], cell: n as u32 });
                 }
             }
         }

@@ -1,0 +1,340 @@
+//! Corridors: a coarse search over tiles bounds where the fine search may run.
+//!
+//! Takes the routing grid, a net, its source cells and its goal; gives a set of tiles — the
+//! cheapest coarse path grown by a margin — inside which the fine A* search looks for the
+//! lead. This is global routing followed by detailed routing inside each net's corridor, as
+//! taught for VLSI routing (Kahng, Lienig, Markov & Hu, *VLSI Physical Design*, ch. 5–6),
+//! reduced to one net at a time: the coarse graph has one node per tile of `TILE` × `TILE`
+//! cells, so its search touches about 1/64 of the cells the fine search would, and the fine
+//! search then explores only the corridor instead of flooding around every obstacle.
+//!
+//! A tile is passable when it has at least one cell the net may use; its cost per cell is
+//! the mean cost of those cells, so costly zones (bodies, hidden crossings) steer the coarse
+//! path as they steer the fine one. The coarse graph is optimistic — a tile passable on its
+//! own may not let a lead through — so a fine search that fails inside its corridor is run
+//! again without one; the corridor only saves time, it never loses a route.
+//!
+//! Every buffer is allocated once per router and reset by stamp, never per search.
+
+use super::grid::{Grid, FREE};
+use super::search::{Blocked, Search};
+use std::cmp::Ordering;
+use std::collections::BinaryHeap;
+
+/// Side of a tile, in grid cells.
+pub const TILE: usize = 8;
+
+/// The tile (column, row) of cell `c` of a grid `nx` cells wide.
+pub fn tile_of(nx: usize, c: usize) -> (usize, usize) {
+    ((c % nx) / TILE, (c / nx) / TILE)
+}
+
+/// How a grid divides into tiles.
+#[derive(Debug, Clone, Copy)]
+pub struct TileGeom {
+    /// Tiles across.
+    pub ntx: usize,
+    /// Tiles down.
+    pub nty: usize,
+    nx: usize,
+    ny: usize,
+}
+
+impl TileGeom {
+    /// The tiles of `grid`.
+    pub fn of(grid: &Grid) -> TileGeom {
+        TileGeom { ntx: grid.nx.div_ceil(TILE), nty: grid.ny.div_ceil(TILE), nx: grid.nx, ny: grid.ny }
+    }
+
+    /// The tile index of cell `c`.
+    pub fn tile_index(&self, c: usize) -> usize {
+        let (tx, ty) = tile_of(self.nx, c);
+        ty * self.ntx + tx
+    }
+
+    /// The (column, row) of tile `t`.
+    pub fn column_row(&self, t: usize) -> (usize, usize) {
+        (t % self.ntx, t / self.ntx)
+    }
+
+    /// The centre cell of tile `t` (clamped to the grid).
+    pub fn centre_cell(&self, t: usize) -> usize {
+        let (tx, ty) = self.column_row(t);
+        let x = (tx * TILE + TILE / 2).min(self.nx - 1);
+        let y = (ty * TILE + TILE / 2).min(self.ny - 1);
+        y * self.nx + x
+    }
+
+    /// The cells at the corners of tile `t` (clamped to the grid).
+    pub fn corner_cells(&self, t: usize) -> [usize; 4] {
+        let (tx, ty) = self.column_row(t);
+        let (x0, y0) = (tx * TILE, ty * TILE);
+        let (x1, y1) = ((x0 + TILE - 1).min(self.nx - 1), (y0 + TILE - 1).min(self.ny - 1));
+        [y0 * self.nx + x0, y0 * self.nx + x1, y1 * self.nx + x0, y1 * self.nx + x1]
+    }
+}
+
+/// Coarse search state and the corridor it found last.
+pub struct Corridors {
+    tiles: TileGeom,
+    ntx: usize,
+    nty: usize,
+    generation: u32,
+    stamp: Vec<u32>,
+    g: Vec<f32>,
+    h: Vec<f32>,
+    factor: Vec<f32>,
+    parent: Vec<u32>,
+    mask: Vec<u32>,
+}
+
+#[derive(PartialEq)]
+struct Open {
+    f: f32,
+    tile: u32,
+}
+impl Eq for Open {}
+impl PartialOrd for Open {
+    fn partial_cmp(&self, o: &Self) -> Option<Ordering> {
+        Some(self.cmp(o))
+    }
+}
+impl Ord for Open {
+    fn cmp(&self, o: &Self) -> Ordering {
+        o.f.total_cmp(&self.f).then(o.tile.cmp(&self.tile))
+    }
+}
+
+const DIRS: [(i64, i64); 8] = [(1, 0), (1, 1), (0, 1), (-1, 1), (-1, 0), (-1, -1), (0, -1), (1, -1)];
+
+impl Corridors {
+    /// State for the tiles of `grid`.
+    pub fn new(grid: &Grid) -> Corridors {
+        let tiles = TileGeom::of(grid);
+        let (ntx, nty) = (tiles.ntx, tiles.nty);
+        let n = ntx * nty;
+        Corridors {
+            tiles,
+            ntx,
+            nty,
+            generation: 0,
+            stamp: vec![0; n],
+            g: vec![0.0; n],
+            h: vec![0.0; n],
+            factor: vec![0.0; n],
+            parent: vec![0; n],
+            mask: vec![0; n],
+        }
+    }
+
+    /// How the grid divides into tiles.
+    pub fn tiles(&self) -> TileGeom {
+        self.tiles
+    }
+
+    fn tile_index(&self, _grid: &Grid, c: usize) -> usize {
+        self.tiles.tile_index(c)
+    }
+
+    /// Mean step factor (1 + extra cost) over the cells of tile `t` that `owner` may use,
+    /// or infinity when it may use none.
+    fn tile_factor(&self, grid: &Grid, owner: u32, t: usize) -> f32 {
+        let (tx, ty) = (t % self.ntx, t / self.ntx);
+        let (x0, y0) = (tx * TILE, ty * TILE);
+        let (x1, y1) = ((x0 + TILE).min(grid.nx), (y0 + TILE).min(grid.ny));
+        let (mut sum, mut n) = (0.0f32, 0u32);
+        for y in y0..y1 {
+            for i in y * grid.nx + x0..y * grid.nx + x1 {
+                let o = grid.owner[i];
+                let extra = grid.cost[i];
+                if (o == FREE || o == owner) && extra.is_finite() {
+                    sum += 1.0 + extra;
+                    n += 1;
+                }
+            }
+        }
+        if (n as usize) < TILE { f32::INFINITY } else { sum / n as f32 }
+    }
+
+    /// Searches the tiles from those of `sources` to one where `goal` holds (a tile index),
+    /// with `heuristic` a lower bound in cells from a tile to the goal; on success marks the
+    /// path's tiles grown by `margin` tiles (and the source tiles) as the corridor and
+    /// returns true.
+    pub fn plan(
+        &mut self,
+        grid: &Grid,
+        owner: u32,
+        sources: &[usize],
+        goal: impl Fn(usize) -> bool,
+        heuristic: impl Fn(usize) -> f32,
+        margin: usize,
+    ) -> bool {
+        self.generation += 1;
+        let now = self.generation;
+        let mut open = BinaryHeap::new();
+        for &s in sources {
+            let t = self.tile_index(grid, s);
+            if self.stamp[t] != now {
+                self.stamp[t] = now;
+                self.g[t] = 0.0;
+                self.h[t] = heuristic(t);
+                self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
+                self.parent[t] = t as u32;
+                open.push(Open { f: self.h[t], tile: t as u32 });
+            }
+        }
+        let step = TILE as f32;
+        let (ntx, nty) = (self.ntx as i64, self.nty as i64);
+        while let Some(Open { f, tile }) = open.pop() {
+            let t = tile as usize;
+            if f - self.h[t] > self.g[t] + 1e-3 {
+                continue;
+            }
+            if goal(t) {
+                self.mark(t, sources, grid, margin);
+                return true;
+            }
+            let (tx, ty) = ((t % self.ntx) as i64, (t / self.ntx) as i64);
+            for (d, (dx, dy)) in DIRS.iter().enumerate() {
+                let (x, y) = (tx + dx, ty + dy);
+                if x < 0 || y < 0 || x >= ntx || y >= nty {
+                    continue;
+                }
+                let n = (y * ntx + x) as usize;
+                let fresh = self.stamp[n] != now;
+                if fresh {
+                    self.factor[n] = self.tile_factor(grid, owner, n);
+                }
+                let fac = self.factor[n];
+                if fac.is_infinite() {
+                    self.stamp[n] = now;
+                    self.g[n] = f32::INFINITY;
+                    continue;
+                }
+                let len = if d % 2 == 1 { step * std::f32::consts::SQRT_2 } else { step };
+                let ng = self.g[t] + len * (self.factor[t] + fac) / 2.0;
+                if fresh || ng < self.g[n] {
+                    if fresh {
+                        self.stamp[n] = now;
+                        self.h[n] = heuristic(n);
+                    }
+                    self.g[n] = ng;
+                    self.parent[n] = t as u32;
+                    open.push(Open { f: ng + self.h[n], tile: n as u32 });
+                }
+            }
+        }
+        false
+    }
+
+    fn mark(&mut self, mut t: usize, sources: &[usize], grid: &Grid, margin: usize) {
+        let now = self.generation;
+        let m = margin as i64;
+        let grow = |mask: &mut Vec<u32>, t: usize| {
+            let (tx, ty) = ((t % self.ntx) as i64, (t / self.ntx) as i64);
+            for y in (ty - m).max(0)..=(ty + m).min(self.nty as i64 - 1) {
+                for x in (tx - m).max(0)..=(tx + m).min(self.ntx as i64 - 1) {
+                    mask[(y * self.ntx as i64 + x) as usize] = now;
+                }
+            }
+        };
+        loop {
+            grow(&mut self.mask, t);
+            let p = self.parent[t] as usize;
+            if p == t {
+                break;
+            }
+            t = p;
+        }
+        for &s in sources {
+            let (tx, ty) = tile_of(grid.nx, s);
+            self.mask[ty * self.ntx + tx] = now;
+        }
+    }
+
+    /// Whether cell `c` lies in the corridor of the last successful `plan`.
+    pub fn allows(&self, grid: &Grid, c: usize) -> bool {
+        self.mask[self.tile_index(grid, c)] == self.generation
+    }
+}
+
+/// Tiles of margin on each side of the coarse path.
+const MARGIN: usize = 2;
+
+/// A goal for a guided search: which cells end it, which tiles may hold such cells, and
+/// lower bounds (in cells) on the cost to reach it from a cell and from a tile.
+pub trait Goal {
+    /// Whether cell `c` ends the search.
+    fn is_goal(&self, c: usize) -> bool;
+    /// Whether tile `t` may hold a goal cell.
+    fn is_goal_tile(&self, tiles: &TileGeom, t: usize) -> bool;
+    /// A lower bound on the cost from cell `c` to the goal.
+    fn bound(&self, c: usize) -> f32;
+}
+
+/// Finds the lead from `sources` to `goal`: a coarse path over the tiles first, then the
+/// fine search inside its corridor; the fine search over the whole grid when there is no
+/// coarse path or the corridor turns out too narrow, so that a failure always reports what
+/// blocks the net on the whole grid.
+pub fn find_guided(
+    search: &mut Search,
+    corridors: &mut Corridors,
+    grid: &Grid,
+    owner: u32,
+    sources: &[usize],
+    goal: &impl Goal,
+) -> Result<Vec<usize>, Blocked> {
+    let half_diagonal = TILE as f32 * std::f32::consts::FRAC_1_SQRT_2;
+    let tiles = corridors.tiles();
+    let planned = corridors.plan(
+        grid,
+        owner,
+        sources,
+        |t| goal.is_goal_tile(&tiles, t),
+        |t| (goal.bound(tiles.centre_cell(t)) - half_diagonal).max(0.0),
+        MARGIN,
+    );
+    if planned {
+        let c = &*corridors;
+        if let Ok(path) = search.find_within(grid, owner, sources, |i| goal.is_goal(i), |i| goal.bound(i), |i| c.allows(grid, i)) {
+            return Ok(path);
+        }
+    }
+    search.find(grid, owner, sources, |i| goal.is_goal(i), |i| goal.bound(i))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::{pt, rect, region_of};
+
+    /// A wall with a gap at its top: the corridor goes through the gap, not through the
+    /// wall, and leaves out the far side of the glass.
+    #[test]
+    fn corridor_follows_the_gap() {
+        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
+        g.block(&region_of([rect(9.5, 0.0, 10.5, 17.0)]));
+        let mut c = Corridors::new(&g);
+        let start = g.index_of(pt(2.0, 2.0)).unwrap();
+        let goal_cell = g.index_of(pt(18.0, 2.0)).unwrap();
+        let goal_tile = c.tile_index(&g, goal_cell);
+        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1));
+        assert!(c.allows(&g, g.index_of(pt(10.0, 18.0)).unwrap()), "through the gap above the wall");
+        assert!(!c.allows(&g, g.index_of(pt(10.0, 5.0)).unwrap()), "not through the wall");
+        // Corners no cheapest path passes near stay out.
+        assert!(!c.allows(&g, g.index_of(pt(1.0, 19.5)).unwrap()));
+        assert!(!c.allows(&g, g.index_of(pt(19.5, 19.5)).unwrap()));
+    }
+
+    /// A closed box around the start: no coarse path.
+    #[test]
+    fn no_corridor_out_of_a_closed_box() {
+        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
+        let ring = crate::geom::difference(&region_of([rect(4.0, 4.0, 12.0, 12.0)]), &region_of([rect(6.0, 6.0, 10.0, 10.0)]));
+        g.block(&ring);
+        let mut c = Corridors::new(&g);
+        let start = g.index_of(pt(8.0, 8.0)).unwrap();
+        let goal_tile = c.tile_index(&g, g.index_of(pt(18.0, 18.0)).unwrap());
+        assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1));
+    }
+}

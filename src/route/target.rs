@@ -1,0 +1,167 @@
+//! The cells a join search may end in (the tree a net has grown so far), with a lower
+//! bound on the distance to them for A*.
+//!
+//! A join search runs from a new piece of a net to any cell already joined. Without a
+//! heuristic it is Dijkstra's search and floods the glass around the piece until it meets
+//! the tree; with the distance to the nearest tree cell as heuristic it heads for the tree.
+//! The tree is kept as square tiles of `TILE` cells in an R-tree, and the heuristic is the
+//! Euclidean distance from the cell's tile to the nearest tile box, less half a tile's
+//! diagonal: never more than the true distance to a tree cell (each tile box holds all the
+//! centres of its tree cells), so it is admissible for the search's step costs (every step
+//! costs at least its length; Hart, Nilsson & Raphael, 1968). One R-tree query per tile,
+//! remembered until the tree grows, serves all its cells.
+//!
+//! Membership is one stamp per grid cell, allocated once per router and reused for every
+//! net: starting a new tree is O(1), not a clear of the whole grid.
+
+use super::grid::Grid;
+use rstar::primitives::Rectangle;
+use rstar::{PointDistance, RTree};
+use std::cell::RefCell;
+use std::collections::HashSet;
+
+use super::corridor::{Goal, TileGeom, TILE};
+
+/// The cells joined to one net so far.
+pub struct Targets {
+    nx: usize,
+    ntx: usize,
+    /// Per tile: (version of the set it was computed for, distance from the tile's centre
+    /// to the nearest member tile), so that one R-tree query serves a whole tile.
+    memo: RefCell<Vec<(u32, f32)>>,
+    version: u32,
+    mark: Vec<u32>,
+    generation: u32,
+    tiles: HashSet<(usize, usize)>,
+    index: RTree<Rectangle<[f64; 2]>>,
+}
+
+impl Targets {
+    /// An empty set for cells of `grid` (or any grid of the same size).
+    pub fn new(grid: &Grid) -> Targets {
+        let tiles = TileGeom::of(grid);
+        Targets {
+            nx: grid.nx,
+            ntx: tiles.ntx,
+            memo: RefCell::new(vec![(0, 0.0); tiles.ntx * tiles.nty]),
+            version: 1,
+            mark: vec![0; grid.nx * grid.ny],
+            generation: 1,
+            tiles: HashSet::new(),
+            index: RTree::new(),
+        }
+    }
+
+    /// Empties the set (O(number of tiles), not O(grid)).
+    pub fn clear(&mut self) {
+        self.generation += 1;
+        if self.generation == u32::MAX {
+            self.mark.iter_mut().for_each(|m| *m = 0);
+            self.generation = 1;
+        }
+        self.tiles.clear();
+        self.index = RTree::new();
+        self.bump_version();
+    }
+
+    fn bump_version(&mut self) {
+        self.version += 1;
+        if self.version == u32::MAX {
+            self.memo.borrow_mut().iter_mut().for_each(|m| m.0 = 0);
+            self.version = 1;
+        }
+    }
+
+    /// Adds cell `c`.
+    pub fn add(&mut self, c: usize) {
+        if self.mark[c] == self.generation {
+            return;
+        }
+        self.mark[c] = self.generation;
+        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
+        if self.tiles.insert((tx, ty)) {
+            let (x0, y0) = ((tx * TILE) as f64, (ty * TILE) as f64);
+            let span = (TILE - 1) as f64;
+            self.index.insert(Rectangle::from_corners([x0, y0], [x0 + span, y0 + span]));
+            self.bump_version();
+        }
+    }
+
+    /// Whether cell `c` is in the set.
+    pub fn contains(&self, c: usize) -> bool {
+        self.mark[c] == self.generation
+    }
+
+    /// Whether tile (column, row) of `TILE` cells holds a cell of the set.
+    pub fn has_tile(&self, tile: (usize, usize)) -> bool {
+        self.tiles.contains(&tile)
+    }
+
+    /// Whether the set is empty.
+    pub fn is_empty(&self) -> bool {
+        self.tiles.is_empty()
+    }
+
+    /// A lower bound, in cells, on the distance from cell `c` to the nearest cell of the
+    /// set (0 when the set is empty): the distance from the centre of `c`'s tile to the
+    /// nearest member tile, less half the tile's diagonal. Admissible; not consistent
+    /// across tile borders, which the search allows for by reopening cells.
+    pub fn lower_bound(&self, c: usize) -> f32 {
+        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
+        let t = ty * self.ntx + tx;
+        let mut memo = self.memo.borrow_mut();
+        if memo[t].0 != self.version {
+            let half = (TILE - 1) as f64 / 2.0;
+            let p = [(tx * TILE) as f64 + half, (ty * TILE) as f64 + half];
+            let d = match self.index.nearest_neighbor(&p) {
+                Some(r) => r.distance_2(&p).sqrt() as f32,
+                None => 0.0,
+            };
+            memo[t] = (self.version, d);
+        }
+        let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
+        (memo[t].1 - half_diagonal).max(0.0)
+    }
+}
+
+/// A join search ends on any cell of the tree.
+impl Goal for Targets {
+    fn is_goal(&self, c: usize) -> bool {
+        self.contains(c)
+    }
+    fn is_goal_tile(&self, tiles: &TileGeom, t: usize) -> bool {
+        self.has_tile(tiles.column_row(t))
+    }
+    fn bound(&self, c: usize) -> f32 {
+        self.lower_bound(c)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The bound never exceeds the true (Euclidean) distance to the nearest member, and is
+    /// exact for a cell in line with a lone member's tile edge.
+    #[test]
+    fn bound_is_below_true_distance() {
+        let g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.25);
+        let mut t = Targets::new(&g);
+        let members = [g.index_of(crate::geom::pt(3.0, 4.0)).unwrap(), g.index_of(crate::geom::pt(15.0, 9.0)).unwrap()];
+        for &m in &members {
+            t.add(m);
+        }
+        for c in (0..g.nx * g.ny).step_by(37) {
+            let (cx, cy) = ((c % g.nx) as f64, (c / g.nx) as f64);
+            let truth = members
+                .iter()
+                .map(|&m| ((m % g.nx) as f64 - cx).hypot((m / g.nx) as f64 - cy))
+                .fold(f64::MAX, f64::min);
+            assert!(t.lower_bound(c) as f64 <= truth + 1e-4, "cell {c}: bound {} > {truth}", t.lower_bound(c));
+        }
+        assert!(t.contains(members[0]) && !t.contains(members[0] + 1));
+        t.clear();
+        assert!(t.is_empty() && !t.contains(members[0]));
+        assert_eq!(t.lower_bound(0), 0.0);
+    }
+}
