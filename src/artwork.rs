@@ -1,6 +1,7 @@
 //! `Artwork`: the single geometric truth that every check and every writer reads.
 //!
-//! Contract (docs/contracts.md): a flat list of polygons, each tagged with its [`Layer`]
+//! Contract (docs/architecture.md, *Contracts*): a flat list of polygons, each tagged
+//! with its [`Layer`]
 //! (which also says the plate), its [`Role`] and the net the generator meant it for; all
 //! coordinates in mm in the front-plate frame (as the viewer sees the display, for both
 //! plates: writers mirror, the artwork never does). Polygons are valid, counter-clockwise

@@ -1,6 +1,7 @@
 //! The resolved layout: what the `spec` stage gives every later stage.
 //!
-//! Contract (docs/contracts.md): every length is a plain `f64` in millimetres, already
+//! Contract (docs/architecture.md, *Contracts*): every length is a plain `f64` in
+//! millimetres, already
 //! checked positive where it must be; every angle is in degrees; every reference (style,
 //! icon, font) is resolved; all coordinates are in the *front-plate frame*: origin at the
 //! lower-left corner of the front glass, x to the right, y up, as the viewer sees the

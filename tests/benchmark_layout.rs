@@ -45,8 +45,8 @@ fn default_benchmark_size_fits_at_quarter_duty() {
     // Multiplexed: 40 digits × (a–g, no point) in one row + 40 icons under them.
     assert_eq!(segmask::spec::element_nets(&layout).len(), 40 * 7 + 40);
     assert_eq!(layout.digits.len(), 1, "one row of digits");
-    // Multiplexed at duty 1/N: N commons + ⌈elements / N⌉ SEG lines (common practice;
-    // DESIGN.md §2) = 4 + ⌈320 / 4⌉ = 84.
+    // Multiplexed at duty 1/N: N commons + ⌈elements / N⌉ SEG lines (docs/background.md,
+    // *Drive and pin count*) = 4 + ⌈320 / 4⌉ = 84.
     assert_eq!(segmask::spec::pads_needed(&layout), 84);
     assert_eq!(g.pads, 84, "the generator's own count sizes the pad row");
 }

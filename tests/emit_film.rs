@@ -125,7 +125,8 @@ fn dark_field_ink_is_glass_minus_ito() {
     check_inked(&r, glass, want, band);
 }
 
-/// DESIGN.md §3: the front film is printed as the viewer sees the layout, the back film
+/// docs/background.md, *Mirroring*: the front film is printed as the viewer sees the
+/// layout, the back film
 /// mirrored about the plate centre. The fixture is asymmetric: the common ring lies left
 /// of centre (x 8–20 of 40 mm), so on the back film it must appear right of centre.
 #[test]

@@ -1,6 +1,6 @@
 //! GDSII output read back record by record with a reader written here from the format
 //! description (Calma, *GDSII Stream Format Manual*, release 6.0, 1987; record codes as
-//! collected in DESIGN.md §6), not with the library that wrote it.
+//! listed in docs/background.md, *GDSII*), not with the library that wrote it.
 
 mod emit_fixture;
 
@@ -113,8 +113,8 @@ fn header_library_and_units_follow_release_6() {
     // 1 nm database unit = 1e-3 of a 1 µm user unit, and 1e-9 m.
     assert!((user - 1e-3).abs() < 1e-15 * 1e-3, "{user:e}");
     assert!((metres - 1e-9).abs() < 1e-15 * 1e-9, "{metres:e}");
-    // DESIGN.md §6: 1e-3 encodes as 3E 41 89 37 4B C6 A7 EF; the last byte depends on
-    // the rounding rule, so only the first seven are compared.
+    // docs/background.md, *GDSII*: 1e-3 encodes as 3E 41 89 37 4B C6 A7 EF or F0; the
+    // last byte depends on the rounding rule, so only the first seven are compared.
     assert_eq!(&recs[3].data[..7], &[0x3E, 0x41, 0x89, 0x37, 0x4B, 0xC6, 0xA7]);
     assert_eq!(recs.last().unwrap().code, ENDLIB);
     let names: Vec<String> =

@@ -66,7 +66,7 @@ fn segment_map_pin_map_and_drive_summary_agree() {
     assert!(s > 20, "a 3½-digit panel with legends and icons has more than 20 elements: {s}");
     let mut seg_lines: Vec<u32> = vec![];
     for r in &rows {
-        // Static drive: one common, COM 1 (DESIGN.md §2, common practice).
+        // Static drive: one common, COM 1 (docs/background.md, *Drive and pin count*).
         assert_eq!((r["com"].as_str(), r["com_net"].as_str()), ("1", "COM1"), "{r:?}");
         assert_eq!(Some(&r["com_pin"].as_str()), pin_of.get("COM1"), "{r:?}");
         assert_eq!(Some(&r["seg_pin"].as_str()), pin_of.get(r["seg_net"].as_str()), "{r:?}");

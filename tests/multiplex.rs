@@ -75,7 +75,8 @@ fn two_squares_on_two_commons_build_clean() {
 }
 
 /// A back bus of COM2 drawn across a front bus of SEG1 inside the window: the crossing
-/// lights when (COM2, SEG1) is driven, where no element is assigned (DESIGN.md §2).
+/// lights when (COM2, SEG1) is driven, where no element is assigned (docs/background.md,
+/// *Ghost pixels*).
 #[test]
 fn a_common_bus_across_a_seg_lead_fails_drive_truth_naming_the_pair() {
     let extra = "buses:\n  - {net: SEG1, plate: front, width: 0.2, points: [[10, 12], [10, 10], [14, 10]]}\n  - {net: COM2, plate: back, width: 0.2, points: [[13, 9], [13, 11]]}\n";

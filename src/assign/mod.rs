@@ -12,8 +12,9 @@
 //! 3. every other element (legends, icons, colons, other digit styles, elements fixed in
 //!    one number only) takes a free common on the nearest line that has one; when no line
 //!    has room it opens a new line, on the common of its height in the window (top band →
-//!    COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉ (DESIGN.md §2)
-//!    whenever the templates leave their places free to others.
+//!    COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉
+//!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
+//!    places free to others.
 //!
 //! A (COM, SEG) pair is never given twice; the pins are N + the number of lines.
 

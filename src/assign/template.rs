@@ -2,8 +2,9 @@
 //! routable in a row of digits.
 //!
 //! The commons are numbered from the top of the digit down. The reasoning, for a row of
-//! digits whose leads leave at the bottom (DESIGN.md §2; the planar-routing argument is
-//! ours):
+//! digits whose leads leave at the bottom (docs/background.md,
+//! *Where the plates interact*; the planar-routing argument is ours, written out in
+//! docs/architecture.md, *Multiplexing*):
 //! - the top common reaches the seal above the window from `a`; the bottom common reaches
 //!   the seal below from `d` (its leads may cross front leads under the seal);
 //! - every common in between must run through each digit and across the gaps between
@@ -107,7 +108,7 @@ mod tests {
 
     /// Every template is a valid multiplex: COM within the duty, each (COM, slot) pair
     /// once, and the segments a–g and dp fill exactly ⌈8/N⌉ slots (N + ⌈S/N⌉ pins per
-    /// digit, DESIGN.md §2).
+    /// digit, docs/background.md, *Drive and pin count*).
     #[test]
     fn templates_use_each_pair_once_and_the_fewest_slots() {
         for n in 2..=4 {

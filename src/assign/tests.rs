@@ -30,7 +30,7 @@ fn assert_pairs_once(a: &Assignment, n: u32) {
     }
 }
 
-/// Pin count N + ⌈S/N⌉ (DESIGN.md §2; the usual count for an N-way multiplex): four
+/// Pin count N + ⌈S/N⌉ (docs/background.md, *Drive and pin count*): four
 /// digits with decimal points at 1/4 duty need 8 SEG lines (32 elements); at 1/2 duty 16.
 #[test]
 fn seven_segment_digits_take_the_fewest_lines() {

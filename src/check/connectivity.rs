@@ -286,7 +286,8 @@ fn build_groups(art: &Artwork, components: &mut [Component], dots: usize, label:
 /// counter-clockwise.
 ///
 /// The boolean engine works on its own integer grid sized from each operation's box
-/// (DESIGN.md §7), so its output is off the 1 nm input grid by up to about 1e-8 mm; the
+/// (docs/crate-notes.md, *Snapping*), so its output is off the 1 nm input grid by up to
+/// about 1e-8 mm; the
 /// inputs are on that grid, so snapping the output restores the exact vertices.
 pub fn unite(polys: impl IntoIterator<Item = Polygon>) -> Region {
     geom::region_of(geom::snap(&geom::union_all(polys)).0.iter().map(geom::orient_ccw))

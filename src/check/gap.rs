@@ -115,7 +115,8 @@ mod tests {
     }
 
     /// With pre-compensation (undercut 0.02) a 0.1 mm drawn gap is 0.06 mm on the film
-    /// (DESIGN.md §3: features grow by the undercut), below a 0.08 mm film.
+    /// (docs/background.md, *Etching and undercut*: features grow by the undercut),
+    /// below a 0.08 mm film.
     #[test]
     fn compensated_gap_below_the_film_feature() {
         let mut art = fixture::clean();

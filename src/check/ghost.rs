@@ -2,7 +2,7 @@
 //! designed.
 //!
 //! Takes the artwork and its [`Extraction`]. A pixel exists wherever front and back ITO
-//! overlap with liquid crystal between them (DESIGN.md §2), so
+//! overlap with liquid crystal between them (docs/background.md, *Ghost pixels*), so
 //! `lit = front ITO ∩ back ITO ∩ LC region` and `ghost = lit − designed pixels`. Each
 //! ghost piece above [`MIN_GHOST_MM2`] is one finding: an error when it meets the viewing
 //! window, a warning when it lies only outside it (hidden by the bezel, but it still
@@ -96,8 +96,8 @@ mod tests {
     use crate::geom::rect;
 
     /// A back COM1 strip from x 15 to 30 (joined to the COM1 lead at x 30) crosses S2's
-    /// 0.2 mm front lead; DESIGN.md §2 says the crossing switches when liquid crystal is
-    /// between them.
+    /// 0.2 mm front lead; the crossing switches when liquid crystal is between them
+    /// (docs/background.md, *Ghost pixels*).
     fn crossing_at(y0: f64, y1: f64) -> Vec<crate::finding::Finding> {
         let mut art = fixture::clean();
         fixture::add(&mut art, Layer::BackIto, Role::Lead, Some("COM1"), rect(15.0, y0, 30.0, y1));

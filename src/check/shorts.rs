@@ -113,7 +113,8 @@ mod tests {
         assert!(f[0].message.contains("mark"), "{}", f[0].message);
     }
 
-    /// A transfer dot conducts between the plates (DESIGN.md §2): one dropped on S2's
+    /// A transfer dot conducts between the plates (docs/background.md, *The two plates*):
+    /// one dropped on S2's
     /// segment, under the COM1 backplane, joins S2 and COM1 — one short between the plates.
     #[test]
     fn a_stray_transfer_dot_shorts_across_the_plates() {

@@ -309,7 +309,8 @@ mod tests {
         assert!((f.location.x - 12.0).abs() < 1e-9 && f.location.y > 4.0 && f.location.y < 15.0, "{:?}", f.location);
     }
 
-    /// DESIGN.md §3: an etched line is drawn − 2·undercut wide. 0.055 drawn with a
+    /// docs/background.md, *Etching and undercut*: an etched line is drawn − 2·undercut
+    /// wide. 0.055 drawn with a
     /// 0.005 mm undercut etches to 0.045 < 0.05.
     #[test]
     fn lead_that_etches_too_narrow_breaks_etched_width() {

@@ -4,7 +4,8 @@
 //! front-plate electrode per SEG net (its elements' outlines) and one back-plate common
 //! electrode per COM, grown from the gap-free bodies of its pixels by the overlap margin
 //! and split from its neighbours so that commons keep the minimum gap (`split.rs`,
-//! DESIGN.md §7). Pixels the split leaves partly uncovered are `coverage` warnings.
+//! docs/crate-notes.md, *Backplanes from gap-free shapes*). Pixels the split leaves
+//! partly uncovered are `coverage` warnings.
 //! Under static drive every element is its own SEG net, named after the element; when
 //! multiplexed, SEG lines are `SEG1`, `SEG2`, …
 

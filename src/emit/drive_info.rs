@@ -2,7 +2,7 @@
 //!
 //! Takes the artwork's drive scheme, pins and pixels, gives the duty and bias as written
 //! in layouts (`static`, `1/2`…), the pin count against the formula `N + ⌈S/N⌉`
-//! (DESIGN.md §2, common practice) and the rms selection ratio of Alt & Pleshko (IEEE
+//! (docs/background.md, *Drive and pin count*) and the rms selection ratio of Alt & Pleshko (IEEE
 //! Trans. Electron Devices ED-21, 1974) at the chosen bias and at the best one.
 
 use crate::artwork::Artwork;

@@ -4,7 +4,8 @@
 //! plate's etched layers (ITO and marks), its labels, its glass outline as a thin line,
 //! a title, a scale ruler and a side note. Coordinates are only transformed: y flipped,
 //! and for the back plate x mirrored about the plate centre (docs/outputs.md works out
-//! why). Tone follows the resist (DESIGN.md §3): positive resist → clear-field film,
+//! why). Tone follows the resist (docs/background.md, *Tone*): positive resist →
+//! clear-field film,
 //! black where ITO stays; negative resist → dark-field film, black inside the glass
 //! except where ITO stays (one path, glass ring plus ITO rings, even-odd fill).
 

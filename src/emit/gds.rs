@@ -2,7 +2,8 @@
 //!
 //! Takes structures of polygons (mm), texts and references, gives the bytes of a GDSII
 //! stream that is the same for the same input: gds21's defaults are replaced where
-//! DESIGN.md §7 found them wanting — the version is 600 (release 6.0) instead of 3, the
+//! docs/crate-notes.md (*gds21*) finds them wanting — the version is 600 (release 6.0)
+//! instead of 3, the
 //! dates are the build date instead of "now", rings are closed, deduplicated, made
 //! hole-free and kept below the point limit ([`super::split`]).
 
@@ -68,7 +69,7 @@ fn nm(mm: f64) -> i32 {
 }
 
 /// A GDSII name: letters, digits, `_`, `?` and `$` only, at most 32 characters
-/// (DESIGN.md §3); anything else becomes `_`, and an empty name becomes `SEGMASK`.
+/// (docs/background.md, *GDSII*); anything else becomes `_`, and an empty name becomes `SEGMASK`.
 ///
 /// ```
 /// use segmask::emit::gds::gds_name;

@@ -2,7 +2,8 @@
 //!
 //! Takes a place on the page and a length, gives the ruler's strokes: a base line, a
 //! tick every millimetre, longer ticks every 5 mm and longest every 10 mm, numbered in
-//! mm. Printers and viewers rescale pages (DESIGN.md §3), so the ruler is measured with
+//! mm. Printers and viewers rescale pages (docs/background.md, *Scale ruler*), so the
+//! ruler is measured with
 //! a good steel rule before a film is used.
 
 use super::page::{TextPlace, polylines_d, stroke, text};

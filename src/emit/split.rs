@@ -4,7 +4,8 @@
 //! Takes an artwork polygon (mm, may have holes, any vertex count), gives rings of
 //! integer nanometre points. A GDSII BOUNDARY cannot have holes (GDSII Stream Format
 //! Manual, release 6.0), so every hole is opened by a vertical cut through it
-//! (DESIGN.md §7: splitting gives valid pieces where a keyhole would touch itself); a
+//! (docs/crate-notes.md, *Holes in GDSII boundaries*: splitting gives valid pieces where
+//! a keyhole would touch itself); a
 //! ring above the point limit is cut in two at the median x of its vertices. Cuts go
 //! through `geom::intersection`, whose inputs are already on the 1 nm grid; where a
 //! cut crosses a slanted edge the new vertex is rounded to the grid, so the pieces may
@@ -31,7 +32,7 @@ pub type NmRing = Vec<(i32, i32)>;
 pub fn boundary_rings(p: &Polygon) -> Result<Vec<NmRing>> {
     let mut out = Vec::new();
     // Holes wound like their outer ring would fill under the non-zero rule that
-    // `geom::intersection` uses (DESIGN.md §7), so orient first.
+    // `geom::intersection` uses (docs/crate-notes.md, *Fill rule*), so orient first.
     for piece in hole_free(orient_ccw(&snap(p)), 0)? {
         limit_points(&piece, 0, &mut out)?;
     }

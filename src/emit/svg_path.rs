@@ -2,7 +2,8 @@
 //!
 //! Takes artwork points (mm, y up, viewer's frame) and gives SVG numbers (mm, y down,
 //! 1 user unit = 1 mm), mirrored when asked. Only coordinates are transformed here —
-//! flip y, mirror x, round to 6 decimals (1 nm) — never geometry (DESIGN.md §7: the svg
+//! flip y, mirror x, round to 6 decimals (1 nm) — never geometry (docs/crate-notes.md,
+//! *svg*: the svg
 //! crate's path `Data` is f32, so `d` is written here with full precision).
 
 use crate::geom::{Polygon, Pt};

@@ -2,7 +2,7 @@
 //! (boolean operations, offsets, areas, distances) and lyon_geom (curve flattening).
 //!
 //! Takes polygons, gives polygons. Every stage goes through these functions so that the
-//! pitfalls measured in DESIGN.md §7 are handled once: inputs are snapped to one 1 nm grid
+//! pitfalls described in docs/crate-notes.md are handled once: inputs are snapped to one 1 nm grid
 //! before boolean work, unions use the non-zero fill rule, and round joins take their
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
@@ -56,7 +56,7 @@ pub fn region_of(polys: impl IntoIterator<Item = Polygon>) -> Region {
 }
 
 /// Unites any number of polygons with the non-zero rule, so overlapping inputs merge
-/// instead of cancelling (DESIGN.md §7).
+/// instead of cancelling (docs/crate-notes.md, *Fill rule*).
 ///
 /// ```
 /// use segmask::geom::{rect, union_all, area};
@@ -151,7 +151,8 @@ pub fn translate(r: &Region, dx: f64, dy: f64) -> Region {
 mod tests {
     use super::*;
 
-    /// DESIGN.md §7: the default even-odd rule drops pieces where clips overlap;
+    /// docs/crate-notes.md, *Fill rule*: the default even-odd rule drops pieces where
+    /// clips overlap;
     /// `difference` must not.
     #[test]
     fn overlapping_clips_do_not_cancel() {
@@ -164,7 +165,7 @@ mod tests {
     #[test]
     fn offset_round_respects_tolerance() {
         // A 1 mm disc grown from a point-like square: the flattened arc lies inside the
-        // true circle by at most `tol` (DESIGN.md §7).
+        // true circle by at most `tol` (docs/crate-notes.md, *Arc flattening*).
         let r = offset_round(&region_of([rect(0.0, 0.0, 1e-3, 1e-3)]), 1.0, 1e-4);
         let a = area(&r);
         let exact = std::f64::consts::PI;

@@ -3,7 +3,7 @@
 //!
 //! Takes path text or curve parameters in millimetres (y up), gives polylines whose
 //! vertices lie on the true curve, so a flattened convex curve lies inside the true one
-//! (DESIGN.md §7). `lyon_path` is not used: it stores `f32`.
+//! (docs/crate-notes.md, *Arc flattening*). `lyon_path` is not used: it stores `f32`.
 
 use super::{Polygon, Pt, Region, pt};
 use geo::algorithm::bool_ops::FillRule;

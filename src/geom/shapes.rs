@@ -5,7 +5,7 @@ use geo::algorithm::buffer::{BufferStyle, LineCap, LineJoin};
 use geo::{Buffer, LineString};
 
 /// The angular step (radians) that keeps chords of an arc of radius `r` within `tol` of
-/// the arc: `2·acos(1 − tol/r)` (DESIGN.md §7).
+/// the arc: `2·acos(1 − tol/r)` (docs/crate-notes.md, *Arc flattening*).
 ///
 /// ```
 /// let step = segmask::geom::regular_arc_step(1.0, 1e-3);

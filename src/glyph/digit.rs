@@ -2,7 +2,8 @@
 //!
 //! Takes a [`SkeletonDef`] (centre lines in the unit cell) and a [`Cell`] (place, size,
 //! slant, stroke); gives each segment's polygon built in the slanted frame, as
-//! DESIGN.md §7 asks: the centre lines are mapped into the cell and slanted first, each
+//! docs/crate-notes.md (*Slanted digits*) explains: the centre lines are mapped into the
+//! cell and slanted first, each
 //! segment is the band of width `stroke` around its slanted centre line, and its ends are
 //! cut where it meets its neighbours:
 //!

@@ -3,7 +3,8 @@
 //! Takes the digits, legends and icons of a `Layout` and the stroke fonts in
 //! `fonts-strokes/` (compiled in) plus any the layout adds; gives one [`Element`] per
 //! switchable thing, with its electrode outline and its gap-free body (from which common
-//! electrodes are grown, DESIGN.md §7). The font format is described in
+//! electrodes are grown, docs/crate-notes.md, *Backplanes from gap-free shapes*). The
+//! font format is described in
 //! `fonts-strokes/README.md`, the constructions in `docs/glyphs.md`.
 
 pub mod digit;

@@ -1,10 +1,12 @@
-//! Which seven-segment segments light for a character (common practice; DESIGN.md §6).
+//! Which seven-segment segments light for a character (common practice;
+//! docs/background.md, *Seven-segment patterns*).
 //! The firmware side needs the same table, so it is public.
 
 /// Segments (`a`–`g`) lit to show `ch` on a seven-segment digit, or `None` when the
 /// character has no usual seven-segment form.
 ///
-/// Digits and the hexadecimal letters follow common practice (DESIGN.md §6), the
+/// Digits and the hexadecimal letters follow common practice (docs/background.md,
+/// *Seven-segment patterns*), the
 /// letters in either case: 0 abcdef, 1 bc, 2 abdeg, 3 abcdg, 4 bcfg, 5 acdfg, 6 acdefg,
 /// 7 abc, 8 abcdefg, 9 abcdfg, A abcefg, b cdefg, C adef, d bcdeg, E adefg, F aefg.
 /// A few more common forms are case-sensitive: H h J L n o P r t U u y, `-`, `_`, `=`,
@@ -60,7 +62,8 @@ pub fn seven_segment_pattern(ch: char) -> Option<&'static [&'static str]> {
 mod tests {
     use super::*;
 
-    /// The truth table of DESIGN.md §6 (common practice), written out independently as
+    /// The truth table of docs/background.md, *Seven-segment patterns* (common practice),
+    /// written out independently as
     /// strings so a typo in either copy shows.
     #[test]
     fn truth_table() {

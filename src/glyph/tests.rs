@@ -64,7 +64,8 @@ fn seven_segment_group_names_and_order() {
     }
 }
 
-/// The segments lit for '1' by the truth table (common practice, DESIGN.md §6) are
+/// The segments lit for '1' by the truth table (common practice; docs/background.md,
+/// *Seven-segment patterns*) are
 /// exactly those on the right of the built digit, for '7' those plus the top bar, for
 /// '-' only the middle bar: checked on the segment centroids of a slanted digit, in the
 /// upright frame.
@@ -103,7 +104,8 @@ fn truth_table_matches_geometry() {
 }
 
 /// Bodies (gap 0) of one digit unite to one polygon — gap-free — that contains every
-/// outline (DESIGN.md §7: backplanes are grown from the gap-free digit).
+/// outline (backplanes are grown from the gap-free digit: docs/crate-notes.md,
+/// *Backplanes from gap-free shapes*).
 #[test]
 fn bodies_tile_the_digit() {
     for style in [DigitStyle::Seven, DigitStyle::Fourteen, DigitStyle::Sixteen] {

@@ -50,7 +50,8 @@ pub fn common_nets(layout: &Layout) -> Vec<String> {
 }
 
 /// Fewest pads the layout needs: one per common plus, at duty 1/N, one SEG line for every
-/// N elements (DESIGN.md §2: N + ⌈segments / N⌉; static drive is N = 1).
+/// N elements (docs/background.md, *Drive and pin count*: N + ⌈segments / N⌉; static
+/// drive is N = 1).
 pub fn pads_needed(layout: &Layout) -> u32 {
     let n = layout.drive.commons.max(1) as usize;
     let elements = element_nets(layout).len();

@@ -270,7 +270,8 @@ pub fn drive(p: &mut Problems, d: Option<&RawDrive>) -> Drive {
                     }
                 },
             };
-            // Common practice (DESIGN.md §6): 1/2 duty at 1/2 or 1/3 bias, 1/3 and 1/4 duty
+            // Common practice (docs/background.md, *Drive and pin count*): 1/2 duty at
+            // 1/2 or 1/3 bias, 1/3 and 1/4 duty
             // at 1/3 bias; 1/2 bias at higher duty loses most of the contrast
             // (Alt & Pleshko 1974: N=4, a=2 gives Von/Voff = √21/3 ≈ 1.53 against √3 at a=3).
             if a == 2 && n > 2 {

@@ -133,7 +133,7 @@ fn bad_glass_does_not_pile_up_consequences() {
 fn multiplexed_drive_shares_pads() {
     let l = parse(&format!("{MINIMAL}drive: {{duty: 1/4, bias: 1/3}}\n")).unwrap();
     assert_eq!(l.drive, Drive { commons: 4, bias: Some(3) });
-    // 4 commons + ⌈7 / 4⌉ SEG lines (DESIGN.md §2).
+    // 4 commons + ⌈7 / 4⌉ SEG lines (docs/background.md, *Drive and pin count*).
     assert_eq!(pads_needed(&l), 6);
     assert_eq!(common_nets(&l), ["COM1", "COM2", "COM3", "COM4"]);
     let v = problems(&format!("{MINIMAL}drive: {{duty: 1/4, bias: 1/2}}\n"));
