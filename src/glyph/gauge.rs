@@ -42,10 +42,11 @@ pub fn build_gauge(layout: &Layout, fonts: &Fonts, i: &Icon) -> Result<Vec<Eleme
     }
     let gap = layout.rules.min_gap;
     if let Some((a, b, d)) = closest_pair(&regions).filter(|t| t.2 < gap - 1e-9) {
+        let how = if d <= 1e-9 { "touch".to_string() } else { format!("come within {d:.4} mm of each other") };
         return Err(problem(
             "stroke",
             format!(
-                "parts `{}` and `{}` of gauge `{gauge}` come within {d:.4} mm of each other at size {size} mm and stroke {stroke} mm",
+                "parts `{}` and `{}` of gauge `{gauge}` {how} at size {size} mm and stroke {stroke} mm",
                 parts[a].icon, parts[b].icon
             ),
             Some(format!("a larger size or a thinner stroke, keeping rules.min_gap ({gap} mm) between parts")),
@@ -158,7 +159,7 @@ mod tests {
             panic!("accepted")
         };
         assert_eq!(p[0].key, "icons[0].stroke");
-        assert!(p[0].message.contains("come within"), "{}", p[0].message);
+        assert!(p[0].message.contains("`battery-shell` and `battery-bar-1` of gauge `battery` touch"), "{}", p[0].message);
     }
 
     /// A closed shell traps the bar inside it: refused, naming both parts.
