@@ -85,7 +85,7 @@ const CASES: &[Case] = &[
     Case("bar-wedge-on-line", "bars[0].shape", 32, "a wedge needs an arc"),
     Case("bar-negative-length", "bars[0].length", 31, "must be greater than 0 (got -2 mm)"),
     Case("bar-infinite-thickness", "bars[0].thickness", 30, "`inf` is not a length"),
-    Case("bar-arc-too-tight", "bars[0].count", 28, "40 steps of 4.500° leave no width at the inner radius 2 mm"),
+    Case("bar-arc-too-tight", "bars[0].count", 28, "40 steps of 4.500° leave 0 mm of width at the inner radius 2 mm"),
     Case("bar-step-net-twice", "bars[0].name", 28, "net `LVL.3` is also made by `legends[1].name` (line 26)"),
     Case(
         "gauge-unknown",

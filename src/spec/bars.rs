@@ -1,7 +1,7 @@
 //! Resolution of `bars:`: each raw bar graph → a [`BarGraph`], every value checked on
-//! its own and the steps checked to be drawable (positive thickness along a line, a
-//! positive width at the inner radius of an arc, first and last step apart on a nearly
-//! closed arc). Where the steps sit relative to the window and the other elements is
+//! its own and the steps checked to be drawable (at least the minimum line width across
+//! and along a line, and at the inner radius of an arc; first and last step apart on a
+//! nearly closed arc). Where the steps sit relative to the window and the other elements is
 //! checked in `placement.rs`.
 
 use super::elements::element_name;
@@ -73,9 +73,32 @@ fn bar(p: &mut Problems, b: &RawBar, key: &str, rules: &Rules) -> BarGraph {
     }
     let g = BarGraph { name, count, path, shape, side, length, last_length, gap, key: key.to_string() };
     if p.clean(&[key]) {
-        drawable(p, &g);
+        wide_enough(p, &g, b, rules.min_width);
+    }
+    if p.clean(&[key]) {
+        drawable(p, &g, rules.min_width);
     }
     g
+}
+
+/// Steps narrower than the minimum line width would not survive the etch.
+fn wide_enough(p: &mut Problems, g: &BarGraph, b: &RawBar, min_width: f64) {
+    let thickness = match (&g.path, &b.line) {
+        (BarPath::Line { thickness, .. }, Some(l)) => {
+            Some((*thickness, if l.to.is_some() { "line.to" } else { "thickness" }))
+        }
+        _ => None,
+    };
+    let sizes = [(g.length, "length"), (g.last_length, "last_length")].into_iter().chain(thickness);
+    for (v, field) in sizes {
+        if v < min_width - 1e-12 {
+            p.bad(
+                &format!("{}.{field}", g.key),
+                format!("steps {} wide are narrower than the minimum line width", mm(v)),
+                &format!("at least rules.min_width, {}", mm(min_width)),
+            );
+        }
+    }
 }
 
 /// `line: {from, angle | to}`; with `to` the thickness follows from the run.
@@ -145,10 +168,10 @@ fn required_angle(p: &mut Problems, v: Option<&super::scalar::Scalar>, key: &str
     p.angle(v, key, 0.0)
 }
 
-/// Checks that every step has some width and that the steps keep the gap: on an arc the
-/// inner radius must stay above 0 and leave room for the gaps, and a nearly closed arc
-/// must leave the gap between its last step and its first.
-fn drawable(p: &mut Problems, g: &BarGraph) {
+/// Checks that every step keeps the minimum line width and the steps keep the gap: on an
+/// arc the inner radius must stay above 0 and leave room for the gaps, and a nearly
+/// closed arc must leave the gap between its last step and its first.
+fn drawable(p: &mut Problems, g: &BarGraph, min_width: f64) {
     let BarPath::Arc { radius, .. } = g.path else { return };
     let key = &g.key;
     let r_in = g.inner_radius().unwrap_or(radius);
@@ -172,33 +195,38 @@ fn drawable(p: &mut Problems, g: &BarGraph) {
         StepShape::Wedge if g.count > 1 => {
             // A middle step loses asin(gap / 2r) at each side at radius r (the cut's edge
             // is a chord parallel to the radius through the gap's middle).
+            // What is left is measured as the chord across it at the inner radius.
             let half_gap = g.gap / (2.0 * r_in);
-            if half_gap >= 1.0 || pitch.to_radians() <= 2.0 * half_gap.asin() {
+            let left = pitch.to_radians() - 2.0 * half_gap.min(1.0).asin();
+            let width = if half_gap >= 1.0 || left <= 0.0 { 0.0 } else { 2.0 * r_in * (left / 2.0).sin() };
+            if width < min_width {
                 p.bad(
                     &format!("{key}.count"),
                     format!(
-                        "{} steps of {pitch:.3}° leave no width at the inner radius {} with gaps of {}",
+                        "{} steps of {pitch:.3}° leave {} of width at the inner radius {} with gaps of {}",
                         g.count,
+                        mm(width),
                         mm(r_in),
                         mm(g.gap)
                     ),
-                    allowed,
+                    &format!("{allowed}; at least rules.min_width, {}, at the inner radius", mm(min_width)),
                 );
                 return;
             }
         }
         StepShape::Rectangle => {
             let w = g.arc_rect_width().unwrap_or(0.0);
-            if pitch > 90.0 || w <= 0.0 {
+            if pitch > 90.0 || w < min_width {
                 p.bad(
                     &format!("{key}.count"),
                     format!(
-                        "{} rectangles of {pitch:.3}° each leave no width at the inner radius {} with gaps of {}",
+                        "{} rectangles of {pitch:.3}° each leave {} of width at the inner radius {} with gaps of {}",
                         g.count,
+                        mm(w.max(0.0)),
                         mm(r_in),
                         mm(g.gap)
                     ),
-                    &format!("{allowed}; at most 90° a step"),
+                    &format!("{allowed}; at most 90° a step and at least rules.min_width, {}, wide", mm(min_width)),
                 );
                 return;
             }
@@ -322,7 +350,17 @@ mod tests {
             (
                 "{name: L, count: 60, arc: {centre: [0, 0], radius: 1, start: 0, end: 90}, length: 1, side: outside}",
                 "bars[0].count",
-                "leave no width",
+                "leave 0 mm of width",
+            ),
+            (
+                "{name: L, count: 3, line: {from: [0, 0]}, thickness: 0.05, length: 1}",
+                "bars[0].thickness",
+                "narrower than the minimum line width",
+            ),
+            (
+                "{name: L, count: 3, line: {from: [0, 0]}, thickness: 1, length: 1, last_length: 1e-7}",
+                "bars[0].last_length",
+                "narrower than the minimum line width",
             ),
             (
                 "{name: L, count: 5, arc: {centre: [0, 0], radius: 5, start: 0, end: 359.9}, length: 1, side: outside}",
