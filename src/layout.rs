@@ -10,6 +10,10 @@
 use crate::geom::Pt;
 use std::collections::BTreeMap;
 
+#[path = "layout_bar.rs"]
+mod bar;
+pub use bar::{BarGraph, BarPath, MAX_STEPS, StepShape, StepSide, step_net};
+
 /// A whole display, resolved.
 #[derive(Debug, Clone)]
 pub struct Layout {
@@ -45,6 +49,8 @@ pub struct Layout {
     pub legends: Vec<Legend>,
     /// Icons, built in or drawn.
     pub icons: Vec<Icon>,
+    /// Bar graphs: rows of steps along a line or an arc, each step its own element.
+    pub bars: Vec<BarGraph>,
     /// User-drawn bus traces.
     pub buses: Vec<Bus>,
     /// GDSII layer numbers.
@@ -433,6 +439,34 @@ pub enum IconShape {
         /// Offset added to every point.
         at: Pt,
     },
+    /// A gauge: every part of a built-in (or layout-supplied) gauge icon placed in one
+    /// box, each part its own element `{name}.{part}` (`BATT.shell`, `BATT.1`, …).
+    Gauge {
+        /// Gauge name in the font files (`battery`, `signal`).
+        gauge: String,
+        /// Its parts, in order: the element suffix and the icon drawn for it.
+        parts: Vec<GaugePart>,
+        /// Lower-left corner of the box every part is drawn in.
+        at: Pt,
+        /// Box size.
+        size: f64,
+        /// Stroke width.
+        stroke: f64,
+    },
+}
+
+/// One part of a gauge.
+#[derive(Debug, Clone, PartialEq)]
+pub struct GaugePart {
+    /// What follows the gauge's name and a dot in the element name (`shell`, `1`, `2`).
+    pub suffix: String,
+    /// Name of the icon drawn for it (`battery-shell`, `battery-bar-1`).
+    pub icon: String,
+}
+
+/// Net name of one part of a gauge: the icon entry's name, a dot, the part (`BATT.shell`).
+pub fn gauge_part_net(name: &str, suffix: &str) -> String {
+    format!("{name}.{suffix}")
 }
 
 /// Which glass plate.

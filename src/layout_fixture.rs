@@ -43,6 +43,7 @@ pub fn tiny_layout() -> Layout {
         digits: vec![],
         legends: vec![],
         icons: vec![],
+        bars: vec![],
         buses: vec![],
         layers: LayerMap::defaults(),
         tolerance: 0.001,

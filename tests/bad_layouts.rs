@@ -62,6 +62,43 @@ const CASES: &[Case] = &[
     Case("unknown-gds-layer", "gds_layers.front_itto", 29, "unknown layer `front_itto` (did you mean `front_ito`?)"),
     Case("gds-layer-range", "gds_layers.seal[0]", 30, "300 is above 255"),
     Case("missing-font", "fonts[0]", 29, "cannot read"),
+    Case(
+        "bar-too-many-steps",
+        "bars[0].count",
+        28,
+        "101 steps in one bar graph is more than segment glass carries (allowed: 1 to 100)",
+    ),
+    Case("bar-no-path", "bars[0]", 27, "no `line` or `arc` given (allowed: exactly one of line, arc)"),
+    Case(
+        "bar-outside-window",
+        "bars[0]",
+        27,
+        "step 9 of bar graph `LVL` (x 55.68 mm to 56.68 mm, y 27 mm to 29 mm) reaches outside the window",
+    ),
+    Case("bar-over-digit", "bars[0]", 27, "step 2 of bar graph `LVL` overlaps digit 1 of `D` of `digits[0]` (line 15)"),
+    Case(
+        "bar-gap-below-rule",
+        "bars[0].gap",
+        32,
+        "gap 0.02 mm is below the minimum gap (allowed: at least rules.min_gap, 0.05 mm)",
+    ),
+    Case("bar-wedge-on-line", "bars[0].shape", 32, "a wedge needs an arc"),
+    Case("bar-negative-length", "bars[0].length", 31, "must be greater than 0 (got -2 mm)"),
+    Case("bar-infinite-thickness", "bars[0].thickness", 30, "`inf` is not a length"),
+    Case("bar-arc-too-tight", "bars[0].count", 28, "40 steps of 4.500° leave 0 mm of width at the inner radius 2 mm"),
+    Case("bar-step-net-twice", "bars[0].name", 28, "net `LVL.3` is also made by `legends[1].name` (line 26)"),
+    Case(
+        "gauge-unknown",
+        "icons[0].gauge",
+        27,
+        "there is no gauge `batery` (did you mean `battery`?) (allowed: a gauge of the fonts: battery, signal)",
+    ),
+    Case(
+        "gauge-parts-touch",
+        "icons[0].stroke",
+        27,
+        "parts `battery-shell` and `battery-bar-1` of gauge `battery` touch",
+    ),
 ];
 
 fn fixture(stem: &str) -> PathBuf {

@@ -19,7 +19,7 @@ fn demo(name: &str) -> std::path::PathBuf {
 
 #[test]
 fn demo_films_print_at_size_with_the_right_ink() {
-    for name in ["irrigation-timer", "conductivity-meter", "etch-test-plate"] {
+    for name in ["irrigation-timer", "conductivity-meter", "etch-test-plate", "tank-level-dial"] {
         let built = segmask::pipeline::build_layout_file(&demo(name)).unwrap();
         let opts = segmask::emit::EmitOptions { date: "2026-12-01".into(), masks_despite_errors: false };
         let files = segmask::emit::render_outputs(&built.artwork, &built.findings, &opts).unwrap();

@@ -14,7 +14,11 @@
 //!    has room it opens a new line, on the common of its height in the window (top band →
 //!    COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉
 //!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
-//!    places free to others.
+//!    places free to others. The steps of a bar graph and the parts of a gauge all take
+//!    the common the first of them took, each on its own line: side by side in a row (or nested in a shell), neighbours on different
+//!    commons would leave commons that interleave along the row, and interleaved commons
+//!    cannot all reach their dots on the back plate without crossing (or facing the
+//!    front leads that leave the row on the other side).
 //!
 //! A (COM, SEG) pair is never given twice; the pins are N + the number of lines.
 
@@ -98,12 +102,24 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
             }
         }
     }
-    // 3. Everything else: free places on the nearest line first.
+    // 3. Everything else: free places on the nearest line first; one common for the
+    // members of a bar graph or gauge (the first common fixed by hand for one of them,
+    // else the first one placed here, decides).
+    let mut entry_com: std::collections::BTreeMap<&str, u32> = std::collections::BTreeMap::new();
+    for e in elements {
+        let hand = layout.fixed_lines.get(&e.name).and_then(|f| f.com);
+        if let (true, Some(c)) = (one_common(layout, e), hand) {
+            entry_com.entry(e.key.as_str()).or_insert(c - 1);
+        }
+    }
     for (i, e) in elements.iter().enumerate() {
         if placed[i] {
             continue;
         }
-        let fixed = layout.fixed_lines.get(&e.name).copied().unwrap_or_default();
+        let mut fixed = layout.fixed_lines.get(&e.name).copied().unwrap_or_default();
+        if fixed.com.is_none() && one_common(layout, e) {
+            fixed.com = entry_com.get(e.key.as_str()).map(|c| c + 1);
+        }
         let want = fixed.com.map(|c| c - 1).unwrap_or_else(|| band(layout, centres[i], n));
         let l = match fixed.seg {
             Some(s) => line_numbered(&mut lines, s - 1),
@@ -118,7 +134,12 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
             None => nearest_free(&lines[l], n, want),
         };
         match com {
-            Some(c) => lines[l].add(i, c, centres[i]),
+            Some(c) => {
+                lines[l].add(i, c, centres[i]);
+                if one_common(layout, e) {
+                    entry_com.entry(e.key.as_str()).or_insert(c);
+                }
+            }
             None => problems.push(layout.problem(
                 &format!("drive.fixed.{}", e.name),
                 format!("SEG line {} has no free common left for `{}`", l + 1, e.name),
@@ -142,6 +163,12 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
         }
     }
     Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages })
+}
+
+/// True for the members of a bar graph or a gauge, which share one common.
+fn one_common(layout: &Layout, e: &Element) -> bool {
+    e.kind == crate::glyph::ElementKind::Step
+        || layout.icons.iter().any(|i| i.key == e.key && matches!(i.shape, crate::layout::IconShape::Gauge { .. }))
 }
 
 fn centre(e: &Element) -> Pt {

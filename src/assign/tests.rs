@@ -120,3 +120,45 @@ fn static_drive_is_one_line_per_element() {
     assert!(a.com.iter().all(|c| *c == 0));
     assert_pairs_once(&a, 1);
 }
+
+/// The steps of a bar graph and the parts of a gauge each keep to one common, every one
+/// on its own line; a step fixed by hand on a common takes the rest of its bar with it.
+/// Before this rule, neighbouring steps took neighbouring commons and the commons
+/// interleaved along the row, which no back-plate routing can join without crossing.
+#[test]
+fn bar_steps_and_gauge_parts_keep_one_common() {
+    use crate::layout::{BarGraph, BarPath, StepShape, StepSide};
+    let mut l = layout(2, 4, vec![]);
+    l.bars.push(BarGraph {
+        name: "LVL".into(),
+        count: 7,
+        path: BarPath::Line { from: crate::geom::pt(8.0, 9.0), angle: 0.0, thickness: 1.0 },
+        shape: StepShape::Rectangle,
+        side: StepSide::Left,
+        length: 1.5,
+        last_length: 1.5,
+        gap: 0.3,
+        key: "bars[0]".into(),
+    });
+    let parts = ["1", "2", "3", "4"]
+        .iter()
+        .map(|s| crate::layout::GaugePart { suffix: s.to_string(), icon: format!("signal-bar-{s}") })
+        .collect();
+    let at = crate::geom::pt(40.0, 28.0);
+    let shape = IconShape::Gauge { gauge: "signal".into(), parts, at, size: 4.0, stroke: 0.3 };
+    l.icons.push(Icon { name: "RF".into(), shape, key: "icons[0]".into() });
+    l.fixed_lines.insert("LVL.4".into(), FixedLine { com: Some(2), seg: None });
+    let e = build_elements(&l).unwrap();
+    let a = assign(&l, &e).unwrap();
+    assert_pairs_once(&a, 4);
+    for (prefix, want) in [("LVL.", Some(1)), ("RF.", None)] {
+        let members: Vec<usize> = (0..e.len()).filter(|&i| e[i].name.starts_with(prefix)).collect();
+        let coms: BTreeSet<u32> = members.iter().map(|&i| a.com[i]).collect();
+        let lines: BTreeSet<u32> = members.iter().map(|&i| a.line[i]).collect();
+        assert_eq!(coms.len(), 1, "{prefix}: {coms:?}");
+        assert_eq!(lines.len(), members.len(), "{prefix}: two members on one line");
+        if let Some(c) = want {
+            assert_eq!(coms.first(), Some(&c), "LVL.4 is fixed on COM2");
+        }
+    }
+}

@@ -183,4 +183,33 @@ mod tests {
         assert_eq!(p[0].line, Some(4));
         assert!(p[0].to_string().starts_with("bad.strokes:4: error"), "{}", p[0]);
     }
+
+    /// The table of named icons in docs/layout-format.md lists exactly the icons of
+    /// fonts-strokes/icons.strokes (`x-1` … `x-3` stands for x-1, x-2, x-3).
+    #[test]
+    fn the_documented_icon_table_matches_the_fonts() {
+        let doc = include_str!("../../docs/layout-format.md");
+        let start = doc.find("Named icons of").expect("icon table");
+        let section = &doc[start..start + doc[start..].find("### `bars`").expect("bars section")];
+        let rows = section.lines().filter(|l| l.starts_with("| `"));
+        let mut listed = Vec::new();
+        for row in rows {
+            // Names sit in the first and third cells.
+            let cells: Vec<&str> = row.split('|').collect();
+            for cell in [cells[1], cells[3]] {
+                let names: Vec<&str> = cell.split('`').skip(1).step_by(2).collect();
+                if cell.contains('…') && names.len() == 2 {
+                    let (stem, a) = names[0].rsplit_once('-').unwrap();
+                    let b = names[1].rsplit_once('-').unwrap().1;
+                    let (a, b): (u32, u32) = (a.parse().unwrap(), b.parse().unwrap());
+                    listed.extend((a..=b).map(|k| format!("{stem}-{k}")));
+                } else {
+                    listed.extend(names.iter().map(|n| n.to_string()));
+                }
+            }
+        }
+        listed.sort();
+        let fonts: Vec<String> = Fonts::builtin().unwrap().icon_names().iter().map(|n| n.to_string()).collect();
+        assert_eq!(listed, fonts);
+    }
 }

@@ -32,6 +32,7 @@ fn problem(field: &'static str, message: impl Into<String>, allowed: Option<Stri
 pub fn describe(shape: &IconShape) -> String {
     match shape {
         IconShape::Named { icon, .. } => format!("icon {icon}"),
+        IconShape::Gauge { gauge, .. } => format!("gauge {gauge}"),
         IconShape::Rectangle { .. } => "rectangle icon".into(),
         IconShape::Circle { .. } => "circle icon".into(),
         IconShape::Ring { .. } => "ring icon".into(),
@@ -43,24 +44,15 @@ pub fn describe(shape: &IconShape) -> String {
 /// Builds the outline of one icon shape.
 pub fn build_icon(fonts: &Fonts, shape: &IconShape, tol: f64) -> Result<Region, IconProblem> {
     match shape {
-        IconShape::Named { icon, at, size, stroke } => {
-            let Some(def) = fonts.icon(icon) else {
-                return Err(problem("icon", format!("there is no icon `{icon}`"), Some(fonts.icon_names().join(", "))));
-            };
-            if !(*stroke > 0.0 && stroke < size) {
-                return Err(problem(
-                    "stroke",
-                    format!("stroke {stroke} mm must be above 0 and below the size {size} mm"),
-                    None,
-                ));
+        IconShape::Named { icon, at, size, stroke } => named(fonts, icon, *at, *size, *stroke, tol),
+        // All parts together, as the whole gauge looks with every part on (the glyph stage
+        // makes one element per part, `gauge.rs`).
+        IconShape::Gauge { parts, at, size, stroke, .. } => {
+            let mut all = Vec::new();
+            for p in parts {
+                all.extend(named(fonts, &p.icon, *at, *size, *stroke, tol)?.0);
             }
-            let pen = Pen {
-                scale: size - stroke,
-                origin: pt(at.x + stroke / 2.0, at.y + stroke / 2.0),
-                stroke: *stroke,
-                tol,
-            };
-            Ok(ink(&def.marks, &pen))
+            Ok(crate::geom::union_all(all))
         }
         IconShape::Rectangle { at, width, height, corner } => {
             if !(*width > 0.0 && *height > 0.0) {
@@ -99,6 +91,22 @@ pub fn build_icon(fonts: &Fonts, shape: &IconShape, tol: f64) -> Result<Region, 
         IconShape::Polygon { points } => polygon(points),
         IconShape::Path { d, at } => path(d, *at, tol),
     }
+}
+
+/// A named icon from the fonts, its ink filling the `size` box at `at`.
+pub fn named(fonts: &Fonts, icon: &str, at: Pt, size: f64, stroke: f64, tol: f64) -> Result<Region, IconProblem> {
+    let Some(def) = fonts.icon(icon) else {
+        return Err(problem("icon", format!("there is no icon `{icon}`"), Some(fonts.icon_names().join(", "))));
+    };
+    if !(stroke > 0.0 && stroke < size) {
+        return Err(problem(
+            "stroke",
+            format!("stroke {stroke} mm must be above 0 and below the size {size} mm"),
+            None,
+        ));
+    }
+    let pen = Pen { scale: size - stroke, origin: pt(at.x + stroke / 2.0, at.y + stroke / 2.0), stroke, tol };
+    Ok(ink(&def.marks, &pen))
 }
 
 fn polygon(points: &[Pt]) -> Result<Region, IconProblem> {

@@ -1,15 +1,17 @@
 //! Stage `glyph`: resolved layout + stroke fonts → element outlines.
 //!
-//! Takes the digits, legends and icons of a `Layout` and the stroke fonts in
+//! Takes the digits, legends, icons and bar graphs of a `Layout` and the stroke fonts in
 //! `fonts-strokes/` (compiled in) plus any the layout adds; gives one [`Element`] per
-//! switchable thing, with its electrode outline and its gap-free body (from which common
-//! electrodes are grown, docs/crate-notes.md, *Backplanes from gap-free shapes*). The
-//! font format is described in
+//! switchable thing (one per part of a gauge, one per step of a bar graph), with its
+//! electrode outline and its gap-free body (from which common electrodes are grown,
+//! docs/crate-notes.md, *Backplanes from gap-free shapes*). The font format is described in
 //! `fonts-strokes/README.md`, the constructions in `docs/glyphs.md`.
 
+pub mod bar;
 pub mod digit;
 pub mod font;
 pub mod fonts;
+pub mod gauge;
 pub mod group;
 pub mod icon;
 pub mod ink;
@@ -38,8 +40,10 @@ pub enum ElementKind {
     Segment,
     /// A fixed legend.
     Legend,
-    /// An icon.
+    /// An icon, or one part of a gauge.
     Icon,
+    /// A step of a bar graph.
+    Step,
 }
 
 /// One switchable element.
@@ -47,12 +51,13 @@ pub enum ElementKind {
 pub struct Element {
     /// Unique name, also its net name under static drive (`D1.a`, `D2.dp`, `D2.col`).
     pub name: String,
-    /// Segment, legend or icon.
+    /// Segment, legend, icon or bar-graph step.
     pub kind: ElementKind,
     /// Electrode outline (one or more pieces), mm, front-plate frame.
     pub outline: Region,
     /// Gap-free body: the outline drawn with zero segment gap, so the bodies of one
-    /// digit's segments tile the whole digit. Equal to `outline` for legends and icons.
+    /// digit's segments tile the whole digit. Equal to `outline` for legends, icons and
+    /// bar-graph steps.
     pub body: Region,
     /// Digit this element belongs to (`D1`), if any.
     pub digit: Option<String>,
@@ -63,8 +68,9 @@ pub struct Element {
 }
 
 /// Builds every element of the layout: digit groups in order (each digit's segments in
-/// the style's order, then its decimal point and colon), then legends, then icons. Every
-/// input problem found is reported together.
+/// the style's order, then its decimal point and colon), then legends, then icons (a
+/// gauge's parts in order), then bar graphs (steps in order). Every input problem found
+/// is reported together.
 pub fn build_elements(layout: &Layout) -> Result<Vec<Element>> {
     if !(layout.tolerance > 0.0 && layout.tolerance.is_finite()) {
         let msg = format!("tolerance {} mm", layout.tolerance);
@@ -88,7 +94,14 @@ pub fn build_elements(layout: &Layout) -> Result<Vec<Element>> {
         keep(build_legend(layout, &fonts, l).map(|e| vec![e]), &mut out)?;
     }
     for i in &layout.icons {
-        keep(build_icon(layout, &fonts, i).map(|e| vec![e]), &mut out)?;
+        if matches!(i.shape, crate::layout::IconShape::Gauge { .. }) {
+            keep(gauge::build_gauge(layout, &fonts, i), &mut out)?;
+        } else {
+            keep(build_icon(layout, &fonts, i).map(|e| vec![e]), &mut out)?;
+        }
+    }
+    for b in &layout.bars {
+        keep(bar::build_bar(layout, b), &mut out)?;
     }
     if problems.is_empty() { Ok(out) } else { Err(Error::Input(problems)) }
 }

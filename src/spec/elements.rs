@@ -185,8 +185,8 @@ pub fn legends(p: &mut Problems, raw: &[RawLegend]) -> Vec<Legend> {
     out
 }
 
-/// A legend or icon name.
-fn element_name(p: &mut Problems, v: Option<&Scalar>, key: &str) -> String {
+/// A legend, icon or bar graph name.
+pub fn element_name(p: &mut Problems, v: Option<&Scalar>, key: &str) -> String {
     let name = p.text(v, key, None, NET_NAME);
     if !name.is_empty() && !net_name_ok(&name) {
         let why = if is_common_name(&name) { "is reserved for a common electrode" } else { "is not a net name" };
@@ -195,26 +195,27 @@ fn element_name(p: &mut Problems, v: Option<&Scalar>, key: &str) -> String {
     name
 }
 
-const SHAPES: &str = "exactly one of icon, rectangle, circle, ring, polygon, path";
+const SHAPES: &str = "exactly one of icon, gauge, rectangle, circle, ring, polygon, path";
 
-/// `icons:`.
-pub fn icons(p: &mut Problems, raw: &[RawIcon]) -> Vec<Icon> {
+/// `icons:`; `icon_names` are the icons the fonts define (for the parts of gauges).
+pub fn icons(p: &mut Problems, raw: &[RawIcon], icon_names: &[String]) -> Vec<Icon> {
     let mut out = Vec::new();
     for (i, r) in raw.iter().enumerate() {
         let key = format!("icons[{i}]");
         let name = element_name(p, r.name.as_ref(), &format!("{key}.name"));
         // An icon without a usable shape keeps its place (and net) with an empty
         // polygon; the problem is noted, so the layout is refused anyway.
-        let shape = icon_shape(p, r, &key).unwrap_or(IconShape::Polygon { points: vec![] });
+        let shape = icon_shape(p, r, &key, icon_names).unwrap_or(IconShape::Polygon { points: vec![] });
         out.push(Icon { name, shape, key });
     }
     out
 }
 
-fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
+fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str, icon_names: &[String]) -> Option<IconShape> {
     let k = |f: &str| format!("{key}.{f}");
     let given: Vec<&str> = [
         ("icon", r.icon.is_some()),
+        ("gauge", r.gauge.is_some()),
         ("rectangle", r.rectangle.is_some()),
         ("circle", r.circle.is_some()),
         ("ring", r.ring.is_some()),
@@ -234,30 +235,35 @@ fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
         p.bad(key, m, SHAPES);
         return None;
     }
-    if r.icon.is_none() {
+    if r.icon.is_none() && r.gauge.is_none() {
         for (f, set) in [("at", r.at.is_some()), ("size", r.size.is_some()), ("stroke", r.stroke.is_some())] {
             if set {
                 p.bad(
                     &k(f),
-                    format!("`{f}` belongs to a named `icon`, not to a {}", given[0]),
-                    "at, size and stroke only with `icon`",
+                    format!("`{f}` belongs to a named `icon` or a `gauge`, not to a {}", given[0]),
+                    "at, size and stroke only with `icon` or `gauge`",
                 );
             }
         }
     }
     Some(if let Some(icon) = &r.icon {
         let icon = p.text(Some(icon), &k("icon"), None, "an icon name from the fonts");
-        let at = p.point(r.at.as_ref(), &k("at"), None);
-        let size = p.length(r.size.as_ref(), &k("size"), None, Sign::Positive);
-        let stroke = p.length(r.stroke.as_ref(), &k("stroke"), Some(size / 12.0), Sign::Positive);
-        if p.clean(&[&k("size"), &k("stroke")]) && stroke * 4.0 >= size {
-            p.bad(
-                &k("stroke"),
-                format!("stroke {} is too heavy for a {} icon", mm(stroke), mm(size)),
-                "less than a quarter of the size",
-            );
-        }
+        let (at, size, stroke) = icon_box(p, r, key);
         IconShape::Named { icon, at, size, stroke }
+    } else if let Some(gauge) = &r.gauge {
+        let names = super::gauges::gauge_names(icon_names);
+        let allowed = format!("a gauge of the fonts: {}", names.join(", "));
+        let gauge = p.text(Some(gauge), &k("gauge"), None, &allowed);
+        let parts = super::gauges::gauge_parts(&gauge, icon_names).unwrap_or_default();
+        if parts.is_empty() && p.clean(&[&k("gauge")]) {
+            let mut m = format!("there is no gauge `{gauge}`");
+            if let Some(near) = super::problems::nearest(&gauge, names.iter().map(String::as_str)) {
+                m.push_str(&format!(" (did you mean `{near}`?)"));
+            }
+            p.bad(&k("gauge"), m, &allowed);
+        }
+        let (at, size, stroke) = icon_box(p, r, key);
+        IconShape::Gauge { gauge, parts, at, size, stroke }
     } else if let Some(rc) = &r.rectangle {
         let k = |f: &str| format!("{key}.rectangle.{f}");
         let at = p.point(rc.at.as_ref(), &k("at"), None);
@@ -304,6 +310,22 @@ fn icon_shape(p: &mut Problems, r: &RawIcon, key: &str) -> Option<IconShape> {
         let at = p.point(path.at.as_ref(), &format!("{key}.path.at"), Some(pt(0.0, 0.0)));
         IconShape::Path { d, at }
     })
+}
+
+/// `at`, `size` and `stroke` of a named icon or a gauge; stroke defaults to size / 12.
+fn icon_box(p: &mut Problems, r: &RawIcon, key: &str) -> (crate::geom::Pt, f64, f64) {
+    let k = |f: &str| format!("{key}.{f}");
+    let at = p.point(r.at.as_ref(), &k("at"), None);
+    let size = p.length(r.size.as_ref(), &k("size"), None, Sign::Positive);
+    let stroke = p.length(r.stroke.as_ref(), &k("stroke"), Some(size / 12.0), Sign::Positive);
+    if p.clean(&[&k("size"), &k("stroke")]) && stroke * 4.0 >= size {
+        p.bad(
+            &k("stroke"),
+            format!("stroke {} is too heavy for a {} icon", mm(stroke), mm(size)),
+            "less than a quarter of the size",
+        );
+    }
+    (at, size, stroke)
 }
 
 /// Signed area of a closed ring (shoelace formula).

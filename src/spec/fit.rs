@@ -18,7 +18,7 @@ pub fn check_fit(p: &mut Problems, l: &Layout) {
     }
     if p.clean(&["glass", "pads.side", "pads.length", "pads.edge_margin"])
         && ledge(p, l)
-        && p.clean(&["pads", "drive", "digits", "legends", "icons"])
+        && p.clean(&["pads", "drive", "digits", "legends", "icons", "bars"])
     {
         pad_row(p, l);
     }

@@ -10,8 +10,11 @@
 //! `fit` and `placement` check how the parts go together, skipping checks whose inputs
 //! were already found bad so that one mistake gives one message.
 
+mod bar_cells;
+mod bars;
 mod elements;
 mod fit;
+mod gauges;
 mod locate;
 mod nets;
 mod placement;
@@ -82,7 +85,9 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
     let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
     let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules);
     let legends = elements::legends(p, raw.legends.as_deref().unwrap_or(&[]));
-    let icons = elements::icons(p, raw.icons.as_deref().unwrap_or(&[]));
+    let extra_fonts = resolve::fonts(p, raw.fonts.as_ref(), path);
+    let icons = elements::icons(p, raw.icons.as_deref().unwrap_or(&[]), &gauges::icon_names(&extra_fonts));
+    let bars = bars::bars(p, raw.bars.as_deref().unwrap_or(&[]), &rules);
     let buses = elements::buses(p, raw.buses.as_deref().unwrap_or(&[]), &rules);
     Layout {
         name,
@@ -96,13 +101,14 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
         fixed_lines: resolve::fixed_lines(p, raw.drive.as_ref()),
         marks: resolve::marks(p, raw.marks.as_ref()),
         layers: resolve::layers(p, raw.gds_layers.as_ref()),
-        extra_fonts: resolve::fonts(p, raw.fonts.as_ref(), path),
+        extra_fonts,
         rules,
         seal,
         pads,
         digits,
         legends,
         icons,
+        bars,
         buses,
         tolerance,
         key_lines: p.lines().clone(),

@@ -1,9 +1,9 @@
-//! The nets a layout makes (every segment, decimal point, colon, legend, icon and common
-//! electrode) and the checks on them: no net made twice, fixed pins and buses naming
+//! The nets a layout makes (every segment, decimal point, colon, legend, icon, gauge
+//! part, bar-graph step and common electrode) and the checks on them: no net made twice, fixed pins and buses naming
 //! nets that exist, pin numbers unique and on the pad row.
 
 use super::problems::Problems;
-use crate::layout::{COLON, DECIMAL_POINT, Layout, common_net, line_net, segment_net};
+use crate::layout::{COLON, DECIMAL_POINT, IconShape, Layout, common_net, gauge_part_net, line_net, segment_net, step_net};
 use std::collections::BTreeMap;
 
 /// One net and the key of the layout entry that makes it.
@@ -40,7 +40,17 @@ pub fn element_nets(layout: &Layout) -> Vec<NetSource> {
         }
     }
     out.extend(layout.legends.iter().map(|l| NetSource { net: l.name.clone(), key: l.key.clone() }));
-    out.extend(layout.icons.iter().map(|i| NetSource { net: i.name.clone(), key: i.key.clone() }));
+    for i in &layout.icons {
+        match &i.shape {
+            IconShape::Gauge { parts, .. } => out.extend(
+                parts.iter().map(|p| NetSource { net: gauge_part_net(&i.name, &p.suffix), key: i.key.clone() }),
+            ),
+            _ => out.push(NetSource { net: i.name.clone(), key: i.key.clone() }),
+        }
+    }
+    for b in &layout.bars {
+        out.extend((1..=b.count).map(|k| NetSource { net: step_net(&b.name, k), key: b.key.clone() }));
+    }
     out
 }
 
@@ -68,7 +78,8 @@ pub fn nets_clean(p: &Problems, layout: &Layout) -> bool {
         }
     }
     keys.extend(layout.legends.iter().map(|l| format!("{}.name", l.key)));
-    keys.extend(layout.icons.iter().map(|i| format!("{}.name", i.key)));
+    keys.extend(layout.icons.iter().flat_map(|i| [format!("{}.name", i.key), format!("{}.gauge", i.key)]));
+    keys.extend(layout.bars.iter().flat_map(|b| [format!("{}.name", b.key), format!("{}.count", b.key)]));
     let refs: Vec<&str> = keys.iter().map(String::as_str).collect();
     p.clean(&refs)
 }

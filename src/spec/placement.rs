@@ -1,9 +1,10 @@
-//! Where the elements sit: every digit inside the window, no digit overlapping another
-//! (within a group or across groups) or an icon, icons inside the window, legend anchors
-//! inside the window, bus points on their glass. Uses outlines that are cheap to know
-//! before the glyph stage runs: a digit's slanted cell (plus room for its decimal point
-//! or colon), an icon's shape or box. Legend extents need the font and are left to the
-//! glyph stage.
+//! Where the elements sit: every digit and bar-graph step inside the window, no digit
+//! overlapping another (within a group or across groups), an icon or a bar graph, icons
+//! inside the window, legend anchors inside the window, bus points on their glass. Uses
+//! outlines that are cheap to know before the glyph stage runs: a digit's slanted cell
+//! (plus room for its decimal point or colon), an icon's shape or box (a gauge's box
+//! holds all its parts, so they are one entry and never overlap each other), a step's
+//! cell (`bar_cells.rs`). Legend extents need the font and are left to the glyph stage.
 
 use super::problems::Problems;
 use super::read::mm;
@@ -30,7 +31,9 @@ pub fn digit_cell(g: &DigitGroup, digit: u32) -> Polygon {
 /// Outline of an icon for overlap tests, or `None` when only the glyph stage knows it.
 fn icon_outline(shape: &IconShape, tol: f64) -> Option<Polygon> {
     Some(match shape {
-        IconShape::Named { at, size, .. } => geom::rect(at.x, at.y, at.x + size, at.y + size),
+        IconShape::Named { at, size, .. } | IconShape::Gauge { at, size, .. } => {
+            geom::rect(at.x, at.y, at.x + size, at.y + size)
+        }
         IconShape::Rectangle { at, width, height, .. } => geom::rect(at.x, at.y, at.x + width, at.y + height),
         IconShape::Circle { centre, radius } => geom::circle(*centre, *radius, tol),
         IconShape::Ring { centre, outer, inner } => geom::ring(*centre, *outer, *inner, tol),
@@ -111,6 +114,26 @@ pub fn check_placement(p: &mut Problems, l: &Layout) {
             });
         }
     }
+    for b in &l.bars {
+        if !p.clean(&[&b.key]) {
+            continue;
+        }
+        let cells: Vec<Polygon> = (0..b.count).map(|k| super::bar_cells::step_cell(b, k, l.tolerance)).collect();
+        if let Some(k) = cells.iter().position(|c| !l.window.contains_rect(&bounds(c))) {
+            let m =
+                format!("step {} of bar graph `{}` ({}) reaches outside the window", k + 1, b.name, extent(&cells[k]));
+            p.bad(&b.key, m, &window_text(&l.window));
+        }
+        for (k, outline) in cells.into_iter().enumerate() {
+            placed.push(Placed {
+                outline,
+                key: b.key.clone(),
+                entry: b.key.clone(),
+                what: format!("step {} of bar graph `{}`", k + 1, b.name),
+                group: None,
+            });
+        }
+    }
     for lg in &l.legends {
         let key = format!("{}.at", lg.key);
         let top = pt(lg.at.x, lg.at.y + lg.height);
@@ -144,6 +167,12 @@ fn buses_on_glass(p: &mut Problems, l: &Layout) {
     }
 }
 
+/// `x 1 mm to 2 mm, y 3 mm to 4 mm`: the bounds of an outline, for messages.
+fn extent(o: &Polygon) -> String {
+    let b = bounds(o);
+    format!("x {} to {}, y {} to {}", mm(b.x), mm(b.x1()), mm(b.y), mm(b.y1()))
+}
+
 fn window_text(w: &Rect) -> String {
     format!("inside the window, x {} to {}, y {} to {}", mm(w.x), mm(w.x1()), mm(w.y), mm(w.y1()))
 }
@@ -157,19 +186,12 @@ fn digits_in_window(p: &mut Problems, l: &Layout, g: &DigitGroup) {
     for d in 1..=g.count {
         let cell = digit_cell(g, d);
         if !cell.exterior().coords().all(|c| inside(&l.window, *c)) {
-            let b = bounds(&cell);
-            p.bad(
-                &format!("{}.origin", g.key),
-                format!(
-                    "digit {d} of `{}` (x {} to {}, y {} to {}, slant and point room included) reaches outside the window",
-                    g.name,
-                    mm(b.x),
-                    mm(b.x1()),
-                    mm(b.y),
-                    mm(b.y1())
-                ),
-                &window_text(&l.window),
+            let m = format!(
+                "digit {d} of `{}` ({}, slant and point room included) reaches outside the window",
+                g.name,
+                extent(&cell)
             );
+            p.bad(&format!("{}.origin", g.key), m, &window_text(&l.window));
             return;
         }
     }
@@ -181,7 +203,10 @@ fn overlaps(p: &mut Problems, placed: &[Placed]) {
     for (j, b) in placed.iter().enumerate() {
         for a in &placed[..j] {
             let pair = (a.entry.clone(), b.entry.clone());
-            if reported.contains(&pair) || !overlap(&a.outline, &b.outline) {
+            // The steps of one bar graph keep their gap by construction (`bars.rs`); their
+            // cells may touch.
+            let same_bar = a.entry == b.entry && a.entry.starts_with("bars[");
+            if same_bar || reported.contains(&pair) || !overlap(&a.outline, &b.outline) {
                 continue;
             }
             reported.push(pair);

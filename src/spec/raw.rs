@@ -26,6 +26,7 @@ pub struct RawLayout {
     pub digits: Option<Vec<RawDigits>>,
     pub legends: Option<Vec<RawLegend>>,
     pub icons: Option<Vec<RawIcon>>,
+    pub bars: Option<Vec<RawBar>>,
     pub buses: Option<Vec<RawBus>>,
     pub gds_layers: Option<Entries<OneOrList>>,
     pub fonts: Option<Vec<Scalar>>,
@@ -222,6 +223,7 @@ pub struct RawIcon {
     pub ring: Option<RawRing>,
     pub polygon: Option<Vec<RawPoint>>,
     pub path: Option<RawPath>,
+    pub gauge: Option<Scalar>,
 }
 
 /// `rectangle:` icon.
@@ -257,6 +259,41 @@ pub struct RawRing {
 pub struct RawPath {
     pub d: Option<Scalar>,
     pub at: Option<RawPoint>,
+}
+
+/// One item of `bars:`: a name, a count, exactly one of `line` and `arc`, step sizes.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a bar graph: a mapping with keys such as name, count, line or arc, length")]
+pub struct RawBar {
+    pub name: Option<Scalar>,
+    pub count: Option<Scalar>,
+    pub line: Option<RawBarLine>,
+    pub arc: Option<RawBarArc>,
+    pub shape: Option<Scalar>,
+    pub side: Option<Scalar>,
+    pub length: Option<Scalar>,
+    pub last_length: Option<Scalar>,
+    pub thickness: Option<Scalar>,
+    pub gap: Option<Scalar>,
+}
+
+/// `bars[i].line:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys from and angle or to")]
+pub struct RawBarLine {
+    pub from: Option<RawPoint>,
+    pub angle: Option<Scalar>,
+    pub to: Option<RawPoint>,
+}
+
+/// `bars[i].arc:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys centre, radius, start and end")]
+pub struct RawBarArc {
+    pub centre: Option<RawPoint>,
+    pub radius: Option<Scalar>,
+    pub start: Option<Scalar>,
+    pub end: Option<Scalar>,
 }
 
 /// One item of `buses:`.

@@ -205,7 +205,8 @@ fn the_documented_example_resolves() {
     let text = doc_example();
     let l = parse(&text).unwrap_or_else(|v| panic!("{v:#?}"));
     assert_eq!(l.name, "pump-panel");
-    assert_eq!(l.icons.len(), 6);
+    assert_eq!(l.icons.len(), 7);
+    assert_eq!((l.bars[0].count, l.bars[0].last_length, l.bars[0].side), (8, 4.0, StepSide::Right));
     assert_eq!(l.pads.fixed["D2.a"], 2);
     assert_eq!(l.layers.entries["seal"], (30, 0));
     assert_eq!(l.digits[0].half_digits, [1]);
@@ -216,6 +217,7 @@ fn the_documented_example_resolves() {
     assert_eq!(l.key_lines["icons[3].ring.inner"], line("RING1"));
     assert_eq!(l.key_lines["digits[0].half_digits"], line("half_digits"));
     assert_eq!(l.key_lines["buses[0].points[1]"], line("net: D2.a"));
+    assert_eq!(l.key_lines["bars[0].last_length"], line("last_length"));
 }
 
 #[test]
@@ -228,4 +230,46 @@ fn the_documented_example_reports_many_problems_at_once() {
     let v = problems(&text);
     let keys: Vec<&str> = v.iter().map(|p| p.key.as_str()).collect();
     assert_eq!(keys, ["cell_gap", "digits[0].slant", "icons[3].ring.inner", "buses[0].net"], "{v:#?}");
+}
+
+#[test]
+fn bar_steps_and_gauge_parts_are_nets() {
+    let t = format!(
+        "{MINIMAL}icons:\n  - {{name: RF, gauge: signal, at: [19, 22], size: 3.5, stroke: 0.25}}\n\
+         bars:\n  - name: LVL\n    count: 5\n    line: {{from: [6, 10.5], angle: 0}}\n    thickness: 0.6\n    length: 1\n\
+         pads: {{side: bottom, pitch: 1.0, fixed: {{RF.2: 3, LVL.5: 4}}}}\n"
+    )
+    .replace("pads: {side: bottom, pitch: 1.8}\n", "");
+    let l = parse(&t).unwrap_or_else(|v| panic!("{v:#?}"));
+    let nets: Vec<String> = element_nets(&l).into_iter().map(|s| s.net).collect();
+    assert_eq!(nets[7..], ["RF.1", "RF.2", "RF.3", "RF.4", "LVL.1", "LVL.2", "LVL.3", "LVL.4", "LVL.5"]);
+    // 7 segments, 4 gauge parts, 5 steps and the common.
+    assert_eq!(pads_needed(&l), 17);
+    assert_eq!(l.key_lines["bars[0].line.from"], l.key_lines["bars[0].line"]);
+    assert!(matches!(&l.icons[0].shape, IconShape::Gauge { parts, .. } if parts.len() == 4));
+    // Multiplexed, drive.fixed may name a step.
+    let m = parse(&t.replace("pads: {side: bottom, pitch: 1.0, fixed: {RF.2: 3, LVL.5: 4}}", "pads: {side: bottom, pitch: 1.0}\ndrive: {duty: 1/4, fixed: {LVL.3: {com: 2}}}")).unwrap();
+    assert_eq!(m.fixed_lines["LVL.3"].com, Some(2));
+    let v = problems(&t.replace("LVL.5: 4", "LVL.6: 4"));
+    assert_eq!(v[0].key, "pads.fixed.LVL.6");
+    assert!(v[0].message.starts_with("unknown net `LVL.6`"), "{}", v[0].message);
+}
+
+#[test]
+fn a_gauge_the_fonts_lack_is_refused_with_the_list() {
+    let v = problems(&format!("{MINIMAL}icons:\n  - {{name: B, gauge: batery, at: [19, 22], size: 3}}\n"));
+    assert_eq!((v[0].key.as_str(), v[0].line), ("icons[0].gauge", Some(17)));
+    assert_eq!(v[0].message, "there is no gauge `batery` (did you mean `battery`?)");
+    assert_eq!(v[0].allowed.as_deref(), Some("a gauge of the fonts: battery, signal"));
+}
+
+/// A bar graph's step outside the window, or over a digit, is refused at the bar.
+#[test]
+fn bar_graphs_stay_in_the_window_and_off_other_elements() {
+    let bar = |from: &str| format!("{MINIMAL}bars:\n  - {{name: L, count: 4, line: {{from: {from}}}, thickness: 1, length: 1}}\n");
+    let v = problems(&bar("[22, 11]"));
+    assert_eq!(v[0].key, "bars[0]");
+    assert!(v[0].message.contains("step 3 of bar graph `L`"), "{}", v[0].message);
+    let v = problems(&bar("[10.5, 16]"));
+    assert!(v[0].message.contains("step 1 of bar graph `L` overlaps digit 1 of `D`"), "{}", v[0].message);
 }
