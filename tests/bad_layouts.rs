@@ -32,6 +32,7 @@ const CASES: &[Case] = &[
     Case("slant-too-steep", "digits[0].slant", 22, "too steep (allowed: -20 to 20 degrees)"),
     Case("stroke-too-heavy", "digits[0].stroke", 23, "too heavy for a 7 mm × 12 mm digit"),
     Case("negative-gap", "digits[0].gap", 23, "must not be negative"),
+    Case("thin-marks", "marks.line", 9, "a mark line drawn 0.15 mm wide etches to 0.13 mm, below min_width 0.15 mm"),
     Case("decimal-point-index", "digits[0].decimal_points[1]", 23, "digit 5 does not exist (the group has 4)"),
     Case("ring-inner", "icons[1].ring.inner", 28, "inner radius 2.5 mm is not less than outer 2 mm"),
     Case("icon-two-shapes", "icons[1]", 28, "several shapes given: circle, ring"),

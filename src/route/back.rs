@@ -108,7 +108,9 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         let c = &commons[k];
         let Some(dot) = &c.dot else { continue };
         tree.clear();
-        grid.for_cells_in(&region_of([dot.clone()]), |i| tree.add(i));
+        for i in landing_cells(layout, &grid, dot) {
+            tree.add(i);
+        }
         let mut ok = true;
         for isl in nearest_first(&c.islands, dot) {
             match join(layout, &mut grid, search, &mut corridors, c, &mut tree, isl) {
@@ -125,6 +127,21 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         }
     }
     (out, failed, notes)
+}
+
+/// The cells of a transfer dot's pad where a lead may end: at least half a lead width in
+/// from its edge, so that the round end of the lead lies inside the pad (a lead ending on
+/// the pad's edge leaves part of its end outside, a notch narrower than the lead); the
+/// whole pad when it is too small for that.
+fn landing_cells(layout: &Layout, grid: &Grid, dot: &Polygon) -> Vec<usize> {
+    let pad = region_of([dot.clone()]);
+    let inner = offset_round(&pad, -layout.rules.lead_width / 2.0, layout.tolerance.max(grid.h / 4.0));
+    let mut cells = Vec::new();
+    grid.for_cells_in(&inner, |i| cells.push(i));
+    if cells.is_empty() {
+        grid.for_cells_in(&pad, |i| cells.push(i));
+    }
+    cells
 }
 
 /// Joins one island to the tree; the lead drawn, if one was needed, or the place where

@@ -99,7 +99,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
         transfer: resolve::transfer(p, raw.transfer_dots.as_ref()),
         drive: resolve::drive(p, raw.drive.as_ref()),
         fixed_lines: resolve::fixed_lines(p, raw.drive.as_ref()),
-        marks: resolve::marks(p, raw.marks.as_ref()),
+        marks: resolve::marks(p, raw.marks.as_ref(), &rules),
         layers: resolve::layers(p, raw.gds_layers.as_ref()),
         extra_fonts,
         rules,

@@ -320,10 +320,21 @@ fn fraction(s: &Scalar) -> Option<u32> {
     n.trim().parse().ok()
 }
 
-/// `marks:`.
-pub fn marks(p: &mut Problems, m: Option<&RawMarks>) -> Marks {
+/// `marks:`. The line defaults to 0.15 mm, or to the narrowest line that still etches to
+/// `min_width` when that is wider: marks are ITO like any other and must pass the same
+/// width rule (coarse film rules made the fixed 0.15 mm marks fail it).
+pub fn marks(p: &mut Problems, m: Option<&RawMarks>, rules: &Rules) -> Marks {
     let size = p.length(m.and_then(|m| m.size.as_ref()), "marks.size", Some(1.0), Sign::Positive);
-    let line = p.length(m.and_then(|m| m.line.as_ref()), "marks.line", Some(0.15), Sign::Positive);
+    let narrowest = rules.min_width + 2.0 * (rules.undercut - rules.film_bias());
+    let line_default = narrowest.max(0.15);
+    let line = p.length(m.and_then(|m| m.line.as_ref()), "marks.line", Some(line_default), Sign::Positive);
+    if p.clean(&["marks", "rules"]) && rules.etched_width(line) < rules.min_width - 1e-9 {
+        p.bad(
+            "marks.line",
+            format!("a mark line drawn {} wide etches to {}, below min_width {}", mm(line), mm(rules.etched_width(line)), mm(rules.min_width)),
+            &format!("at least {}", mm(narrowest)),
+        );
+    }
     if p.clean(&["marks"]) && line * 2.0 >= size {
         p.bad("marks.line", format!("a {} line does not fit a {} mark", mm(line), mm(size)), "less than half the size");
     }
