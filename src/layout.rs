@@ -191,6 +191,24 @@ pub struct Rules {
 }
 
 impl Rules {
+    /// Cell size of the routing grid: half the smaller of lead width and gap, so that a
+    /// corridor one lead wide always holds a row of cell centres; never below 10 µm.
+    pub fn grid_step(&self) -> f64 {
+        (self.lead_width.min(self.min_gap) / 2.0).max(0.01)
+    }
+
+    /// The default gap between the segments of a digit: wide enough for a lead to pass
+    /// between two segments (lead plus a gap each side). Under multiplexed drive leads of
+    /// both plates thread through the junctions of every digit (SEG lines join their
+    /// segments there; at 1/4 duty a common enters each digit by its left junction), and
+    /// a lead placed on the routing grid needs two cells of slack on each side: with
+    /// less, the 1/2-, 1/3- and 1/4-duty demos came out with commons cut off from their
+    /// dots, with it they route clean.
+    pub fn passing_gap(&self, multiplexed: bool) -> f64 {
+        let lead_and_gaps = self.lead_width + 2.0 * self.min_gap;
+        if multiplexed { lead_and_gaps + 4.0 * self.grid_step() } else { lead_and_gaps }
+    }
+
     /// How much each edge moves on the film relative to the drawing (the undercut when
     /// compensating, else 0).
     pub fn film_bias(&self) -> f64 {
@@ -582,3 +600,28 @@ pub fn key_line(lines: &BTreeMap<String, usize>, key: &str) -> Option<usize> {
 #[cfg(test)]
 #[path = "layout_fixture.rs"]
 pub mod fixture;
+
+#[cfg(test)]
+mod rules_tests {
+    use super::*;
+
+    /// With the default rules (0.11 mm leads, 0.05 mm gaps; docs/layout-format.md) a
+    /// lead between two segments needs 0.11 + 2 × 0.05 = 0.21 mm, and under multiplexed
+    /// drive four 0.025 mm grid cells more.
+    #[test]
+    fn passing_gap_of_the_default_rules() {
+        let r = Rules {
+            min_width: 0.1,
+            min_gap: 0.05,
+            undercut: 0.005,
+            compensate: false,
+            film_min_feature: 0.03,
+            backplane_overlap: 0.15,
+            edge_clearance: 1.5,
+            lead_width: 0.11,
+        };
+        assert!((r.grid_step() - 0.025).abs() < 1e-12);
+        assert!((r.passing_gap(false) - 0.21).abs() < 1e-12);
+        assert!((r.passing_gap(true) - 0.31).abs() < 1e-12);
+    }
+}

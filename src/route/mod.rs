@@ -83,10 +83,9 @@ pub struct Routes {
     pub findings: Vec<Finding>,
 }
 
-/// Grid cell size: half the smaller of lead width and gap, so that a corridor one lead
-/// wide always contains a row of cell centres; never below 10 µm.
+/// Grid cell size ([`crate::layout::Rules::grid_step`]).
 pub fn grid_step(layout: &Layout) -> f64 {
-    (layout.rules.lead_width.min(layout.rules.min_gap) / 2.0).max(0.01)
+    layout.rules.grid_step()
 }
 
 /// Centre-to-centre spacing of neighbouring leads in the fan-out: lead width plus gap,

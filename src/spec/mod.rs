@@ -83,7 +83,8 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
     let rules = resolve::rules(p, raw.rules.as_ref());
     let pads = resolve::pads(p, raw.pads.as_ref());
     let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
-    let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules);
+    let drive = resolve::drive(p, raw.drive.as_ref());
+    let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules, &drive);
     let legends = elements::legends(p, raw.legends.as_deref().unwrap_or(&[]));
     let extra_fonts = resolve::fonts(p, raw.fonts.as_ref(), path);
     let icons = elements::icons(p, raw.icons.as_deref().unwrap_or(&[]), &gauges::icon_names(&extra_fonts));
@@ -97,7 +98,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
         cell_gap,
         resist: resolve::resist(p, raw.resist.as_ref()),
         transfer: resolve::transfer(p, raw.transfer_dots.as_ref()),
-        drive: resolve::drive(p, raw.drive.as_ref()),
+        drive,
         fixed_lines: resolve::fixed_lines(p, raw.drive.as_ref()),
         marks: resolve::marks(p, raw.marks.as_ref(), &rules),
         layers: resolve::layers(p, raw.gds_layers.as_ref()),
