@@ -65,6 +65,30 @@ pub fn match_in_order(arrivals: &[f64], pads: &[f64]) -> Vec<usize> {
 pub fn plan(arrivals: &[Arrival], pad_u: &[f64], v_top: f64, v_floor: f64, pitch: f64, pad_end: f64) -> Result<Vec<Vec<Pt>>, usize> {
     let n = arrivals.len();
     let eps = 1e-9;
+    let depth = depths(arrivals, pad_u, v_top, pitch);
+    let deepest = depth.iter().copied().max().unwrap_or(0);
+    if v_top - deepest as f64 * pitch < v_floor - eps {
+        return Err(deepest + 1);
+    }
+    Ok((0..n)
+        .map(|i| {
+            let a = arrivals[i];
+            if (pad_u[i] - a.u).abs() <= eps {
+                vec![pt(a.u, a.v), pt(a.u, pad_end)]
+            } else {
+                let v = v_top - depth[i] as f64 * pitch;
+                vec![pt(a.u, a.v), pt(a.u, v), pt(pad_u[i], v), pt(pad_u[i], pad_end)]
+            }
+        })
+        .collect())
+}
+
+/// The level (0 = highest) at which each lead turns: a lead moving towards larger `u` turns
+/// below every lead moving the same way whose arrival it passes, and the same towards
+/// smaller `u`; a lead never turns less than one pitch below its own arrival.
+pub fn depths(arrivals: &[Arrival], pad_u: &[f64], v_top: f64, pitch: f64) -> Vec<usize> {
+    let n = arrivals.len();
+    let eps = 1e-9;
     let mut depth = vec![0usize; n];
     // Leads moving to larger u: a lead must turn below every lead whose arrival it passes.
     for i in (0..n).rev() {
@@ -95,21 +119,7 @@ pub fn plan(arrivals: &[Arrival], pad_u: &[f64], v_top: f64, v_floor: f64, pitch
             depth[i] = d.max(min_depth(arrivals[i].v, v_top, pitch));
         }
     }
-    let deepest = depth.iter().copied().max().unwrap_or(0);
-    if v_top - deepest as f64 * pitch < v_floor - eps {
-        return Err(deepest + 1);
-    }
-    Ok((0..n)
-        .map(|i| {
-            let a = arrivals[i];
-            if (pad_u[i] - a.u).abs() <= eps {
-                vec![pt(a.u, a.v), pt(a.u, pad_end)]
-            } else {
-                let v = v_top - depth[i] as f64 * pitch;
-                vec![pt(a.u, a.v), pt(a.u, v), pt(pad_u[i], v), pt(pad_u[i], pad_end)]
-            }
-        })
-        .collect())
+    depth
 }
 
 /// The smallest depth whose level lies at least one pitch below a start at `v`.

@@ -148,13 +148,44 @@ fn check_buses(layout: &Layout, el: &Electrodes) -> Result<()> {
     if problems.is_empty() { Ok(()) } else { Err(crate::Error::Input(problems)) }
 }
 
-/// The pad row along the side, as `u` centres (pin order) and outlines.
-fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize) -> Vec<(f64, Polygon)> {
+/// How the fan-out below the liquid crystal is laid out: the highest level and the pitch
+/// between levels.
+#[derive(Debug, Clone, Copy)]
+struct FanLevels {
+    v_top: f64,
+    pitch: f64,
+}
+
+/// The pad row along the side, as `u` centres (pin order) and outlines. Without a
+/// `start` the row is placed under the leads that reach the seal band (`arrivals`), kept
+/// on the back glass and clear of the glass ends, at the offset (within a pad pitch of
+/// centred under their span) whose fan-out needs the fewest levels: a fan converging on
+/// a row off to one side, or out of step with the leads, needs more levels than the
+/// ledge holds (moving the rain-gauge demo's digits 0.5 mm sideways did that). When the
+/// row cannot move it stays centred on the back glass.
+fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize, arrivals: &[fanout::Arrival], levels: impl Fn(f64, usize) -> usize) -> Vec<(f64, Polygon)> {
     let p = &layout.pads;
     let n = p.count.map(|c| c as usize).unwrap_or(needed).max(needed);
+    let row = (n as f64 - 1.0) * p.pitch;
     let first = match p.start {
         Some(s) => s,
-        None => (frame.u_back.0 + frame.u_back.1) / 2.0 - (n as f64 - 1.0) * p.pitch / 2.0,
+        None => {
+            let centred = (frame.u_back.0 + frame.u_back.1) / 2.0 - row / 2.0;
+            let lo = (p.edge_margin + p.width / 2.0).max(frame.u_back.0 + p.width / 2.0);
+            let hi = (frame.side_length() - p.edge_margin - p.width / 2.0).min(frame.u_back.1 - p.width / 2.0) - row;
+            if arrivals.is_empty() || hi < lo {
+                centred
+            } else {
+                let span = arrivals.iter().fold((f64::MAX, f64::MIN), |(a, b), x| (a.min(x.u), b.max(x.u)));
+                let middle = ((span.0 + span.1) / 2.0 - row / 2.0).clamp(lo, hi);
+                // Offsets in eighths of a pitch, nearest the middle first (ties keep it).
+                (0..=8)
+                    .flat_map(|k| [k as f64, -(k as f64)])
+                    .map(|k| (middle + k * p.pitch / 8.0).clamp(lo, hi))
+                    .min_by_key(|&first| levels(first, n))
+                    .unwrap_or(middle)
+            }
+        }
     };
     (0..n)
         .map(|i| {
@@ -163,6 +194,23 @@ fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize) -> Vec<(f64, Polyg
             (u, poly)
         })
         .collect()
+}
+
+/// The deepest level the fan-out from `arrivals` plus the transfer dots placed beside them
+/// needs onto a row of `n` pads from `first` at `pitch` (`usize::MAX` when the dots do not
+/// fit).
+fn fan_levels(layout: &Layout, frame: &SideFrame, arrivals: &[fanout::Arrival], commons: usize, first: f64, n: usize, fan: FanLevels) -> usize {
+    let pitch = layout.pads.pitch;
+    let pads: Vec<f64> = (0..n).map(|i| first + i as f64 * pitch).collect();
+    let mut arrivals = arrivals.to_vec();
+    let us: Vec<f64> = arrivals.iter().map(|a| a.u).chain(pads.iter().copied()).collect();
+    let Some(dots) = dots::place_transfer_dots(layout, frame, &us, fan.pitch, commons) else { return usize::MAX };
+    arrivals.extend(dots.iter().map(|d| fanout::Arrival { u: d.x, v: d.y }));
+    arrivals.sort_by(|a, b| a.u.total_cmp(&b.u));
+    let us: Vec<f64> = arrivals.iter().map(|a| a.u).collect();
+    let m = fanout::match_in_order(&us, &pads);
+    let pad_u: Vec<f64> = m.iter().map(|&k| pads[k]).collect();
+    fanout::depths(&arrivals, &pad_u, fan.v_top, fan.pitch).into_iter().max().unwrap_or(0)
 }
 
 type Planned = (Vec<PadSite>, Vec<TransferSite>, Vec<(String, Vec<Pt>)>);
@@ -176,8 +224,20 @@ fn plan_pads_and_fanout(
 ) -> Result<Planned> {
     let p = &layout.pads;
     let nets_needed = el.segs.len() + el.coms.len();
-    let row = pad_row(layout, frame, nets_needed);
     let pitch = lead_pitch(layout);
+    // With several transfer dots side by side in the seal, horizontal runs stay below the
+    // seal band so that no lead passes under another common's dot.
+    let v_top = if el.coms.len() > 1 { frame.v_lc - layout.seal.width - pitch } else { frame.v_lc - pitch };
+    let mut seg_arrivals: Vec<fanout::Arrival> = escapes
+        .arrivals
+        .iter()
+        .filter_map(|(_, path)| path.last())
+        .map(|q| frame.to_local(*q))
+        .map(|q| fanout::Arrival { u: q.x, v: q.y })
+        .collect();
+    seg_arrivals.sort_by(|a, b| a.u.total_cmp(&b.u));
+    let fan = FanLevels { v_top, pitch };
+    let row = pad_row(layout, frame, nets_needed, &seg_arrivals, |first, n| fan_levels(layout, frame, &seg_arrivals, el.coms.len(), first, n, fan));
     // Arrivals in local (u, v) with their nets; the common's arrival is its transfer dot.
     let mut arrivals: Vec<(String, Vec<Pt>, fanout::Arrival)> = escapes
         .arrivals
@@ -237,9 +297,6 @@ fn plan_pads_and_fanout(
 
     let pad_u: Vec<f64> = pad_idx.iter().map(|&k| row[k].0).collect();
     let arr: Vec<fanout::Arrival> = arrivals.iter().map(|a| a.2).collect();
-    // With several transfer dots side by side in the seal, horizontal runs stay below the
-    // seal band so that no lead passes under another common's dot.
-    let v_top = if transfers.len() > 1 { frame.v_lc - layout.seal.width - pitch } else { frame.v_lc - pitch };
     let v_floor = p.edge_margin + p.length + pitch;
     let pad_end = p.edge_margin + p.length - p.width.min(p.length) / 2.0;
     let plans = match fanout::plan(&arr, &pad_u, v_top, v_floor, pitch, pad_end) {

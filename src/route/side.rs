@@ -41,6 +41,14 @@ impl SideFrame {
         frame
     }
 
+    /// Length of the pad side of the front glass (the range of `u`).
+    pub fn side_length(&self) -> f64 {
+        match self.side {
+            Side::Bottom | Side::Top => self.front.0,
+            Side::Left | Side::Right => self.front.1,
+        }
+    }
+
     /// Front-frame point → local (u, v).
     pub fn to_local(&self, p: Pt) -> Pt {
         let (w, h) = self.front;
