@@ -108,7 +108,7 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         let c = &commons[k];
         let Some(dot) = &c.dot else { continue };
         tree.clear();
-        for i in landing_cells(layout, &grid, dot) {
+        for i in landing_cells(layout, &grid, &region_of([dot.clone()]), |_| true) {
             tree.add(i);
         }
         let mut ok = true;
@@ -129,17 +129,25 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
     (out, failed, notes)
 }
 
-/// The cells of a transfer dot's pad where a lead may end: at least half a lead width in
-/// from its edge, so that the round end of the lead lies inside the pad (a lead ending on
-/// the pad's edge leaves part of its end outside, a notch narrower than the lead); the
-/// whole pad when it is too small for that.
-fn landing_cells(layout: &Layout, grid: &Grid, dot: &Polygon) -> Vec<usize> {
-    let pad = region_of([dot.clone()]);
-    let inner = offset_round(&pad, -layout.rules.lead_width / 2.0, layout.tolerance.max(grid.h / 4.0));
+/// The cells of a piece of ITO (a transfer dot's pad, an island of a common) where a lead
+/// may end: at least half a lead width in from its edge, so that the round end of the
+/// lead lies inside (a lead ending on the edge leaves part of its end outside, a notch
+/// narrower than the lead — 0.1617 mm for a 0.17 mm lead under laser-film rules); all its
+/// usable cells when it is too small for that.
+fn landing_cells(layout: &Layout, grid: &Grid, piece: &Region, usable: impl Fn(usize) -> bool) -> Vec<usize> {
+    let inner = offset_round(piece, -layout.rules.lead_width / 2.0, layout.tolerance.max(grid.h / 4.0));
     let mut cells = Vec::new();
-    grid.for_cells_in(&inner, |i| cells.push(i));
+    grid.for_cells_in(&inner, |i| {
+        if usable(i) {
+            cells.push(i)
+        }
+    });
     if cells.is_empty() {
-        grid.for_cells_in(&pad, |i| cells.push(i));
+        grid.for_cells_in(piece, |i| {
+            if usable(i) {
+                cells.push(i)
+            }
+        });
     }
     cells
 }
@@ -147,22 +155,24 @@ fn landing_cells(layout: &Layout, grid: &Grid, dot: &Polygon) -> Vec<usize> {
 /// Joins one island to the tree; the lead drawn, if one was needed, or the place where
 /// the search stopped.
 fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut Corridors, c: &Common, tree: &mut Targets, isl: &Region) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
+    let usable = |i: usize| grid.owner[i] == c.owner || grid.owner[i] == super::grid::FREE;
     let mut cells = Vec::new();
     grid.for_cells_in(isl, |i| {
-        if grid.owner[i] == c.owner || grid.owner[i] == super::grid::FREE {
+        if usable(i) {
             cells.push(i)
         }
     });
+    let ends = landing_cells(layout, grid, isl, usable);
     if cells.is_empty() || cells.iter().any(|&i| tree.contains(i)) {
-        for i in cells {
+        for &i in &ends {
             tree.add(i);
         }
         return Ok(None);
     }
-    match find_guided(search, corridors, grid, c.owner, &cells, &*tree) {
+    match find_guided(search, corridors, grid, c.owner, &ends, &*tree) {
         Ok(path) => {
             let pts = corners(grid, &path);
-            for &i in path.iter().chain(cells.iter()) {
+            for &i in path.iter().chain(ends.iter()) {
                 tree.add(i);
             }
             if pts.len() < 2 {
