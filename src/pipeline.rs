@@ -50,6 +50,7 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     lap("plate", &mut t);
     let mut findings = artwork.generation_findings.clone();
     findings.extend(crate::check::check_artwork(&artwork));
+    let findings = crate::check::causes::fold_opens_into_causes(findings);
     lap("check", &mut t);
     Ok(Built { layout, artwork, findings, timings })
 }

@@ -4,6 +4,7 @@
 //! ([`connectivity`]) and compares them with the intended net list; reports every
 //! finding, never just the first (rule codes and methods: docs/checks.md).
 
+pub mod causes;
 pub mod connectivity;
 pub mod disjoint;
 pub mod drive_truth;
