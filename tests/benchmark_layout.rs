@@ -177,7 +177,7 @@ fn presets_and_the_routing_targets_leave_room_for_every_pin() {
     let mut cases: Vec<Params> = presets::PRESETS.iter().map(|(_, _, p)| *p).collect();
     // `--digits 6 --style fourteen --duty 1/3 --rows 1` with the default 40 icons.
     cases.push(Params { digits: 6, rows: Some(1), style: Style::Fourteen, icons: 40, drive: Drive::Duty(3) });
-    cases.push(Params { digits: 16, rows: Some(2), style: Style::Seven, icons: 0, drive: Drive::Duty(3) });
+    cases.push(Params { digits: 16, rows: Some(2), style: Style::Seven, icons: 8, drive: Drive::Duty(3) });
     cases.push(Params { digits: 12, rows: Some(3), style: Style::Fourteen, icons: 20, drive: Drive::Duty(4) });
     cases.push(Params { digits: 10, rows: Some(2), style: Style::Seven, icons: 25, drive: Drive::Duty(2) });
     for p in cases {

@@ -14,8 +14,8 @@ pub const PRESETS: [(&str, &str, Params); 3] = [
     ),
     (
         "two-rows-third",
-        "16 seven-segment digits in 2 rows of 8, an icon under each digit of the bottom row, 1/3 duty",
-        Params { digits: 16, rows: Some(2), style: Style::Seven, icons: 8, drive: Drive::Duty(3) },
+        "16 seven-segment digits in 2 rows of 8, no icons, 1/3 duty",
+        Params { digits: 16, rows: Some(2), style: Style::Seven, icons: 0, drive: Drive::Duty(3) },
     ),
     (
         "fourteen",
