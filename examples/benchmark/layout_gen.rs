@@ -1,16 +1,25 @@
-//! Writes the benchmark layout: parameters (digits, rows, icons, drive) → layout YAML in
-//! segmask's own format (docs/layout-format.md), sized so that everything fits.
+//! Writes the benchmark layout: parameters (digits, rows, style, icons, drive) → layout
+//! YAML in segmask's own format (docs/layout-format.md), sized so that everything fits.
 //!
 //! The scenario is made up for the benchmark: a wall panel for a cold store, one row of
-//! digits per floor showing the temperatures of its rooms (two decimals, so every digit
-//! has a decimal point), and a band of status icons above them (door, defrost, alarm, …).
+//! digits per floor showing the temperatures of its rooms (two decimals, so under static
+//! drive every digit has a decimal point), and status icons (door, defrost, alarm, …):
+//! a band above the digits under static drive, under the bottom row when multiplexed.
 //! Only the sizes matter: the glass, window, seal and pad row are computed from the
 //! element count so that leads from the upper rows have channels between the digits of
 //! the rows below, and the pad row sits under the digits on the bottom ledge.
 //!
-//! This file uses only `std`, so `tests/benchmark_layout.rs` includes it with `#[path]`
-//! and checks that what it writes is a valid layout.
+//! This file and the two it includes (`digit_style.rs`, `icons.rs`) use only `std`, so
+//! `tests/benchmark_layout.rs` includes it with `#[path]` and checks that what it writes
+//! is a valid layout.
 
+#[path = "digit_style.rs"]
+pub mod digit_style;
+#[path = "icons.rs"]
+pub mod icons;
+
+pub use digit_style::{DigitSize, Style};
+use icons::ICON_PITCH;
 use std::fmt::Write;
 
 /// How the panel is driven.
@@ -54,11 +63,15 @@ impl Drive {
 /// What to generate.
 #[derive(Debug, Clone, Copy)]
 pub struct Params {
-    /// Number of seven-segment digits, each with a decimal point (1 to 26 × 100).
+    /// Number of digits (1 to 26 × 100); under static drive each has a decimal point.
     pub digits: u32,
-    /// Rows of digits [ceil(digits / 8)].
+    /// Rows of digits [static: ⌈digits / 8⌉; multiplexed: 1].
     pub rows: Option<u32>,
-    /// Number of icons in the band above the digits.
+    /// Segment set of the digits.
+    pub style: Style,
+    /// Number of icons: static, in bands above the digits; multiplexed, under the bottom
+    /// row (one under each digit when there are no more icons than digits there, else a
+    /// band).
     pub icons: u32,
     /// Drive scheme.
     pub drive: Drive,
@@ -73,21 +86,16 @@ pub struct Generated {
     pub yaml: String,
     /// Switchable elements: digit segments, decimal points and icons.
     pub elements: u32,
-    /// Pads the layout needs (docs/layout-format.md, "Pads needed").
+    /// Pads the layout needs at least (docs/layout-format.md, "Pads needed").
     pub pads: u32,
+    /// Pins the assign stage is expected to make (`pins_made`); the pad row is sized for
+    /// these.
+    pub pins: u32,
 }
 
-// Sizes in mm. Rules are written out in the layout so these stay consistent with them.
-const DIGIT_H: f64 = 10.0;
-const DIGIT_W: f64 = 6.0;
-const STROKE: f64 = 1.0;
-/// Gap between segments: wide enough for the router to lead the middle segment out
-/// between two others (its keep-out is gap + half a lead + one cell on each side).
-const GAP: f64 = 0.35;
-const SLANT_DEG: f64 = 4.0;
-const SEGMENTS: u32 = 8; // a–g and dp
-const ICON: f64 = 3.0;
-const ICON_PITCH: f64 = 4.5;
+// Sizes in mm. Rules are written out in the layout so these stay consistent with them;
+// digit sizes are in digit_style.rs, icon sizes in icons.rs.
+
 /// Lead width 0.11 (0.1 + 2 × 5 µm undercut) + gap 0.05 + one 25 µm grid cell: the
 /// router's lead pitch (`segmask::route::lead_pitch`) under the rules written below.
 const LEAD_PITCH: f64 = 0.185;
@@ -100,38 +108,74 @@ const PAD_EDGE: f64 = 0.3;
 /// Pad pitches tried, largest first (common practice: 1.27 mm down to 0.5 mm for
 /// elastomeric connectors).
 const PAD_PITCHES: [f64; 5] = [1.27, 1.0, 0.8, 0.65, 0.5];
-/// Spare room in the pad row for SEG lines beyond the lower bound.
+/// Spare room in the pad row beyond the pins expected.
 const PAD_SPARE: f64 = 1.15;
-const ICON_NAMES: [&str; 16] = [
-    "snowflake", "drop", "warning", "lock", "bell", "thermometer", "clock", "power", "plug", "heat", "sun",
-    "home", "speaker", "wireless", "check", "cross",
-];
 
 /// Generates the layout, or says which parameter is out of range.
 pub fn generate(p: &Params) -> Result<Generated, String> {
     let g = Geometry::plan(p)?;
-    let name = format!("bench-{}d-{}i-{}", p.digits, p.icons, p.drive.tag());
+    let mut name = format!("bench-{}d-{}i-{}", p.digits, p.icons, p.drive.tag());
+    if g.rows != default_rows(p) {
+        write!(name, "-{}rows", g.rows).map_err(|e| e.to_string())?;
+    }
+    if p.style != Style::Seven {
+        write!(name, "-{}", p.style.word()).map_err(|e| e.to_string())?;
+    }
     let mut y = String::new();
     header(&mut y, &name, p, &g).map_err(|e| e.to_string())?;
     digit_rows(&mut y, p, &g).map_err(|e| e.to_string())?;
-    icon_band(&mut y, p, &g).map_err(|e| e.to_string())?;
-    Ok(Generated { name, yaml: y, elements: g.elements, pads: g.pads })
+    icons::write_icons(&mut y, p, &g.icon_area()).map_err(|e| e.to_string())?;
+    Ok(Generated { name, yaml: y, elements: g.elements, pads: g.pads, pins: g.pins })
+}
+
+/// Rows when `--rows` is not given: one when multiplexed (docs/performance.md, *Why one
+/// row when multiplexed*), else eight digits to a row.
+pub fn default_rows(p: &Params) -> u32 {
+    if p.drive.commons() > 1 { 1 } else { p.digits.div_ceil(8) }
+}
+
+/// Pins the assign stage makes (docs/architecture.md, *Multiplexing*): static, one per
+/// element and the common. Multiplexed at duty 1/N, seven-segment digits (no points)
+/// take their template's ⌈7/N⌉ SEG lines each and leave the rest of those lines' places
+/// free; icons fill the free places first and open new lines, N to a line, only when none
+/// is left. Every other element takes a free place on the nearest line and opens a line
+/// only when no line has one, so fourteen-segment digits and their icons fill their lines:
+/// N + ⌈elements / N⌉, the lower bound.
+fn pins_made(p: &Params, elements: u32) -> u32 {
+    let n = p.drive.commons();
+    if n == 1 {
+        return elements + 1;
+    }
+    match p.style {
+        Style::Seven => {
+            let per_digit = 7u32.div_ceil(n);
+            let free = p.digits * (per_digit * n - 7);
+            n + p.digits * per_digit + p.icons.saturating_sub(free).div_ceil(n)
+        }
+        Style::Fourteen => n + elements.div_ceil(n),
+    }
 }
 
 /// Every size derived from the parameters.
-#[derive(Debug, Clone, Copy)]
+#[derive(Debug, Clone)]
 struct Geometry {
     rows: u32,
-    per_row: u32,
+    /// Digits in each row, top row first (split as evenly as possible, the upper rows
+    /// taking one more).
+    row_counts: Vec<u32>,
+    size: DigitSize,
     elements: u32,
     pads: u32,
+    pins: u32,
     pad_pitch: f64,
     /// Channel between neighbouring digit cells.
     channel: f64,
     digit_pitch: f64,
     /// Vertical room between rows.
     row_gap: f64,
+    /// Static: icons in each band row above the digits.
     icons_per_row: u32,
+    /// Icon rows: static, above the digits; multiplexed, below them.
     icon_rows: u32,
     /// Content box (digits and icons), lower-left and size.
     cx: f64,
@@ -150,9 +194,9 @@ impl Geometry {
         }
         let n = p.drive.commons();
         // Multiplexed, the commons run along a row of digits and the SEG leads leave
-        // below it: rows stacked above each other would cut the commons of the rows
-        // below (a planar-routing limit, docs/performance.md), so one row by default.
-        let rows = p.rows.unwrap_or(if n > 1 { 1 } else { p.digits.div_ceil(8) });
+        // below it: rows stacked above each other cut the commons of the rows below (a
+        // planar-routing limit, docs/performance.md), so one row unless asked for more.
+        let rows = p.rows.unwrap_or_else(|| default_rows(p));
         if rows == 0 || rows > 26 || rows > p.digits {
             return Err(format!("--rows {rows} does not suit {} digits (allowed: 1 to 26, at most the digit count)", p.digits));
         }
@@ -160,32 +204,39 @@ impl Geometry {
         if per_row > 100 {
             return Err(format!("{per_row} digits in a row (allowed: at most 100; add rows)"));
         }
-        let segments = if n > 1 { SEGMENTS - 1 } else { SEGMENTS };
-        if n > 1 && p.icons > per_row {
-            return Err(format!(
-                "{} icons (allowed: at most {per_row} under multiplexed drive, one under each digit of the bottom row)",
-                p.icons
-            ));
-        }
+        let row_counts: Vec<u32> = (0..rows).map(|r| p.digits / rows + u32::from(r < p.digits % rows)).collect();
+        let size = p.style.size();
+        // Static: every digit has a decimal point.
+        let segments = p.style.segments() + u32::from(n == 1);
         let elements = p.digits * segments + p.icons;
         let lines = |e: u32| e.div_ceil(n);
         let pads = if n == 1 { elements + 1 } else { n + lines(elements) };
-        // Leads that must pass the bottom row: everything above it, shared N to a line,
-        // spread over the channels, plus the bottom row's own.
-        let above = (rows - 1) * per_row * segments + p.icons;
-        let per_channel = lines(above).div_ceil(per_row + 1) + segments.div_ceil(n);
+        let pins = pins_made(p, elements);
+        // Leads that must pass the bottom row: the rows above (a digit's segments shared
+        // N to a line) and the icons, spread over the channels, plus the bottom row's own.
+        let own = segments.div_ceil(n);
+        let above = (rows - 1) * per_row * own + lines(p.icons);
+        let per_channel = above.div_ceil(per_row + 1) + own;
         let channel = (f64::from(per_channel) * LEAD_PITCH * 1.6 + 0.8).max(1.5);
-        let cell = DIGIT_W + DIGIT_H * SLANT_DEG.to_radians().tan() + 1.5 * STROKE;
+        let cell = size.width + size.height * size.slant.to_radians().tan() + 1.5 * size.stroke;
         let digit_pitch = round_up(cell + channel, 0.05);
-        let row_gap = round_up((f64::from(segments.div_ceil(n)) * LEAD_PITCH * 2.0 + 1.5).max(2.5), 0.05);
+        // Room under a row for its leads to turn into the channels; multiplexed, also for
+        // the commons of the row above and the row below to run along the gap on the back
+        // plate, one lead pitch apart, each beside its own row.
+        let mut turn = f64::from(own) * LEAD_PITCH * 2.0 + 1.5;
+        if n > 1 && rows > 1 {
+            turn += 2.0 * f64::from(n) * LEAD_PITCH + 1.0;
+        }
+        let row_gap = round_up(turn.max(2.5), 0.05);
         let cw = f64::from(per_row) * digit_pitch + channel;
         let icons_per_row = ((cw / ICON_PITCH).floor() as u32).max(1);
-        // Multiplexed: one band of icons under the bottom row (each shares the SEG line
-        // of the digit above it, which has no point); static: bands above the digits.
-        let icon_rows = if n > 1 { u32::from(p.icons > 0) } else { p.icons.div_ceil(icons_per_row) };
-        let ch = f64::from(rows) * (DIGIT_H + row_gap) + f64::from(icon_rows) * ICON_PITCH;
-        let pad_pitch = PAD_PITCHES.iter().copied().find(|q| f64::from(pads) * q <= cw).unwrap_or(0.5);
-        let pad_row = f64::from(pads) * PAD_SPARE * pad_pitch + 2.0 * (PAD_EDGE + SEAL + 1.5);
+        // Multiplexed: icons below the bottom row (each takes a free place on the bottom
+        // common); static: bands above the digits.
+        let bottom = row_counts[rows as usize - 1];
+        let icon_rows = if n > 1 { icons::rows_below(p.icons, bottom, cw) } else { p.icons.div_ceil(icons_per_row) };
+        let ch = f64::from(rows) * (size.height + row_gap) + f64::from(icon_rows) * ICON_PITCH;
+        let pad_pitch = PAD_PITCHES.iter().copied().find(|q| f64::from(pins) * q <= cw).unwrap_or(0.5);
+        let pad_row = f64::from(pins) * PAD_SPARE * pad_pitch + 2.0 * (PAD_EDGE + SEAL + 1.5);
         // Room in the seal at each end for half the transfer dots (one per common, 1.2 mm
         // pads a lead pitch apart) beyond the outermost lead.
         let dots = 2.0 * (f64::from(n).div_euclid(2.0) + 1.0) * 1.5;
@@ -193,15 +244,30 @@ impl Geometry {
         // Fan-out levels: leads leave the channels in bunches and spread out to evenly
         // spaced pads; the router stacks one level per lead a lead passes under. Measured
         // at static drive: 16 digits + 20 icons (149 pads) needed 61 levels.
-        let levels = f64::from((2 * per_channel).max(pads / 2) + 10);
+        let levels = f64::from((2 * per_channel).max(pins / 2) + 10);
         let ledge = round_up((PAD_LENGTH + PAD_EDGE + levels * LEAD_PITCH - SEAL + 1.0).max(5.0), 0.5);
         let cx = (glass_w - cw) / 2.0;
         let cy = ledge + SEAL + 2.0 * MARGIN;
         let glass_h = round_up(cy + ch + 2.0 * MARGIN + SEAL, 0.5);
         Ok(Geometry {
-            rows, per_row, elements, pads, pad_pitch, channel, digit_pitch, row_gap, icons_per_row, icon_rows, cx, cy,
-            cw, ch, glass_w, glass_h, ledge,
+            rows, row_counts, size, elements, pads, pins, pad_pitch, channel, digit_pitch, row_gap, icons_per_row,
+            icon_rows, cx, cy, cw, ch, glass_w, glass_h, ledge,
         })
+    }
+
+    /// Where the icons go, for `icons.rs`.
+    fn icon_area(&self) -> icons::Area {
+        icons::Area {
+            x: self.cx,
+            y: self.cy,
+            width: self.cw,
+            first_digit: self.cx + self.channel,
+            digit_pitch: self.digit_pitch,
+            digit: self.size,
+            bottom_digits: self.row_counts[self.rows as usize - 1],
+            above: self.cy + f64::from(self.rows) * (self.size.height + self.row_gap),
+            icons_per_row: self.icons_per_row,
+        }
     }
 }
 
@@ -210,7 +276,7 @@ fn round_up(v: f64, step: f64) -> f64 {
 }
 
 /// A length for YAML: mm with at most three decimals.
-fn mm(v: f64) -> String {
+pub fn mm(v: f64) -> String {
     let s = format!("{v:.3}");
     let s = s.trim_end_matches('0').trim_end_matches('.');
     if s == "-0" { "0".into() } else { s.into() }
@@ -220,6 +286,9 @@ fn header(y: &mut String, name: &str, p: &Params, g: &Geometry) -> std::fmt::Res
     writeln!(y, "# Benchmark layout written by `cargo run --example benchmark` (examples/benchmark/).")?;
     writeln!(y, "# Made-up scenario: a cold-store wall panel, one row of digits per floor and a band")?;
     writeln!(y, "# of room status icons; {} digits in {} rows, {} icons in {} rows.", p.digits, g.rows, p.icons, g.icon_rows)?;
+    if p.style != Style::Seven {
+        writeln!(y, "# Digits of {} segments.", p.style.segments())?;
+    }
     writeln!(y, "name: {name}")?;
     writeln!(y, "glass:")?;
     writeln!(y, "  front: {{width: {}, height: {}}}", mm(g.glass_w), mm(g.glass_h))?;
@@ -249,64 +318,25 @@ fn header(y: &mut String, name: &str, p: &Params, g: &Geometry) -> std::fmt::Res
 /// One digit group per row, top row first: `RA`, `RB`, … (nets `RA1.a` … `RA8.dp`).
 fn digit_rows(y: &mut String, p: &Params, g: &Geometry) -> std::fmt::Result {
     writeln!(y, "digits:")?;
-    let mut left = p.digits;
-    for r in 0..g.rows {
-        let count = left.min(g.per_row);
-        left -= count;
+    let s = &g.size;
+    for (r, &count) in g.row_counts.iter().enumerate() {
+        let r = r as u32;
         let name = format!("R{}", char::from(b'A' + r as u8));
         let below = if p.drive.commons() > 1 { f64::from(g.icon_rows) * ICON_PITCH } else { 0.0 };
-        let oy = g.cy + below + f64::from(g.rows - 1 - r) * (DIGIT_H + g.row_gap);
+        let oy = g.cy + below + f64::from(g.rows - 1 - r) * (s.height + g.row_gap);
         writeln!(y, "  - name: {name}")?;
-        writeln!(y, "    style: seven")?;
+        writeln!(y, "    style: {}", p.style.word())?;
         writeln!(y, "    count: {count}")?;
         writeln!(y, "    origin: [{}, {}]", mm(g.cx + g.channel), mm(oy))?;
-        writeln!(y, "    height: {}", mm(DIGIT_H))?;
-        writeln!(y, "    width: {}", mm(DIGIT_W))?;
+        writeln!(y, "    height: {}", mm(s.height))?;
+        writeln!(y, "    width: {}", mm(s.width))?;
         writeln!(y, "    pitch: {}", mm(g.digit_pitch))?;
-        writeln!(y, "    slant: {}", mm(SLANT_DEG))?;
-        writeln!(y, "    stroke: {}", mm(STROKE))?;
-        writeln!(y, "    gap: {}", mm(GAP))?;
+        writeln!(y, "    slant: {}", mm(s.slant))?;
+        writeln!(y, "    stroke: {}", mm(s.stroke))?;
+        writeln!(y, "    gap: {}", mm(s.gap))?;
         if p.drive.commons() == 1 {
             writeln!(y, "    decimal_points: all")?;
         }
-    }
-    Ok(())
-}
-
-/// The icon band above the top row of digits, in columns lined up so the leads of the
-/// upper band rows pass between the icons of the lower ones.
-fn icon_band(y: &mut String, p: &Params, g: &Geometry) -> std::fmt::Result {
-    if p.icons == 0 {
-        return Ok(());
-    }
-    writeln!(y, "icons:")?;
-    if p.drive.commons() > 1 {
-        // Under each digit of the bottom row, centred below it.
-        let skew = DIGIT_H * SLANT_DEG.to_radians().tan() / 4.0;
-        for k in 0..p.icons {
-            let icon = ICON_NAMES[k as usize % ICON_NAMES.len()];
-            let net = format!("ST{:02}_{}", k + 1, icon.to_uppercase().replace('-', "_"));
-            let x = g.cx + g.channel + f64::from(k) * g.digit_pitch + DIGIT_W / 2.0 - skew;
-            let at = (x, g.cy + ICON / 2.0 + 0.3);
-            writeln!(y, "  - {{name: {net}, icon: {icon}, at: [{}, {}], size: {}, stroke: 0.25}}", mm(at.0), mm(at.1), mm(ICON * 0.8))?;
-        }
-        return Ok(());
-    }
-    let base = g.cy + f64::from(g.rows) * (DIGIT_H + g.row_gap);
-    let cols = g.icons_per_row.min(p.icons);
-    let x0 = g.cx + (g.cw - f64::from(cols) * ICON_PITCH + (ICON_PITCH - ICON)) / 2.0;
-    for k in 0..p.icons {
-        let (row, col) = (k / g.icons_per_row, k % g.icons_per_row);
-        let icon = ICON_NAMES[k as usize % ICON_NAMES.len()];
-        let net = format!("ST{:02}_{}", k + 1, icon.to_uppercase().replace('-', "_"));
-        let at = (x0 + f64::from(col) * ICON_PITCH, base + f64::from(row) * ICON_PITCH);
-        writeln!(
-            y,
-            "  - {{name: {net}, icon: {icon}, at: [{}, {}], size: {}, stroke: 0.3}}",
-            mm(at.0),
-            mm(at.1),
-            mm(ICON)
-        )?;
     }
     Ok(())
 }

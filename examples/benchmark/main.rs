@@ -2,18 +2,21 @@
 //! the time of each stage (docs/performance.md).
 //!
 //! `cargo run --release --example benchmark -- [--digits N] [--icons M] [--rows R]
-//! [--duty static|1/2|1/3|1/4] [--out DIR] [--repeat K] [--sweep]`
+//! [--style seven|fourteen] [--duty static|1/2|1/3|1/4] [--preset NAME] [--out DIR]
+//! [--repeat K] [--sweep]`
 //!
 //! The layout is written to DIR (so `segmask build DIR/NAME.yaml` rebuilds it), then built
-//! K times; the table gives each stage's shortest and median time. `--sweep` builds 4, 8,
-//! 16 and 32 digits (icons scaled in proportion) and prints routing time against digit
-//! count. Times are printed, never compared with a limit.
+//! K times; the table gives each stage's shortest and median time. `--sweep` builds 5, 10,
+//! 20 and 40 digits (icons scaled in proportion) and prints routing time against digit
+//! count. `--preset` names a fixed size (`presets.rs`). Times are printed, never compared
+//! with a limit.
 
 mod layout_gen;
 mod measure;
+mod presets;
 
 use clap::Parser;
-use layout_gen::{Drive, Params};
+use layout_gen::{Drive, Params, Style};
 use measure::Measured;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -23,18 +26,26 @@ use std::time::Duration;
 #[derive(Parser)]
 #[command(name = "benchmark")]
 struct Args {
-    /// Number of seven-segment digits (each with a decimal point).
+    /// Number of digits (static drive: each with a decimal point).
     #[arg(long, default_value_t = 40)]
     digits: u32,
-    /// Number of icons in the band above the digits.
+    /// Number of icons: static, in bands above the digits; multiplexed, under the bottom
+    /// row (one under each digit, or a band when there are more icons than digits there).
     #[arg(long, default_value_t = 40)]
     icons: u32,
-    /// Rows of digits [digits / 8, rounded up].
+    /// Rows of digits [static: digits / 8, rounded up; multiplexed: 1].
     #[arg(long)]
     rows: Option<u32>,
+    /// Digit style: seven or fourteen segments.
+    #[arg(long, default_value = "seven", value_parser = Style::parse)]
+    style: Style,
     /// Drive: static, 1/2, 1/3 or 1/4 (bias 1/3).
     #[arg(long, default_value = "1/4", value_parser = Drive::parse)]
     duty: Drive,
+    /// A named size instead of --digits, --icons, --rows, --style and --duty:
+    /// two-rows, two-rows-third or fourteen (docs/performance.md).
+    #[arg(long, value_parser = presets::parse, conflicts_with_all = ["digits", "icons", "rows", "style", "duty", "sweep"])]
+    preset: Option<Params>,
     /// Folder the generated layout files are written to.
     #[arg(long, default_value = "target/benchmark")]
     out: PathBuf,
@@ -82,16 +93,17 @@ fn write_layout(p: &Params, out: &Path) -> Result<PathBuf, String> {
     let file = segmask::emit::OutputFile { name: format!("{}.yaml", g.name), bytes: g.yaml.into_bytes() };
     segmask::emit::write_atomically(out, &[file]).map_err(|e| e.to_string())?;
     let path = out.join(format!("{}.yaml", g.name));
-    println!("layout: {} ({} elements, {} pads needed)", path.display(), g.elements, g.pads);
+    println!("layout: {} ({} elements, {} pads needed, pad row sized for {})", path.display(), g.elements, g.pads, g.pins);
     Ok(path)
 }
 
 fn params(args: &Args, digits: u32, icons: u32, rows: Option<u32>) -> Params {
-    Params { digits, rows, icons, drive: args.duty }
+    Params { digits, rows, style: args.style, icons, drive: args.duty }
 }
 
 fn single(args: &Args) -> Result<(), String> {
-    let path = write_layout(&params(args, args.digits, args.icons, args.rows), &args.out)?;
+    let p = args.preset.unwrap_or_else(|| params(args, args.digits, args.icons, args.rows));
+    let path = write_layout(&p, &args.out)?;
     let m = measure::measure(&path, args.repeat).map_err(|e| e.to_string())?;
     print_table(&m);
     Ok(())
