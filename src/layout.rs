@@ -610,16 +610,8 @@ mod rules_tests {
     /// drive four 0.025 mm grid cells more.
     #[test]
     fn passing_gap_of_the_default_rules() {
-        let r = Rules {
-            min_width: 0.1,
-            min_gap: 0.05,
-            undercut: 0.005,
-            compensate: false,
-            film_min_feature: 0.03,
-            backplane_overlap: 0.15,
-            edge_clearance: 1.5,
-            lead_width: 0.11,
-        };
+        let r = crate::layout::fixture::tiny_layout().rules;
+        assert_eq!((r.lead_width, r.min_gap), (0.11, 0.05), "the fixture keeps the default rules");
         assert!((r.grid_step() - 0.025).abs() < 1e-12);
         assert!((r.passing_gap(false) - 0.21).abs() < 1e-12);
         assert!((r.passing_gap(true) - 0.31).abs() < 1e-12);

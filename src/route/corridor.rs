@@ -17,8 +17,7 @@
 //! Every buffer is allocated once per router and reset by stamp, never per search.
 
 use super::grid::{Grid, FREE};
-use super::search::{Blocked, Search};
-use std::cmp::Ordering;
+use super::search::{Blocked, Open, Search};
 use std::collections::BinaryHeap;
 
 /// Side of a tile, in grid cells.
@@ -86,23 +85,6 @@ pub struct Corridors {
     factor: Vec<f32>,
     parent: Vec<u32>,
     mask: Vec<u32>,
-}
-
-#[derive(PartialEq)]
-struct Open {
-    f: f32,
-    tile: u32,
-}
-impl Eq for Open {}
-impl PartialOrd for Open {
-    fn partial_cmp(&self, o: &Self) -> Option<Ordering> {
-        Some(self.cmp(o))
-    }
-}
-impl Ord for Open {
-    fn cmp(&self, o: &Self) -> Ordering {
-        o.f.total_cmp(&self.f).then(o.tile.cmp(&self.tile))
-    }
 }
 
 const DIRS: [(i64, i64); 8] = [(1, 0), (1, 1), (0, 1), (-1, 1), (-1, 0), (-1, -1), (0, -1), (1, -1)];
@@ -180,12 +162,12 @@ impl Corridors {
                 self.h[t] = heuristic(t);
                 self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
                 self.parent[t] = t as u32;
-                open.push(Open { f: self.h[t], tile: t as u32 });
+                open.push(Open { f: self.h[t], cell: t as u32 });
             }
         }
         let step = TILE as f32;
         let (ntx, nty) = (self.ntx as i64, self.nty as i64);
-        while let Some(Open { f, tile }) = open.pop() {
+        while let Some(Open { f, cell: tile }) = open.pop() {
             let t = tile as usize;
             if f - self.h[t] > self.g[t] + 1e-3 {
                 continue;
@@ -220,7 +202,7 @@ impl Corridors {
                     }
                     self.g[n] = ng;
                     self.parent[n] = t as u32;
-                    open.push(Open { f: ng + self.h[n], tile: n as u32 });
+                    open.push(Open { f: ng + self.h[n], cell: n as u32 });
                 }
             }
         }

@@ -29,10 +29,15 @@ pub struct Blocked {
     pub nearest: usize,
 }
 
+/// An entry of a search's open list: a node (cell or tile) and its estimated total cost;
+/// the heap pops the lowest `f` first, the lowest node on ties, so searches are
+/// deterministic.
 #[derive(PartialEq)]
-struct Open {
-    f: f32,
-    cell: u32,
+pub(crate) struct Open {
+    /// Cost so far plus the heuristic.
+    pub f: f32,
+    /// Node index.
+    pub cell: u32,
 }
 impl Eq for Open {}
 impl PartialOrd for Open {
