@@ -603,8 +603,6 @@ pub mod fixture;
 
 #[cfg(test)]
 mod rules_tests {
-    use super::*;
-
     /// With the default rules (0.11 mm leads, 0.05 mm gaps; docs/layout-format.md) a
     /// lead between two segments needs 0.11 + 2 × 0.05 = 0.21 mm, and under multiplexed
     /// drive four 0.025 mm grid cells more.
