@@ -17,7 +17,7 @@
 //! Every buffer is allocated once per router and reset by stamp, never per search.
 
 use super::grid::{Grid, FREE};
-use super::search::{Blocked, Open, Search};
+use super::search::{neighbours, Blocked, Open, Search};
 use std::collections::BinaryHeap;
 
 /// Side of a tile, in grid cells.
@@ -87,7 +87,6 @@ pub struct Corridors {
     mask: Vec<u32>,
 }
 
-const DIRS: [(i64, i64); 8] = [(1, 0), (1, 1), (0, 1), (-1, 1), (-1, 0), (-1, -1), (0, -1), (1, -1)];
 
 impl Corridors {
     /// State for the tiles of `grid`.
@@ -166,7 +165,6 @@ impl Corridors {
             }
         }
         let step = TILE as f32;
-        let (ntx, nty) = (self.ntx as i64, self.nty as i64);
         while let Some(Open { f, cell: tile }) = open.pop() {
             let t = tile as usize;
             if f - self.h[t] > self.g[t] + 1e-3 {
@@ -176,13 +174,7 @@ impl Corridors {
                 self.mark(t, sources, grid, margin);
                 return true;
             }
-            let (tx, ty) = ((t % self.ntx) as i64, (t / self.ntx) as i64);
-            for (d, (dx, dy)) in DIRS.iter().enumerate() {
-                let (x, y) = (tx + dx, ty + dy);
-                if x < 0 || y < 0 || x >= ntx || y >= nty {
-                    continue;
-                }
-                let n = (y * ntx + x) as usize;
+            for (d, _, _, n) in neighbours(t, self.ntx, self.nty) {
                 let fresh = self.stamp[n] != now;
                 if fresh {
                     self.factor[n] = self.tile_factor(grid, owner, n);

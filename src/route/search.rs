@@ -7,6 +7,18 @@ use std::cmp::Ordering;
 use std::collections::BinaryHeap;
 
 const DIRS: [(i64, i64); 8] = [(1, 0), (1, 1), (0, 1), (-1, 1), (-1, 0), (-1, -1), (0, -1), (1, -1)];
+
+/// The eight neighbours of node `i` of a `w` × `h` grid that lie inside it, as
+/// (direction 0–7, counter-clockwise from +x with odd directions diagonal, column, row,
+/// index).
+pub(crate) fn neighbours(i: usize, w: usize, h: usize) -> impl Iterator<Item = (usize, i64, i64, usize)> {
+    let (cx, cy) = ((i % w) as i64, (i / w) as i64);
+    let (w, h) = (w as i64, h as i64);
+    DIRS.iter().enumerate().filter_map(move |(d, (dx, dy))| {
+        let (x, y) = (cx + dx, cy + dy);
+        (x >= 0 && y >= 0 && x < w && y < h).then(|| (d, x, y, (y * w + x) as usize))
+    })
+}
 const TURN_PENALTY: f32 = 3.0;
 
 /// Reusable search state (so a search does not clear millions of cells).
@@ -97,7 +109,7 @@ impl Search {
                 open.push(Open { f: self.hv[s], cell: s as u32 });
             }
         }
-        let (nx, ny) = (grid.nx as i64, grid.ny as i64);
+        let nx = grid.nx as i64;
         while let Some(Open { f, cell }) = open.pop() {
             let c = cell as usize;
             let gc = self.g[c];
@@ -112,12 +124,7 @@ impl Search {
                 nearest = (hc, c);
             }
             let (cx, cy) = ((c % grid.nx) as i64, (c / grid.nx) as i64);
-            for (d, (dx, dy)) in DIRS.iter().enumerate() {
-                let (x, y) = (cx + dx, cy + dy);
-                if x < 0 || y < 0 || x >= nx || y >= ny {
-                    continue;
-                }
-                let n = (y * nx + x) as usize;
+            for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
                 if !allowed(n) {
                     continue;
                 }
