@@ -54,6 +54,23 @@ pub fn ring(c: Pt, r_out: f64, r_in: f64, tol: f64) -> Polygon {
     Polygon::new(LineString::from(circle_ring(c, r_out, tol)), vec![LineString::from(hole)])
 }
 
+/// A lead: a polyline of orthogonal and 45° segments stroked to exactly `width`, with
+/// mitred joins (bends of 90° or less keep their full width through the corner; sharper
+/// turns are bevelled) and round ends (chord tolerance `tol`). Round joins would draw each
+/// bend as chords inside the true arc, a fraction of a µm narrower than `width` — enough
+/// to fail a width rule set at exactly the lead width.
+pub fn stroke_lead(points: &[Pt], width: f64, tol: f64) -> Region {
+    if points.len() == 1 {
+        return geo::MultiPolygon(vec![circle(points[0], width / 2.0, tol)]);
+    }
+    let step = regular_arc_step(width / 2.0, tol);
+    let style = BufferStyle::new(width / 2.0).line_join(LineJoin::Miter(MITRE_LIMIT)).line_cap(LineCap::Round(step));
+    super::snap(&LineString::from(points.to_vec()).buffer_with_style(style))
+}
+
+/// Mitre limit of lead bends, in half widths: a 90° bend needs √2.
+const MITRE_LIMIT: f64 = 1.5;
+
 /// A polyline stroked to `width` with round caps and joins (chord tolerance `tol`).
 pub fn stroke_polyline(points: &[Pt], width: f64, tol: f64) -> Region {
     if points.len() == 1 {
