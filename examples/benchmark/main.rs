@@ -13,6 +13,7 @@
 
 mod layout_gen;
 mod measure;
+mod peak;
 mod presets;
 
 use clap::Parser;
@@ -56,10 +57,23 @@ struct Args {
     /// against digit count.
     #[arg(long)]
     sweep: bool,
+    /// Internal: build this layout once and print the peak resident set (the benchmark
+    /// runs itself with it to measure each layout's peak memory in a fresh process).
+    #[arg(long, hide = true)]
+    peak_of: Option<PathBuf>,
 }
 
 fn main() -> ExitCode {
     let args = Args::parse();
+    if let Some(layout) = &args.peak_of {
+        return match peak::report_child(layout) {
+            Ok(()) => ExitCode::SUCCESS,
+            Err(e) => {
+                eprintln!("benchmark: {e}");
+                ExitCode::from(2)
+            }
+        };
+    }
     print_machine(&args);
     let result = if args.sweep { sweep(&args) } else { single(&args) };
     match result {
@@ -106,7 +120,12 @@ fn single(args: &Args) -> Result<(), String> {
     let path = write_layout(&p, &args.out)?;
     let m = measure::measure(&path, args.repeat).map_err(|e| e.to_string())?;
     print_table(&m);
+    println!("peak memory of one build (fresh process): {}", mib(peak::peak_mib(&path)));
     Ok(())
+}
+
+fn mib(m: Option<f64>) -> String {
+    m.map(|m| format!("{m:.0} MiB")).unwrap_or_else(|| "not measured (needs Linux /proc)".into())
 }
 
 fn secs(d: Duration) -> String {
@@ -146,13 +165,14 @@ fn sweep(args: &Args) -> Result<(), String> {
         let icons = (f64::from(args.icons) * f64::from(d) / f64::from(args.digits.max(1))).round() as u32;
         let path = write_layout(&params(args, d, icons, None), &args.out)?;
         let m = measure::measure(&path, args.repeat).map_err(|e| e.to_string())?;
-        rows_out.push((d, icons, m));
+        let peak = peak::peak_mib(&path);
+        rows_out.push((d, icons, m, peak));
     }
     println!();
-    println!("| digits | icons | elements | grid (M cells) | route min (s) | route median (s) | growth | total median (s) | errors |");
-    println!("|---:|---:|---:|---:|---:|---:|---:|---:|---:|");
+    println!("| digits | icons | elements | grid (M cells) | route min (s) | route median (s) | growth | total median (s) | peak memory | errors |");
+    println!("|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|");
     let mut last: Option<(u32, f64)> = None;
-    for (d, icons, m) in &rows_out {
+    for (d, icons, m, peak) in &rows_out {
         let route = m.stages.iter().find(|s| s.stage == "route").map(|s| s.median()).unwrap_or_default();
         let r = route.as_secs_f64();
         // Growth exponent k in time ∝ digits^k, from the previous row.
@@ -163,12 +183,13 @@ fn sweep(args: &Args) -> Result<(), String> {
         let c = &m.counts;
         let route_min = m.stages.iter().find(|s| s.stage == "route").map(|s| s.min()).unwrap_or_default();
         println!(
-            "| {d} | {icons} | {} | {:.1} | {} | {} | {growth} | {} | {} |",
+            "| {d} | {icons} | {} | {:.1} | {} | {} | {growth} | {} | {} | {} |",
             c.elements,
             c.grid_cells as f64 / 1e6,
             secs(route_min),
             secs(route),
             secs(measure::median(&m.totals)),
+            mib(*peak),
             c.errors
         );
         last = Some((*d, r));

@@ -16,7 +16,7 @@ use super::target::Targets;
 use super::{Lead, TransferSite};
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
-use crate::geom::{difference, offset_round, region_of, stroke_polyline, union_all, Polygon, Pt, Region};
+use crate::geom::{difference, offset_round, region_of, stroke_lead, stroke_polyline, union_all, Polygon, Pt, Region};
 use crate::layout::{Layout, PlateId};
 
 /// Extra cost (per cell) of a back lead facing a front lead outside the window.
@@ -66,7 +66,7 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
         })
         .collect();
     let base = back_grid(layout, &leads, &commons);
-    let mut search = Search::new(base.nx * base.ny);
+    let mut search = Search::new(&base);
     let (out, notes) = super::retry::rip_up_and_retry((0..commons.len()).collect(), ATTEMPTS, |order| {
         attempt(layout, &commons, order, base.clone(), &mut search)
     })
@@ -155,7 +155,7 @@ fn landing_cells(layout: &Layout, grid: &Grid, piece: &Region, usable: impl Fn(u
 /// Joins one island to the tree; the lead drawn, if one was needed, or the place where
 /// the search stopped.
 fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut Corridors, c: &Common, tree: &mut Targets, isl: &Region) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
-    let usable = |i: usize| grid.owner[i] == c.owner || grid.owner[i] == super::grid::FREE;
+    let usable = |i: usize| grid.owner(i) == c.owner || grid.owner(i) == super::grid::FREE;
     let mut cells = Vec::new();
     grid.for_cells_in(isl, |i| {
         if usable(i) {
@@ -179,7 +179,7 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
                 return Ok(None);
             }
             let tol = layout.tolerance;
-            let outline = stroke_polyline(&pts, layout.rules.lead_width, tol);
+            let outline = stroke_lead(&pts, layout.rules.lead_width, tol);
             let h = grid.h;
             let keep = offset_round(&outline, layout.rules.min_gap + layout.rules.lead_width / 2.0 + h, tol.max(h / 4.0));
             grid.claim(&keep, c.owner);
@@ -239,9 +239,9 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
         let m = layout.rules.lead_width / 2.0 + h;
         let inside = |r: &crate::layout::Rect| p.x >= r.x - m && p.x <= r.x1() + m && p.y >= r.y - m && p.y <= r.y1() + m;
         if inside(&w) {
-            g.cost[c] = f32::INFINITY;
+            g.set_cost(c, f32::INFINITY);
         } else if inside(&lc) {
-            g.cost[c] = g.cost[c].max(HIDDEN_CROSSING_COST);
+            g.set_cost(c, g.cost(c).max(HIDDEN_CROSSING_COST));
         }
     }
     if commons.len() > 1 {
@@ -252,5 +252,6 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
             g.claim(&offset_round(&union_all(mine), reach, tol), c.owner);
         }
     }
+    g.compact();
     g
 }

@@ -125,9 +125,9 @@ impl Corridors {
         let (x1, y1) = ((x0 + TILE).min(grid.nx), (y0 + TILE).min(grid.ny));
         let (mut sum, mut n) = (0.0f32, 0u32);
         for y in y0..y1 {
-            for i in y * grid.nx + x0..y * grid.nx + x1 {
-                let o = grid.owner[i];
-                let extra = grid.cost[i];
+            for x in x0..x1 {
+                let o = grid.owner_xy(x, y);
+                let extra = grid.cost_xy(x, y);
                 if (o == FREE || o == owner) && extra.is_finite() {
                     sum += 1.0 + extra;
                     n += 1;

@@ -9,7 +9,7 @@ use super::target::Targets;
 use super::side::SideFrame;
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
-use crate::geom::{offset_round, region_of, stroke_polyline, Polygon, Pt, Region};
+use crate::geom::{offset_round, region_of, stroke_lead, stroke_polyline, Polygon, Pt, Region};
 use crate::layout::{Layout, PlateId};
 
 /// How many times the whole escape is retried in a new order.
@@ -49,9 +49,10 @@ pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings:
     base.add_cost(&filled, if el.coms.len() > 1 { BODY_COST_MULTIPLEXED } else { BODY_COST });
     // Passages the assignment keeps for back leads stay free of front leads.
     base.block(&crate::geom::region_of(el.assignment.passages.iter().cloned()));
+    base.compact();
     let mut order: Vec<usize> = (0..nets.len()).collect();
     order.sort_by(|&a, &b| nearest_v(frame, &nets[a]).total_cmp(&nearest_v(frame, &nets[b])));
-    let mut search = Search::new(base.nx * base.ny);
+    let mut search = Search::new(&base);
     let (esc, notes) = super::retry::rip_up_and_retry(order, ATTEMPTS, |order| {
         attempt(layout, frame, &nets, order, base.clone(), &mut search)
     })
@@ -212,7 +213,7 @@ impl Goal for SealBand<'_> {
 fn piece_cells(grid: &Grid, piece: &Polygon, owner: u32) -> Vec<usize> {
     let mut cells = Vec::new();
     grid.for_cells_in(&region_of([piece.clone()]), |c| {
-        if grid.owner[c] == owner {
+        if grid.owner(c) == owner {
             cells.push(c)
         }
     });
@@ -227,7 +228,7 @@ fn piece_cells(grid: &Grid, piece: &Polygon, owner: u32) -> Vec<usize> {
 
 fn claim_lead(grid: &mut Grid, layout: &Layout, pts: &[Pt], owner: u32, k: f64) {
     let tol = layout.tolerance.max(grid.h / 4.0);
-    let lead: Region = stroke_polyline(pts, layout.rules.lead_width, tol);
+    let lead: Region = stroke_lead(pts, layout.rules.lead_width, tol);
     grid.claim(&offset_round(&lead, k, tol), owner);
 }
 

@@ -1,6 +1,11 @@
 //! The routing grid: square cells over the glass, each with an owner (which net's
 //! keep-out covers it) and an extra cost.
+//!
+//! Both values are kept by page ([`PagedCells`]): a page where every cell is alike (open
+//! glass, the inside of a keep-out, the blocked margin) holds one value, so the grid's
+//! memory follows the drawing, not the glass.
 
+use super::pages::{PageGeom, PagedCells};
 use crate::geom::{Polygon, Pt, Region};
 
 /// Owner value of a cell no net claims.
@@ -22,9 +27,9 @@ pub struct Grid {
     /// Rows.
     pub ny: usize,
     /// Owner per cell: `FREE`, `BLOCKED`, or net id + 1.
-    pub owner: Vec<u32>,
+    owner: PagedCells<u32>,
     /// Extra cost of entering a cell (0 = none; `f32::INFINITY` = forbidden).
-    pub cost: Vec<f32>,
+    cost: PagedCells<f32>,
 }
 
 impl Grid {
@@ -32,7 +37,49 @@ impl Grid {
     pub fn new(xa: f64, ya: f64, xb: f64, yb: f64, h: f64) -> Grid {
         let nx = ((xb - xa) / h).ceil() as usize + 1;
         let ny = ((yb - ya) / h).ceil() as usize + 1;
-        Grid { x0: xa, y0: ya, h, nx, ny, owner: vec![FREE; nx * ny], cost: vec![0.0; nx * ny] }
+        let pages = PageGeom::of(nx, ny);
+        Grid { x0: xa, y0: ya, h, nx, ny, owner: PagedCells::new(pages, FREE), cost: PagedCells::new(pages, 0.0) }
+    }
+
+    /// Owner of cell `i`: `FREE`, `BLOCKED`, or net id + 1.
+    #[inline]
+    pub fn owner(&self, i: usize) -> u32 {
+        self.owner.get(i)
+    }
+
+    /// Owner of the cell at column `x`, row `y`.
+    #[inline]
+    pub fn owner_xy(&self, x: usize, y: usize) -> u32 {
+        self.owner.get_xy(x, y)
+    }
+
+    /// Extra cost of entering cell `i` (0 = none; `f32::INFINITY` = forbidden).
+    #[inline]
+    pub fn cost(&self, i: usize) -> f32 {
+        self.cost.get(i)
+    }
+
+    /// Extra cost of entering the cell at column `x`, row `y`.
+    #[inline]
+    pub fn cost_xy(&self, x: usize, y: usize) -> f32 {
+        self.cost.get_xy(x, y)
+    }
+
+    /// Sets the extra cost of cell `i`.
+    pub fn set_cost(&mut self, i: usize, extra: f32) {
+        self.cost.set(i, extra);
+    }
+
+    /// Stores pages whose cells have all come out alike as one value (call when a
+    /// grid is built: claims fill pages cell by cell).
+    pub fn compact(&mut self) {
+        self.owner.compact();
+        self.cost.compact();
+    }
+
+    /// Cells stored one by one, of both values (for reports of memory use).
+    pub fn dense_cells(&self) -> usize {
+        self.owner.dense_cells() + self.cost.dense_cells()
     }
 
     /// Centre of cell `i`.
@@ -53,6 +100,13 @@ impl Grid {
     /// Calls `f` with every cell whose centre lies inside `region` (even-odd over all
     /// rings, so holes stay out).
     pub fn for_cells_in(&self, region: &Region, mut f: impl FnMut(usize)) {
+        let nx = self.nx;
+        self.for_spans_in(region, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
+    }
+
+    /// Calls `f(row, first column, last column)` for every run of cells in a row whose
+    /// centres lie inside `region` (even-odd over all rings).
+    pub fn for_spans_in(&self, region: &Region, mut f: impl FnMut(usize, usize, usize)) {
         let mut edges: Vec<(Pt, Pt)> = Vec::new();
         for p in &region.0 {
             push_ring_edges(p, &mut edges);
@@ -89,8 +143,8 @@ impl Grid {
                     continue;
                 }
                 let c1 = (c1 as usize).min(self.nx - 1);
-                for c in c0..=c1 {
-                    f(r * self.nx + c);
+                if c0 <= c1 {
+                    f(r, c0, c1);
                 }
             }
         }
@@ -102,11 +156,11 @@ impl Grid {
         let mut cells = Vec::new();
         self.for_cells_in(region, |i| cells.push(i));
         for i in cells {
-            let o = &mut self.owner[i];
-            if *o == FREE {
-                *o = owner;
-            } else if *o != owner {
-                *o = BLOCKED;
+            let o = self.owner.get(i);
+            if o == FREE {
+                self.owner.set(i, owner);
+            } else if o != owner {
+                self.owner.set(i, BLOCKED);
             }
         }
     }
@@ -116,17 +170,25 @@ impl Grid {
         let mut cells = Vec::new();
         self.for_cells_in(region, |i| cells.push(i));
         for i in cells {
-            self.owner[i] = BLOCKED;
+            self.owner.set(i, BLOCKED);
         }
     }
 
-    /// Blocks every cell outside `region`.
+    /// Blocks every cell outside `region`, row by row between the spans inside it.
     pub fn block_outside(&mut self, region: &Region) {
-        let mut inside = vec![false; self.owner.len()];
-        self.for_cells_in(region, |i| inside[i] = true);
-        for (o, ins) in self.owner.iter_mut().zip(inside) {
-            if !ins {
-                *o = BLOCKED;
+        let mut spans: Vec<Vec<(usize, usize)>> = vec![Vec::new(); self.ny];
+        self.for_spans_in(region, |r, c0, c1| spans[r].push((c0, c1)));
+        for (r, row) in spans.iter_mut().enumerate() {
+            row.sort_unstable();
+            let mut next = 0;
+            for &(c0, c1) in row.iter() {
+                for c in next..c0.max(next) {
+                    self.owner.set(r * self.nx + c, BLOCKED);
+                }
+                next = next.max(c1 + 1);
+            }
+            for c in next..self.nx {
+                self.owner.set(r * self.nx + c, BLOCKED);
             }
         }
     }
@@ -136,7 +198,7 @@ impl Grid {
         let mut cells = Vec::new();
         self.for_cells_in(region, |i| cells.push(i));
         for i in cells {
-            self.cost[i] += extra;
+            self.cost.set(i, self.cost.get(i) + extra);
         }
     }
 }

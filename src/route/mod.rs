@@ -19,6 +19,7 @@ pub mod dots;
 pub mod escape;
 pub mod fanout;
 pub mod grid;
+pub mod pages;
 pub mod retry;
 pub mod search;
 pub mod side;
@@ -112,7 +113,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
 }
 
 fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
-    let outline = crate::geom::stroke_polyline(&path, layout.rules.lead_width, layout.tolerance);
+    let outline = crate::geom::stroke_lead(&path, layout.rules.lead_width, layout.tolerance);
     Lead { net: net.to_string(), plate: PlateId::Front, path, outline, user_bus: false }
 }
 

@@ -3,6 +3,7 @@
 //! every change of direction so that leads come out as few straight and 45° runs.
 
 use super::grid::{Grid, BLOCKED, FREE};
+use super::pages::{PageGeom, Scratch};
 use std::cmp::Ordering;
 use std::collections::BinaryHeap;
 
@@ -21,15 +22,26 @@ pub(crate) fn neighbours(i: usize, w: usize, h: usize) -> impl Iterator<Item = (
 }
 const TURN_PENALTY: f32 = 3.0;
 
-/// Reusable search state (so a search does not clear millions of cells).
+/// What a search knows of one cell it reached.
+#[derive(Debug, Clone, Copy)]
+struct Node {
+    /// Cost from the sources.
+    g: f32,
+    /// The heuristic, computed once per cell and search.
+    h: f32,
+    /// Cell it was reached from (itself for a source).
+    parent: u32,
+    /// Direction of the step into it (8 for a source).
+    dir: u8,
+}
+
+const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8 };
+
+/// Reusable search state, kept by page for the cells one search reaches (so a search
+/// neither clears nor holds millions of cells).
 pub struct Search {
-    g: Vec<f32>,
-    /// The heuristic of each cell reached in this search, computed once.
-    hv: Vec<f32>,
-    dir: Vec<u8>,
-    parent: Vec<u32>,
-    stamp: Vec<u32>,
-    generation: u32,
+    nodes: Scratch<Node>,
+    nx: usize,
 }
 
 /// What a failed search learned.
@@ -64,9 +76,14 @@ impl Ord for Open {
 }
 
 impl Search {
-    /// State for grids of `cells` cells.
-    pub fn new(cells: usize) -> Search {
-        Search { g: vec![0.0; cells], hv: vec![0.0; cells], dir: vec![8; cells], parent: vec![0; cells], stamp: vec![0; cells], generation: 0 }
+    /// State for searches on grids of `grid`'s size.
+    pub fn new(grid: &Grid) -> Search {
+        Search { nodes: Scratch::new(PageGeom::of(grid.nx, grid.ny), UNREACHED), nx: grid.nx }
+    }
+
+    /// Pages of state held (the most one search has needed).
+    pub fn pages_held(&self) -> usize {
+        self.nodes.pages_held()
     }
 
     /// Finds the cheapest path from any of `sources` to a cell where `goal` holds, moving
@@ -94,26 +111,24 @@ impl Search {
         heuristic: impl Fn(usize) -> f32,
         allowed: impl Fn(usize) -> bool,
     ) -> Result<Vec<usize>, Blocked> {
-        self.generation += 1;
-        let stamp_now = self.generation;
+        debug_assert_eq!(self.nx, grid.nx, "search state made for another grid");
+        self.nodes.next_search();
         let mut open = BinaryHeap::new();
         let mut blockers: std::collections::HashMap<u32, usize> = Default::default();
         let mut nearest = (f32::MAX, sources.first().copied().unwrap_or(0));
         for &s in sources {
-            if self.stamp[s] != stamp_now {
-                self.stamp[s] = stamp_now;
-                self.g[s] = 0.0;
-                self.hv[s] = heuristic(s);
-                self.dir[s] = 8;
-                self.parent[s] = s as u32;
-                open.push(Open { f: self.hv[s], cell: s as u32 });
+            let (x, y) = (s % grid.nx, s / grid.nx);
+            if self.nodes.get(x, y).is_none() {
+                let h = heuristic(s);
+                self.nodes.set(x, y, Node { g: 0.0, h, parent: s as u32, dir: 8 });
+                open.push(Open { f: h, cell: s as u32 });
             }
         }
-        let nx = grid.nx as i64;
         while let Some(Open { f, cell }) = open.pop() {
             let c = cell as usize;
-            let gc = self.g[c];
-            let hc = self.hv[c];
+            let (cx, cy) = (c % grid.nx, c / grid.nx);
+            let here = self.nodes.value(cx, cy);
+            let (gc, hc) = (here.g, here.h);
             if f - hc > gc + 1e-3 {
                 continue; // stale entry
             }
@@ -123,12 +138,12 @@ impl Search {
             if hc < nearest.0 {
                 nearest = (hc, c);
             }
-            let (cx, cy) = ((c % grid.nx) as i64, (c / grid.nx) as i64);
             for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
                 if !allowed(n) {
                     continue;
                 }
-                let o = grid.owner[n];
+                let (x, y) = (x as usize, y as usize);
+                let o = grid.owner_xy(x, y);
                 if o != FREE && o != owner {
                     if o != BLOCKED {
                         *blockers.entry(o).or_default() += 1;
@@ -137,29 +152,27 @@ impl Search {
                 }
                 if d % 2 == 1 {
                     // no corner cutting past a blocked orthogonal neighbour
-                    let a = grid.owner[(cy * nx + x) as usize];
-                    let b = grid.owner[(y * nx + cx) as usize];
+                    let a = grid.owner_xy(cx, y);
+                    let b = grid.owner_xy(x, cy);
                     if (a != FREE && a != owner) || (b != FREE && b != owner) {
                         continue;
                     }
                 }
-                let extra = grid.cost[n];
+                let extra = grid.cost_xy(x, y);
                 if extra.is_infinite() {
                     continue;
                 }
                 let step = if d % 2 == 1 { std::f32::consts::SQRT_2 } else { 1.0 };
-                let turn = if self.dir[c] != 8 && self.dir[c] as usize != d { TURN_PENALTY } else { 0.0 };
+                let turn = if here.dir != 8 && here.dir as usize != d { TURN_PENALTY } else { 0.0 };
                 let ng = gc + step * (1.0 + extra) + turn;
-                let fresh = self.stamp[n] != stamp_now;
-                if fresh || ng < self.g[n] {
-                    if fresh {
-                        self.stamp[n] = stamp_now;
-                        self.hv[n] = heuristic(n);
-                    }
-                    self.g[n] = ng;
-                    self.dir[n] = d as u8;
-                    self.parent[n] = c as u32;
-                    open.push(Open { f: ng + self.hv[n], cell: n as u32 });
+                let seen = self.nodes.get(x, y);
+                if seen.is_none_or(|s| ng < s.g) {
+                    let h = match seen {
+                        Some(s) => s.h,
+                        None => heuristic(n),
+                    };
+                    self.nodes.set(x, y, Node { g: ng, h, parent: c as u32, dir: d as u8 });
+                    open.push(Open { f: ng + h, cell: n as u32 });
                 }
             }
         }
@@ -170,8 +183,12 @@ impl Search {
 
     fn path_to(&self, mut c: usize) -> Vec<usize> {
         let mut path = vec![c];
-        while self.parent[c] as usize != c {
-            c = self.parent[c] as usize;
+        loop {
+            let p = self.nodes.value(c % self.nx, c / self.nx).parent as usize;
+            if p == c {
+                break;
+            }
+            c = p;
             path.push(c);
         }
         path.reverse();
@@ -206,7 +223,7 @@ mod tests {
     fn goes_around_a_wall() {
         let mut g = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
         g.claim(&region_of([rect(4.8, 0.0, 5.2, 8.0)]), 7);
-        let mut s = Search::new(g.nx * g.ny);
+        let mut s = Search::new(&g);
         let start = g.index_of(crate::geom::pt(1.0, 1.0)).unwrap();
         let end = g.index_of(crate::geom::pt(9.0, 1.0)).unwrap();
         let path = s.find(&g, 1, &[start], |c| c == end, |_| 0.0).unwrap();
@@ -217,7 +234,7 @@ mod tests {
     fn reports_blocker() {
         let mut g = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
         g.claim(&region_of([rect(4.8, -1.0, 5.2, 11.0)]), 7);
-        let mut s = Search::new(g.nx * g.ny);
+        let mut s = Search::new(&g);
         let start = g.index_of(crate::geom::pt(1.0, 1.0)).unwrap();
         let end = g.index_of(crate::geom::pt(9.0, 1.0)).unwrap();
         let err = s.find(&g, 1, &[start], |c| c == end, |_| 0.0).unwrap_err();

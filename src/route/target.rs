@@ -11,10 +11,12 @@
 //! costs at least its length; Hart, Nilsson & Raphael, 1968). One R-tree query per tile,
 //! remembered until the tree grows, serves all its cells.
 //!
-//! Membership is one stamp per grid cell, allocated once per router and reused for every
-//! net: starting a new tree is O(1), not a clear of the whole grid.
+//! Membership is kept by page for the cells of the tree only ([`Scratch`]), reused for
+//! every net: starting a new tree is O(1), not a clear of the whole grid, and the memory
+//! held is that of the tree's pages.
 
 use super::grid::Grid;
+use super::pages::{PageGeom, Scratch};
 use rstar::primitives::Rectangle;
 use rstar::{PointDistance, RTree};
 use std::cell::RefCell;
@@ -30,8 +32,7 @@ pub struct Targets {
     /// to the nearest member tile), so that one R-tree query serves a whole tile.
     memo: RefCell<Vec<(u32, f32)>>,
     version: u32,
-    mark: Vec<u32>,
-    generation: u32,
+    mark: Scratch<()>,
     tiles: HashSet<(usize, usize)>,
     index: RTree<Rectangle<[f64; 2]>>,
 }
@@ -45,8 +46,7 @@ impl Targets {
             ntx: tiles.ntx,
             memo: RefCell::new(vec![(0, 0.0); tiles.ntx * tiles.nty]),
             version: 1,
-            mark: vec![0; grid.nx * grid.ny],
-            generation: 1,
+            mark: Scratch::new(PageGeom::of(grid.nx, grid.ny), ()),
             tiles: HashSet::new(),
             index: RTree::new(),
         }
@@ -54,11 +54,7 @@ impl Targets {
 
     /// Empties the set (O(number of tiles), not O(grid)).
     pub fn clear(&mut self) {
-        self.generation += 1;
-        if self.generation == u32::MAX {
-            self.mark.iter_mut().for_each(|m| *m = 0);
-            self.generation = 1;
-        }
+        self.mark.next_search();
         self.tiles.clear();
         self.index = RTree::new();
         self.bump_version();
@@ -74,11 +70,12 @@ impl Targets {
 
     /// Adds cell `c`.
     pub fn add(&mut self, c: usize) {
-        if self.mark[c] == self.generation {
+        let (x, y) = (c % self.nx, c / self.nx);
+        if self.mark.get(x, y).is_some() {
             return;
         }
-        self.mark[c] = self.generation;
-        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
+        self.mark.set(x, y, ());
+        let (tx, ty) = (x / TILE, y / TILE);
         if self.tiles.insert((tx, ty)) {
             let (x0, y0) = ((tx * TILE) as f64, (ty * TILE) as f64);
             let span = (TILE - 1) as f64;
@@ -89,7 +86,7 @@ impl Targets {
 
     /// Whether cell `c` is in the set.
     pub fn contains(&self, c: usize) -> bool {
-        self.mark[c] == self.generation
+        self.mark.get(c % self.nx, c / self.nx).is_some()
     }
 
     /// Whether tile (column, row) of `TILE` cells holds a cell of the set.
