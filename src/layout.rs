@@ -565,8 +565,14 @@ impl DigitStyle {
 
 /// Name of the decimal-point segment that follows a digit.
 pub const DECIMAL_POINT: &str = "dp";
-/// Name of the colon element that follows a digit (both dots are one element).
+/// Name of the colon element that follows a digit under static drive (both dots are one
+/// element on one line).
 pub const COLON: &str = "col";
+/// Names of the colon's upper and lower dot under multiplexed drive, where each dot is an
+/// element of its own: the dots sit at different heights, and a common band at each height
+/// reaches a dot from its neighbouring segments; one element would need one common
+/// behind both dots, led across the bands between them.
+pub const COLON_DOTS: [&str; 2] = ["col_top", "col_bottom"];
 
 /// Net name of a segment: group name, 1-based digit number, dot, segment name (`D3.g`).
 pub fn segment_net(group: &str, digit: u32, segment: &str) -> String {

@@ -65,6 +65,11 @@ fn rain_gauge_routes_at_every_position() {
 }
 
 #[test]
+fn darkroom_timer_with_its_colon_routes_at_every_position() {
+    sweep("darkroom-timer");
+}
+
+#[test]
 fn moving_shifts_only_points() {
     let t = moved("  origin: [6, 14.5]\n  - {name: A, at: [1, 2], size: 3}\n", 0.5, -1.0);
     assert_eq!(t, "  origin: [6.500, 13.500]\n  - {name: A, at: [1.500, 1.000], size: 3}\n");

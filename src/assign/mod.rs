@@ -9,8 +9,9 @@
 //! 1. elements fixed by hand keep their COM and SEG;
 //! 2. seven-segment digits take their template (`template.rs`), one set of SEG lines per
 //!    digit, so each line's segments lie together and both plates can be routed;
-//! 3. every other element (legends, icons, colons, other digit styles, elements fixed in
-//!    one number only) takes a free common on the nearest line that has one; when no line
+//! 3. every other element (legends, icons, colon dots, other digit styles, elements fixed
+//!    in one number only) takes a free common on the nearest line that has one (a colon
+//!    dot the common its digit's template names for it, if any); when no line
 //!    has room it opens a new line, on the common of its height in the window (top band →
 //!    COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉
 //!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
@@ -120,6 +121,9 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
         if fixed.com.is_none() && one_common(layout, e) {
             fixed.com = entry_com.get(e.key.as_str()).map(|c| c + 1);
         }
+        if fixed.com.is_none() {
+            fixed.com = colon_dot_common(layout, e).map(|c| c + 1);
+        }
         let want = fixed.com.map(|c| c - 1).unwrap_or_else(|| band(layout, centres[i], n));
         let l = match fixed.seg {
             Some(s) => line_numbered(&mut lines, s - 1),
@@ -163,6 +167,12 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
         }
     }
     Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages })
+}
+
+/// The common the template gives a colon dot of a seven-segment digit, if any.
+fn colon_dot_common(layout: &Layout, e: &Element) -> Option<u32> {
+    let dot = crate::layout::COLON_DOTS.iter().position(|d| e.name.rsplit('.').next() == Some(*d))?;
+    seven_template(layout, e)?.colon.map(|c| c[dot])
 }
 
 /// True for the members of a bar graph or a gauge, which share one common.

@@ -9,7 +9,7 @@ use super::fonts::Fonts;
 use super::outline::finish;
 use super::{Element, ElementKind};
 use crate::geom::{Polygon, distance, region_of};
-use crate::layout::{COLON, DECIMAL_POINT, DigitGroup, Layout, segment_net};
+use crate::layout::{COLON, COLON_DOTS, DECIMAL_POINT, DigitGroup, Layout, segment_net};
 use crate::{Error, Result};
 
 /// The half-digit segments (a leading "1").
@@ -109,7 +109,15 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
                     Some("a larger pitch, or a thinner stroke".into()),
                 ));
             }
-            out.push(element(g, i, COLON, pieces.to_vec(), None, format!("colon after digit {i}"))?);
+            if layout.drive.commons > 1 {
+                // Multiplexed: each dot its own element (see `COLON_DOTS`), upper first.
+                let [low, high] = pieces;
+                for (name, piece, which) in [(COLON_DOTS[0], high, "upper"), (COLON_DOTS[1], low, "lower")] {
+                    out.push(element(g, i, name, vec![piece], None, format!("{which} dot of the colon after digit {i}"))?);
+                }
+            } else {
+                out.push(element(g, i, COLON, pieces.to_vec(), None, format!("colon after digit {i}"))?);
+            }
         }
     }
     if problems.is_empty() { Ok(out) } else { Err(Error::Input(problems)) }

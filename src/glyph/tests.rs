@@ -64,6 +64,25 @@ fn seven_segment_group_names_and_order() {
     }
 }
 
+/// Under multiplexed drive the colon is two elements, its upper dot first, each one piece
+/// (so each dot can take the common of its own height); the static colon above is one.
+#[test]
+fn multiplexed_colon_is_two_dots_upper_first() {
+    let mut l = empty_layout();
+    l.drive.commons = 4;
+    let mut g = seven_group(2, 8.0);
+    g.colons = vec![1];
+    l.digits.push(g);
+    let e = elements(&l);
+    let dots: Vec<&Element> = e.iter().filter(|x| x.name.starts_with("D1.col")).collect();
+    let names: Vec<&str> = dots.iter().map(|x| x.name.as_str()).collect();
+    assert_eq!(names, ["D1.col_top", "D1.col_bottom"]);
+    assert!(dots.iter().all(|d| d.outline.0.len() == 1));
+    let y = |d: &Element| d.outline.centroid().unwrap().y();
+    assert!(y(dots[0]) > y(dots[1]) + 1.0, "the upper dot is named first");
+    assert_eq!(dots[0].drives, "upper dot of the colon after digit 1");
+}
+
 /// The segments lit for '1' by the truth table (common practice; docs/background.md,
 /// *Seven-segment patterns*) are
 /// exactly those on the right of the built digit, for '7' those plus the top bar, for

@@ -3,7 +3,7 @@
 //! nets that exist, pin numbers unique and on the pad row.
 
 use super::problems::Problems;
-use crate::layout::{COLON, DECIMAL_POINT, IconShape, Layout, common_net, gauge_part_net, line_net, segment_net, step_net};
+use crate::layout::{COLON, COLON_DOTS, DECIMAL_POINT, IconShape, Layout, common_net, gauge_part_net, line_net, segment_net, step_net};
 use std::collections::BTreeMap;
 
 /// One net and the key of the layout entry that makes it.
@@ -16,15 +16,20 @@ pub struct NetSource {
 }
 
 /// Segment names of digit `digit` (1-based) of group `g`, in drawing order, with its
-/// decimal point and colon when it has them. Half digits have only `b` and `c`.
-pub fn digit_segments(g: &crate::layout::DigitGroup, digit: u32) -> Vec<&'static str> {
+/// decimal point and colon when it has them (the colon as two dots when `split_colon`,
+/// under multiplexed drive). Half digits have only `b` and `c`.
+pub fn digit_segments(g: &crate::layout::DigitGroup, digit: u32, split_colon: bool) -> Vec<&'static str> {
     let mut s: Vec<&'static str> =
         if g.half_digits.contains(&digit) { vec!["b", "c"] } else { g.style.segment_names().to_vec() };
     if g.decimal_points.contains(&digit) {
         s.push(DECIMAL_POINT);
     }
     if g.colons.contains(&digit) {
-        s.push(COLON);
+        if split_colon {
+            s.extend(COLON_DOTS);
+        } else {
+            s.push(COLON);
+        }
     }
     s
 }
@@ -34,7 +39,7 @@ pub fn element_nets(layout: &Layout) -> Vec<NetSource> {
     let mut out = Vec::new();
     for g in &layout.digits {
         for d in 1..=g.count {
-            for s in digit_segments(g, d) {
+            for s in digit_segments(g, d, layout.drive.commons > 1) {
                 out.push(NetSource { net: segment_net(&g.name, d, s), key: g.key.clone() });
             }
         }
