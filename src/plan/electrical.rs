@@ -8,7 +8,8 @@
 //!
 //! - *Leads* are the parts of a net's ITO narrower than a disc of radius
 //!   `0.75 · lead_width` fits in (the ITO less its morphological opening), less tiny
-//!   corner slivers. Each lead piece of area A and perimeter P is taken as a strip
+//!   corner slivers and pieces narrower than half of `min_width` (crescents the
+//!   opening leaves along curves). Each lead piece of area A and perimeter P is taken as a strip
 //!   L × W with `L·W = A` and `2(L + W) = P`; its squares are `L / W`. A net's lead
 //!   resistance is `Rs` times the squares of all its lead pieces: for a tree of leads
 //!   that is the sum of every branch, an upper bound on the resistance to any one pixel.
@@ -18,7 +19,7 @@
 
 use crate::artwork::Artwork;
 use crate::check::Extraction;
-use crate::geom::{self, Region};
+use crate::geom::{self, Polygon, Region};
 use crate::layout::{Cell, PlateId};
 use serde::Serialize;
 
@@ -119,7 +120,7 @@ pub struct Electrical {
     pub lines: Vec<Line>,
     /// Every pixel.
     pub pixels: Vec<PixelCap>,
-    /// Spread of RC over SEG lines and over commons.
+    /// Spread of RC over SEG lines and over commons (those that face some ITO).
     pub spread: Vec<Spread>,
 }
 
@@ -135,29 +136,47 @@ fn net_ito(ex: &Extraction, plate: PlateId, net: &str) -> Region {
     )
 }
 
-/// Squares along the leads of some ITO (pads excluded).
-fn lead_squares(art: &Artwork, ito: &Region, net: &str) -> f64 {
+/// The lead pieces of some ITO of `net` (pads excluded), each with its squares.
+pub fn lead_pieces(art: &Artwork, ito: &Region, net: &str) -> Vec<(Polygon, f64)> {
     use geo::{Euclidean, Length};
     if ito.0.is_empty() {
-        return 0.0;
+        return Vec::new();
     }
     let r = lead_radius(art);
     let tol = art.rules.lead_width / 50.0;
-    let opened = geom::offset_round(&geom::offset_round(ito, -r, tol), r, tol);
+    // The opening comes back to the straight edges only to within the 1 nm snap and to
+    // curves within the chord tolerance; grown by two tolerances it swallows those
+    // hair-thin rims, which would otherwise cling to a lead and double its perimeter.
+    let opened = geom::offset_round(&geom::offset_round(ito, -r, tol), r + 2.0 * tol, tol);
     let pads = geom::region_of(art.pins.iter().filter(|p| p.net == net).map(|p| p.pad.clone()));
     let leads = geom::difference(&geom::difference(ito, &opened), &pads);
-    // Corner slivers the opening leaves are far smaller than one square of lead.
+    // Corner slivers the opening leaves are far smaller than one square of lead, and the
+    // thin crescents it leaves along curved edges (flattened a little differently after
+    // the two offsets) are far narrower than any line that etches: neither is a lead.
     let least = art.rules.lead_width * art.rules.lead_width;
+    let thinnest = 0.5 * art.rules.min_width;
     leads
         .0
-        .iter()
-        .filter(|p| geom::area(*p) > least)
-        .map(|p| {
+        .into_iter()
+        .filter(|p| geom::area(p) > least)
+        .filter_map(|p| {
             let perimeter: f64 =
                 std::iter::once(p.exterior()).chain(p.interiors()).map(|ring| Euclidean.length(ring)).sum();
-            strip_squares(geom::area(p), perimeter)
+            let squares = strip_squares(geom::area(&p), perimeter);
+            let width = (geom::area(&p) / squares).sqrt();
+            (width >= thinnest).then_some((p, squares))
         })
-        .sum()
+        .collect()
+}
+
+/// Squares along the leads of some ITO (pads excluded).
+fn lead_squares(art: &Artwork, ito: &Region, net: &str) -> f64 {
+    lead_pieces(art, ito, net).iter().map(|(_, s)| s).sum()
+}
+
+/// ITO of a plate's components carrying `net`, as the plan measures it.
+pub fn ito_of_net(ex: &Extraction, plate: PlateId, net: &str) -> Region {
+    net_ito(ex, plate, net)
 }
 
 /// The electrical plan of an artwork.
@@ -213,7 +232,8 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
     let spread = ["seg", "com"]
         .iter()
         .filter_map(|k| {
-            let rc: Vec<f64> = lines.iter().filter(|l| l.kind == *k).map(|l| l.rc_us).collect();
+            // A line that faces nothing (a common no element uses) has no RC to compare.
+            let rc: Vec<f64> = lines.iter().filter(|l| l.kind == *k && l.facing_area_mm2 > 0.0).map(|l| l.rc_us).collect();
             let (min, max) = rc.iter().fold((f64::INFINITY, 0.0f64), |(lo, hi), &v| (lo.min(v), hi.max(v)));
             (!rc.is_empty()).then(|| Spread { kind: *k, min_rc_us: min, max_rc_us: max, ratio: (min > 0.0).then(|| round(max / min, 3)) })
         })
@@ -272,5 +292,19 @@ mod tests {
         assert!((s1.lead_squares - 200.0).abs() < 1.0, "{}", s1.lead_squares);
         assert!((s1.lead_resistance_ohm - 10_000.0).abs() < 50.0, "{}", s1.lead_resistance_ohm);
         assert_eq!(strip_squares(2.0, 2.0 * (20.0 + 0.1)).round(), 200.0);
+    }
+
+    /// A round electrode (a disc of 2 mm radius, flattened to 1 µm) on the fixture's
+    /// 0.2 mm lead: the opening leaves thin crescents along the curve, which are not
+    /// leads; only the lead's 10.9 mm from the pad's top (y = 4) to the disc (y = 14.9)
+    /// counts, about 54.5 squares (plane geometry; the ends blur by a fraction of a square).
+    #[test]
+    fn curved_electrodes_add_no_squares() {
+        let mut art = crate::check::fixture::clean();
+        let disc = crate::geom::circle(crate::geom::pt(12.0, 16.9), 2.0, 1e-3);
+        crate::check::fixture::set(&mut art, Layer::FrontIto, Role::Segment, "S1", disc);
+        let e = electrical(&art, &Extraction::extract(&art));
+        let s1 = e.lines.iter().find(|l| l.net == "S1").unwrap();
+        assert!((52.5..56.5).contains(&s1.lead_squares), "{}", s1.lead_squares);
     }
 }
