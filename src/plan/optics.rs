@@ -98,16 +98,17 @@ pub fn optics(cell: &Cell) -> Optics {
     }
 }
 
-/// Two lines for the films' notes, in the characters the film's stroke font draws.
+/// Two lines for the films' notes, in the characters the film's stroke font draws
+/// (it sets capitals, so no µ or °).
 pub fn note_lines(cell: &Cell) -> [String; 2] {
     let o = optics(cell);
     [
         format!(
-            "CELL GAP {} µm, SPACERS {} µm - FIRST MINIMUM {} µm, SECOND {} µm (DN {} AT {} NM)",
+            "CELL GAP {} UM, SPACERS {} UM - FIRST MINIMUM {} UM, SECOND {} UM (DN {} AT {} NM)",
             o.cell_gap_um, o.spacer_um, o.first_minimum_gap_um, o.second_minimum_gap_um, o.birefringence, o.wavelength_nm
         ),
         format!(
-            "VIEWED FROM {}: RUB FRONT {}°, BACK {}° - POLARIZERS FRONT {}°, BACK {}° (CROSSED)",
+            "VIEWED FROM {}: RUB FRONT {} DEG, BACK {} DEG - POLARIZERS FRONT {} DEG, BACK {} DEG (CROSSED)",
             o.viewing.to_uppercase(),
             o.front_rubbing_deg,
             o.back_rubbing_deg,
