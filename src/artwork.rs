@@ -11,7 +11,7 @@
 
 use crate::finding::Finding;
 use crate::geom::{Polygon, Pt, Region};
-use crate::layout::{Drive, LayerMap, PlateId, Resist, Rules};
+use crate::layout::{Cell, DigitStyle, Drive, LayerMap, PlateId, Resist, Rules};
 
 /// A drawn layer. ITO and mark layers belong to one plate; the seal, transfer dots and
 /// window lie between the plates.
@@ -182,6 +182,25 @@ pub struct TransferDot {
     pub dot: Polygon,
 }
 
+/// One digit position as the firmware sees it: which element each segment of its style
+/// is (intent; the (COM, SEG) pair of each element is in the pixels).
+#[derive(Debug, Clone, PartialEq)]
+pub struct DigitSlot {
+    /// Name of the digit group (`D`).
+    pub group: String,
+    /// 1-based position in its group.
+    pub position: u32,
+    /// Segment style, which decides the characters it can show.
+    pub style: DigitStyle,
+    /// (segment name, element name) of each segment the position has, in the style's
+    /// order (`b` and `c` only for a half digit).
+    pub segments: Vec<(String, String)>,
+    /// Element of the decimal point after it, if any.
+    pub point: Option<String>,
+    /// Element of the colon after it, if any.
+    pub colon: Option<String>,
+}
+
 /// A non-ITO text placed on a film and as a GDSII TEXT (plate labels).
 #[derive(Debug, Clone)]
 pub struct Label {
@@ -208,6 +227,11 @@ pub struct Artwork {
     pub pins: Vec<Pin>,
     /// Designed pixels.
     pub pixels: Vec<Pixel>,
+    /// Digit positions in layout order (group by group), for firmware tables and `show`.
+    pub digits: Vec<DigitSlot>,
+    /// The cell and its drive as the layout describes them (mixture, gap, voltages,
+    /// optics), for the electrical and optical plan.
+    pub cell: Cell,
     /// Transfer dots.
     pub transfer_dots: Vec<TransferDot>,
     /// Region filled with liquid crystal (inside the seal's inner edge).

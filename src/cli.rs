@@ -41,6 +41,26 @@ enum Command {
         /// Layout file (YAML).
         layout: PathBuf,
     },
+    /// Build the artwork and draw the display showing a text and elements switched on,
+    /// as the glass would show it (`NAME.show.svg` and `NAME.show.png`).
+    Show {
+        /// Layout file (YAML).
+        layout: PathBuf,
+        /// Text for the digits, one character a position, `.` and `:` after a position
+        /// that has a point or colon (e.g. "88:88").
+        #[arg(long, default_value = "")]
+        text: String,
+        /// Elements to switch on besides the text: legend, icon, gauge-part or step
+        /// names, comma-separated.
+        #[arg(long, value_delimiter = ',')]
+        on: Vec<String>,
+        /// Output folder (created if missing).
+        #[arg(long, default_value = "out")]
+        out: PathBuf,
+        /// Resolution of the PNG, dots per inch.
+        #[arg(long, default_value_t = 300.0)]
+        dpi: f32,
+    },
     /// Print an intermediate form (for debugging and reviews): the resolved layout or
     /// the artwork, as Rust debug text.
     Dump {
@@ -69,6 +89,7 @@ pub fn run() -> ExitCode {
             build(&layout, &out, masks_despite_errors, date, timings)
         }
         Command::Check { layout } => check(&layout),
+        Command::Show { layout, text, on, out, dpi } => show(&layout, &text, &on, &out, dpi),
         Command::Dump { what, layout } => dump(what, &layout),
     };
     match result {
@@ -90,7 +111,7 @@ fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: 
     print_findings(layout, &built);
     let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
     let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks };
-    let files = segmask::emit::render_outputs(&built.artwork, &built.findings, &opts)?;
+    let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts)?;
     segmask::emit::write_atomically(out, &files)?;
     for f in &files {
         eprintln!("wrote {}", out.join(&f.name).display());
@@ -104,6 +125,36 @@ fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: 
 fn check(layout: &Path) -> segmask::Result<ExitCode> {
     let built = segmask::pipeline::build_layout_file(layout)?;
     print_findings(layout, &built);
+    Ok(exit_for(&built.findings))
+}
+
+fn show(layout: &Path, text: &str, on: &[String], out: &Path, dpi: f32) -> segmask::Result<ExitCode> {
+    if !(dpi.is_finite() && (10.0..=4800.0).contains(&dpi)) {
+        return Err(segmask::Error::input(segmask::error::InputProblem {
+            file: "command line".into(),
+            line: None,
+            column: None,
+            key: "--dpi".into(),
+            message: format!("{dpi} dots per inch is outside the range drawn"),
+            allowed: Some("10 to 4800".into()),
+        }));
+    }
+    let built = segmask::pipeline::build_layout_file(layout)?;
+    print_findings(layout, &built);
+    let art = &built.artwork;
+    let shown = segmask::show::show(art, text, on)?;
+    let what = if on.is_empty() { format!("\"{text}\"") } else { format!("\"{text}\" with {}", on.join(", ")) };
+    let svg = segmask::emit::show_svg::render_show_svg(&art.name, &art.window, &shown.visible, &what);
+    let png = segmask::emit::show_svg::render_png(&svg, dpi)?;
+    let stem = segmask::emit::file_stem(&art.name);
+    let files = [
+        segmask::emit::OutputFile { name: format!("{stem}.show.svg"), bytes: svg },
+        segmask::emit::OutputFile { name: format!("{stem}.show.png"), bytes: png },
+    ];
+    segmask::emit::write_atomically(out, &files)?;
+    for f in &files {
+        eprintln!("wrote {}", out.join(&f.name).display());
+    }
     Ok(exit_for(&built.findings))
 }
 

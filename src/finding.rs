@@ -55,6 +55,13 @@ pub enum Rule {
     DriveTruth,
     /// A pixel its common electrode does not cover fully (trimmed where two commons meet).
     Coverage,
+    /// A line whose lead resistance times capacitance is a large share of the frame.
+    LineRc,
+    /// The drive amplitude does not switch the mixture fully on, or lights off pixels.
+    DriveMargin,
+    /// Plates misaligned by the registration the process holds to light stray area or
+    /// uncover part of a pixel.
+    Registration,
 }
 
 impl Rule {
@@ -73,6 +80,9 @@ impl Rule {
             Rule::Unroutable => "unroutable",
             Rule::DriveTruth => "drive-truth",
             Rule::Coverage => "coverage",
+            Rule::LineRc => "line-rc",
+            Rule::DriveMargin => "drive-margin",
+            Rule::Registration => "registration",
         }
     }
 }

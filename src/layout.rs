@@ -59,6 +59,8 @@ pub struct Layout {
     pub tolerance: f64,
     /// Extra font and icon files the layout adds (already read), by file name.
     pub extra_fonts: Vec<FontSource>,
+    /// The cell's mixture, electrical and optical data (its `gap` equals `cell_gap`).
+    pub cell: Cell,
     /// Line of each key path in the layout file, so later stages can point at it.
     pub key_lines: BTreeMap<String, usize>,
 }
@@ -188,6 +190,9 @@ pub struct Rules {
     pub edge_clearance: f64,
     /// Width of automatically drawn leads.
     pub lead_width: f64,
+    /// Misalignment of the plates the assembly process holds to (each of x and y); 0
+    /// leaves the registration check off.
+    pub registration: f64,
 }
 
 impl Rules {
@@ -278,6 +283,84 @@ pub struct Pads {
     pub count: Option<u32>,
     /// Fixed pins: net name → pin number.
     pub fixed: BTreeMap<String, u32>,
+}
+
+/// Which side of the display the viewer looks from, as a clock face on the glass seen
+/// from the front: `Bottom` is "6 o'clock", the usual one for a panel below eye level.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Viewing {
+    /// From below (6 o'clock).
+    Bottom,
+    /// From above (12 o'clock).
+    Top,
+    /// From the left (9 o'clock).
+    Left,
+    /// From the right (3 o'clock).
+    Right,
+}
+
+impl Viewing {
+    /// Name as written in layouts.
+    pub fn name(self) -> &'static str {
+        match self {
+            Viewing::Bottom => "bottom",
+            Viewing::Top => "top",
+            Viewing::Left => "left",
+            Viewing::Right => "right",
+        }
+    }
+}
+
+/// The liquid-crystal cell and its drive, for the electrical and optical plan (keys
+/// `cell_gap`, `mixture`, `electrical`, `optics`; docs/layout-format.md). SI units
+/// except the gap (mm, like every length) and the wavelength (nm).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Cell {
+    /// Liquid-crystal thickness, mm.
+    pub gap: f64,
+    /// Birefringence Δn of the mixture at `wavelength_nm`.
+    pub birefringence: f64,
+    /// Relative permittivity along the director, ε∥ (pixel fully on).
+    pub permittivity_parallel: f64,
+    /// Relative permittivity across the director, ε⊥ (pixel off).
+    pub permittivity_perpendicular: f64,
+    /// rms voltage where the mixture starts to switch, V.
+    pub threshold: f64,
+    /// rms voltage where it is fully switched, V.
+    pub saturation: f64,
+    /// Sheet resistance of the ITO, ohms per square.
+    pub sheet_resistance: f64,
+    /// Frame rate of the drive, Hz.
+    pub frame_rate: f64,
+    /// Largest RC of a line, as a fraction of the frame period, before a warning.
+    pub rc_limit: f64,
+    /// Drive amplitude V of Alt & Pleshko's waveforms, volts; `None` when not given.
+    pub voltage: Option<f64>,
+    /// Wavelength the cell is tuned for, nm.
+    pub wavelength_nm: f64,
+    /// Side the viewer looks from.
+    pub viewing: Viewing,
+}
+
+impl Cell {
+    /// The defaults of docs/layout-format.md (*mixture*, *electrical*, *optics*) around
+    /// a cell gap in mm.
+    pub fn with_gap(gap: f64) -> Cell {
+        Cell {
+            gap,
+            birefringence: 0.15,
+            permittivity_parallel: 15.0,
+            permittivity_perpendicular: 5.0,
+            threshold: 1.5,
+            saturation: 2.2,
+            sheet_resistance: 50.0,
+            frame_rate: 64.0,
+            rc_limit: 0.02,
+            voltage: None,
+            wavelength_nm: 550.0,
+            viewing: Viewing::Bottom,
+        }
+    }
 }
 
 /// Drive scheme.

@@ -23,6 +23,7 @@ pub fn tiny_layout() -> Layout {
             backplane_overlap: 0.15,
             edge_clearance: 1.5,
             lead_width: 0.11,
+            registration: 0.0,
         },
         seal: Seal { width: 1.0, inset: 1.5, port_side: Side::Top, port_at: 15.0, port_width: 3.0 },
         transfer: Transfer { diameter: 0.8, pad: 1.2 },
@@ -48,6 +49,7 @@ pub fn tiny_layout() -> Layout {
         layers: LayerMap::defaults(),
         tolerance: 0.001,
         extra_fonts: vec![],
+        cell: Cell::with_gap(0.007),
         key_lines: BTreeMap::new(),
     }
 }

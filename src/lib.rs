@@ -20,12 +20,15 @@ pub mod electrode;
 pub mod emit;
 pub mod error;
 pub mod finding;
+pub mod firmware;
 pub mod geom;
 pub mod glyph;
 pub mod layout;
 pub mod pipeline;
+pub mod plan;
 pub mod plate;
 pub mod route;
+pub mod show;
 pub mod spec;
 
 pub use error::{Error, Result};

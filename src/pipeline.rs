@@ -14,8 +14,10 @@ pub struct Built {
     pub layout: Layout,
     /// The artwork of both plates.
     pub artwork: Artwork,
-    /// Generation and check findings together.
+    /// Generation, check and plan findings together.
     pub findings: Vec<Finding>,
+    /// The electrical and optical plan.
+    pub plan: crate::plan::Plan,
     /// Wall-clock time of each stage, in pipeline order.
     pub timings: Vec<(&'static str, std::time::Duration)>,
 }
@@ -48,9 +50,13 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     lap("route", &mut t);
     let artwork = crate::plate::build_artwork(&layout, &electrodes, &routes)?;
     lap("plate", &mut t);
+    let ex = crate::check::Extraction::extract(&artwork);
     let mut findings = artwork.generation_findings.clone();
-    findings.extend(crate::check::check_artwork(&artwork));
-    let findings = crate::check::causes::fold_opens_into_causes(findings);
+    findings.extend(crate::check::check_extracted(&artwork, &ex));
+    let mut findings = crate::check::causes::fold_opens_into_causes(findings);
     lap("check", &mut t);
-    Ok(Built { layout, artwork, findings, timings })
+    let plan = crate::plan::plan(&artwork, &ex);
+    findings.extend(crate::plan::findings(&artwork, &plan));
+    lap("plan", &mut t);
+    Ok(Built { layout, artwork, findings, plan, timings })
 }

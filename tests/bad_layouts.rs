@@ -94,6 +94,10 @@ const CASES: &[Case] = &[
         27,
         "there is no gauge `batery` (did you mean `battery`?) (allowed: a gauge of the fonts: battery, signal)",
     ),
+    Case("saturation-below-threshold", "mixture.saturation", 8, "saturation 2 V is not above threshold 2.5 V"),
+    Case("frame-rate-unit", "electrical.frame_rate", 8, "`64kHz` is not a number with a known unit (allowed: hertz"),
+    Case("wavelength-out-of-range", "optics.wavelength", 8, "5000 is outside the plausible range (allowed: a wavelength from 300nm"),
+    Case("negative-registration", "rules.registration", 8, "must not be negative"),
     Case(
         "gauge-parts-touch",
         "icons[0].stroke",

@@ -11,7 +11,7 @@ fn names(files: &[OutputFile]) -> Vec<&str> {
 }
 
 #[test]
-fn clean_build_gives_all_eight_files() {
+fn clean_build_gives_all_ten_files() {
     let files = render_outputs(&artwork(), &[warning()], &opts()).unwrap();
     assert_eq!(
         names(&files),
@@ -23,6 +23,8 @@ fn clean_build_gives_all_eight_files() {
             "fixture.pins.csv",
             "fixture.segmap.csv",
             "fixture.segmap.json",
+            "fixture.firmware.h",
+            "fixture.firmware.json",
             "fixture.report.json"
         ]
     );
@@ -32,11 +34,11 @@ fn clean_build_gives_all_eight_files() {
 fn errors_withhold_films_and_gdsii() {
     let findings = [warning(), error()];
     let files = render_outputs(&artwork(), &findings, &opts()).unwrap();
-    let always = ["preview.svg", "pins.csv", "segmap.csv", "segmap.json", "report.json"].map(|s| format!("fixture.{s}"));
+    let always = ["preview.svg", "pins.csv", "segmap.csv", "segmap.json", "firmware.h", "firmware.json", "report.json"].map(|s| format!("fixture.{s}"));
     assert_eq!(names(&files), always);
     let forced = EmitOptions { masks_despite_errors: true, ..opts() };
     let files = render_outputs(&artwork(), &findings, &forced).unwrap();
-    assert_eq!(files.len(), 8);
+    assert_eq!(files.len(), 10);
     // A film made despite errors says so on its face (stroke text, so look for the
     // title element instead): the title line count grows by one.
     let clean = render_outputs(&artwork(), &[], &opts()).unwrap();

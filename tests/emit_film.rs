@@ -88,7 +88,8 @@ fn check_inked(r: &Raster, glass: (f64, f64, f64, f64), want: f64, perimeter: f6
 fn page_is_exact_size_in_millimetres() {
     let r = rasterise(&film(&artwork(), "front.svg"), DPI);
     // W3C SVG / CSS: mm → px at the renderer's resolution is mm / 25.4 × dpi.
-    let (w, h) = (74.0f32 / 25.4 * DPI, 60.0f32 / 25.4 * DPI);
+    // 13 mm title + 30 mm glass + 23 mm ruler and notes.
+    let (w, h) = (74.0f32 / 25.4 * DPI, 66.0f32 / 25.4 * DPI);
     assert!((r.size.width() - w).abs() < 0.5 && (r.size.height() - h).abs() < 0.5, "{:?}", r.size);
 }
 

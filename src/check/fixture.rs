@@ -32,6 +32,7 @@ pub fn rules() -> Rules {
         backplane_overlap: 0.5,
         edge_clearance: 1.5,
         lead_width: 0.2,
+        registration: 0.0,
     }
 }
 
@@ -124,6 +125,8 @@ pub fn clean() -> Artwork {
         ],
         pins: vec![pin(1, "S1", 11.0), pin(2, "S2", 17.0), pin(3, "COM1", 29.0)],
         pixels: vec![pixel("S1", 10.0), pixel("S2", 16.0)],
+        digits: vec![],
+        cell: crate::layout::Cell::with_gap(0.007),
         transfer_dots: vec![TransferDot { at: pt(30.0, 8.25), dot }],
         lc_region: rect(3.0, 9.0, 37.0, 27.0),
         window: rect(6.0, 11.0, 34.0, 25.0),

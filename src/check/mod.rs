@@ -15,6 +15,7 @@ pub mod near;
 pub mod index;
 pub mod opens;
 pub mod pads;
+pub mod registration;
 pub mod shorts;
 pub mod width;
 
@@ -41,6 +42,7 @@ pub fn check_extracted(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     out.extend(pads::check_pads(art));
     out.extend(edge::check_edge(art, ex));
     out.extend(drive_truth::check_drive_truth(art, ex));
+    out.extend(registration::check_registration(art, ex));
     out
 }
 

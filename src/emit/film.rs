@@ -23,8 +23,8 @@ use crate::{Error, Result};
 const MARGIN: f64 = 12.0;
 /// Space above the glass for the title, mm.
 const TOP: f64 = 13.0;
-/// Space below the glass for the ruler and the side note, mm.
-const BOTTOM: f64 = 17.0;
+/// Space below the glass for the ruler, the side note and the cell's notes, mm.
+const BOTTOM: f64 = 23.0;
 /// Line width of the glass outline, mm.
 pub const OUTLINE: f64 = 0.1;
 /// Ink.
@@ -181,6 +181,12 @@ pub fn render_film(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> 
         let h = fit_height(line, 1.6, avail);
         let baseline = ruler_top + ruler::DEPTH + 3.0 + 2.8 * i as f64;
         doc = doc.add(page::text(line, TextPlace { left: MARGIN, baseline, height: h, mirrored: true }, BLACK));
+    }
+    // The cell the plates are for (gap, spacers, rubbing, polarizers), readable as printed.
+    for (i, line) in crate::plan::optics::note_lines(&art.cell).iter().enumerate() {
+        let h = fit_height(line, 1.6, avail);
+        let baseline = ruler_top + ruler::DEPTH + 3.0 + 2.8 * (2 + i) as f64;
+        doc = doc.add(page::text(line, TextPlace { left: MARGIN, baseline, height: h, mirrored: false }, BLACK));
     }
     Ok(page::bytes(&doc))
 }

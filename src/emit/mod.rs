@@ -10,6 +10,8 @@ mod csv;
 mod drive_info;
 mod files;
 mod film;
+pub mod firmware_c;
+mod firmware_json;
 pub mod gds;
 mod gdsii;
 mod page;
@@ -18,6 +20,7 @@ mod preview;
 mod report;
 mod ruler;
 pub mod segmap;
+pub mod show_svg;
 mod split;
 pub mod svg_path;
 pub mod text;
@@ -52,12 +55,25 @@ pub struct EmitOptions {
 
 /// Renders every output of a build, in this order: `NAME.front.svg`, `NAME.back.svg`,
 /// `NAME.preview.svg`, `NAME.gds`, `NAME.pins.csv`, `NAME.segmap.csv`,
-/// `NAME.segmap.json`, `NAME.report.json`.
+/// `NAME.segmap.json`, `NAME.firmware.h`, `NAME.firmware.json`, `NAME.report.json`.
 ///
 /// While any finding is an error and `masks_despite_errors` is off, the mask files
 /// (films and GDSII) are withheld and only preview, pin map, segment map and report are
 /// given.
+///
+/// The report's plan is worked out here from the artwork; [`render_outputs_planned`]
+/// takes one already made (the pipeline's).
 pub fn render_outputs(art: &Artwork, findings: &[Finding], opts: &EmitOptions) -> Result<Vec<OutputFile>> {
+    render_outputs_planned(art, findings, &crate::plan::plan_artwork(art), opts)
+}
+
+/// [`render_outputs`] with the plan already made.
+pub fn render_outputs_planned(
+    art: &Artwork,
+    findings: &[Finding],
+    plan: &crate::plan::Plan,
+    opts: &EmitOptions,
+) -> Result<Vec<OutputFile>> {
     let date = gds::parse_date(&opts.date).ok_or_else(|| bad_date(&opts.date))?;
     let errors = crate::finding::count(findings, Severity::Error);
     let masks = errors == 0 || opts.masks_despite_errors;
@@ -76,7 +92,9 @@ pub fn render_outputs(art: &Artwork, findings: &[Finding], opts: &EmitOptions) -
     let rows = segmap::segment_rows(art);
     out.push(file("segmap.csv", segmap::csv_of(&rows)));
     out.push(file("segmap.json", segmap::json_of(art, rows.clone())?));
-    out.push(file("report.json", report::render_report(art, findings, rows)?));
+    out.push(file("firmware.h", firmware_c::render_firmware_header(art)));
+    out.push(file("firmware.json", firmware_json::render_firmware_json(art)?));
+    out.push(file("report.json", report::render_report(art, findings, rows, plan)?));
     Ok(out)
 }
 
@@ -106,7 +124,7 @@ fn bad_date(date: &str) -> Error {
 
 /// The layout name made safe as a file-name stem: path separators, control characters
 /// and a leading dot are replaced by `_`.
-fn file_stem(name: &str) -> String {
+pub fn file_stem(name: &str) -> String {
     let s: String = name.chars().map(|c| if c == '/' || c == '\\' || c.is_control() { '_' } else { c }).collect();
     let s = s.trim().to_string();
     match s.strip_prefix('.') {

@@ -2,8 +2,8 @@
 //!
 //! Takes the artwork and the findings, gives pretty-printed JSON: the rules in effect,
 //! the layer map, every net with its pin and ITO area, every element with its COM and
-//! SEG (the segment map's rows), the drive summary, every finding, and the counts of
-//! errors and warnings. Keys end in their unit (`_mm`, `_mm2`).
+//! SEG (the segment map's rows), the drive summary, the electrical and optical plan,
+//! every finding, and the counts of errors and warnings. Keys end in their unit (`_mm`, `_mm2`).
 
 use super::drive_info::{DriveSummary, drive_summary};
 use super::segmap::SegmentRow;
@@ -22,6 +22,7 @@ struct Report<'a> {
     nets: Vec<NetRow<'a>>,
     segments: Vec<SegmentRow>,
     drive: DriveSummary,
+    plan: &'a crate::plan::Plan,
     findings: Vec<FindingRow<'a>>,
     summary: Summary,
 }
@@ -36,6 +37,7 @@ struct Rules {
     backplane_overlap_mm: f64,
     edge_clearance_mm: f64,
     lead_width_mm: f64,
+    registration_mm: f64,
 }
 
 #[derive(Serialize)]
@@ -102,6 +104,7 @@ fn rules(art: &Artwork) -> Rules {
         backplane_overlap_mm: r.backplane_overlap,
         edge_clearance_mm: r.edge_clearance,
         lead_width_mm: r.lead_width,
+        registration_mm: r.registration,
     }
 }
 
@@ -120,7 +123,8 @@ fn finding_row(f: &Finding) -> FindingRow<'_> {
 
 /// The report of an artwork and its findings, with the segment-map rows already made
 /// (`segmap::segment_rows`, which measures every pixel's coverage: made once per build).
-pub fn render_report(art: &Artwork, findings: &[Finding], segments: Vec<SegmentRow>) -> Result<Vec<u8>> {
+/// The plan (`crate::plan`) is written as it is, under `plan`.
+pub fn render_report(art: &Artwork, findings: &[Finding], segments: Vec<SegmentRow>, plan: &crate::plan::Plan) -> Result<Vec<u8>> {
     let layers = Layer::ALL
         .iter()
         .map(|&l| {
@@ -150,6 +154,7 @@ pub fn render_report(art: &Artwork, findings: &[Finding], segments: Vec<SegmentR
         nets,
         segments,
         drive: drive_summary(art),
+        plan,
         findings: findings.iter().map(finding_row).collect(),
         summary: Summary { errors: count(findings, Severity::Error), warnings: count(findings, Severity::Warning) },
     };

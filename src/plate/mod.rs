@@ -8,7 +8,7 @@
 mod marks;
 mod seal;
 
-use crate::artwork::{Artwork, Label, Layer, Net, NetKind, Pin, Pixel, Role, Shape, TransferDot};
+use crate::artwork::{Artwork, DigitSlot, Label, Layer, Net, NetKind, Pin, Pixel, Role, Shape, TransferDot};
 use crate::electrode::Electrodes;
 use crate::geom::{circle, difference, region_of, union_all, Polygon, Region};
 use crate::layout::{Layout, PlateId};
@@ -62,6 +62,8 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         nets: nets(el),
         pins: routes.pads.iter().map(|p| Pin { number: p.pin, net: p.net.clone(), pad: p.outline.clone() }).collect(),
         pixels: pixels(el),
+        digits: digit_slots(layout),
+        cell: layout.cell.clone(),
         transfer_dots: dots,
         lc_region: layout.glass.back.inset(layout.seal.inset + layout.seal.width).polygon(),
         window,
@@ -94,6 +96,27 @@ fn film_shapes(layout: &Layout, shapes: &[Shape]) -> Vec<Shape> {
     for ((layer, net), (role, polys)) in groups {
         let grown = crate::geom::offset_mitre(&union_all(polys), bias);
         out.extend(grown.0.into_iter().map(|p| Shape { layer, role, net: net.clone(), polygon: p }));
+    }
+    out
+}
+
+/// Every digit position of the layout with the elements of its segments, point and colon.
+fn digit_slots(layout: &Layout) -> Vec<DigitSlot> {
+    use crate::layout::{COLON, DECIMAL_POINT, segment_net};
+    let mut out = Vec::new();
+    for g in &layout.digits {
+        for d in 1..=g.count {
+            let names = crate::spec::digit_segments(g, d);
+            let el = |s: &str| names.contains(&s).then(|| segment_net(&g.name, d, s));
+            out.push(DigitSlot {
+                group: g.name.clone(),
+                position: d,
+                style: g.style,
+                segments: g.style.segment_names().iter().filter_map(|s| el(s).map(|e| (s.to_string(), e))).collect(),
+                point: el(DECIMAL_POINT),
+                colon: el(COLON),
+            });
+        }
     }
     out
 }

@@ -12,6 +12,7 @@
 
 mod bar_cells;
 mod bars;
+mod cell;
 mod elements;
 mod fit;
 mod gauges;
@@ -112,6 +113,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
         bars,
         buses,
         tolerance,
+        cell: cell::cell(p, raw, cell_gap),
         key_lines: p.lines().clone(),
     }
 }

@@ -30,6 +30,38 @@ pub struct RawLayout {
     pub buses: Option<Vec<RawBus>>,
     pub gds_layers: Option<Entries<OneOrList>>,
     pub fonts: Option<Vec<Scalar>>,
+    pub mixture: Option<RawMixture>,
+    pub electrical: Option<RawElectrical>,
+    pub optics: Option<RawOptics>,
+}
+
+/// `mixture:` — the liquid crystal's data-sheet values.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys birefringence, permittivity_parallel, permittivity_perpendicular, threshold and saturation")]
+pub struct RawMixture {
+    pub birefringence: Option<Scalar>,
+    pub permittivity_parallel: Option<Scalar>,
+    pub permittivity_perpendicular: Option<Scalar>,
+    pub threshold: Option<Scalar>,
+    pub saturation: Option<Scalar>,
+}
+
+/// `electrical:` — ITO and drive.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys sheet_resistance, frame_rate, rc_limit and voltage")]
+pub struct RawElectrical {
+    pub sheet_resistance: Option<Scalar>,
+    pub frame_rate: Option<Scalar>,
+    pub rc_limit: Option<Scalar>,
+    pub voltage: Option<Scalar>,
+}
+
+/// `optics:` — wavelength and viewing side.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys wavelength and viewing")]
+pub struct RawOptics {
+    pub wavelength: Option<Scalar>,
+    pub viewing: Option<Scalar>,
 }
 
 /// `glass:`.
@@ -70,6 +102,7 @@ pub struct RawRules {
     pub backplane_overlap: Option<Scalar>,
     pub edge_clearance: Option<Scalar>,
     pub lead_width: Option<Scalar>,
+    pub registration: Option<Scalar>,
 }
 
 /// `seal:`.

@@ -121,6 +121,7 @@ pub fn rules(p: &mut Problems, r: Option<&RawRules>) -> Rules {
     // A drawn lead etches to `drawn − 2·undercut` unless the film pre-compensates.
     let lead_default = if compensate { min_width } else { min_width + 2.0 * undercut };
     let lead_width = p.length(get(|r| &r.lead_width), "rules.lead_width", Some(lead_default), Sign::Positive);
+    let registration = p.length(get(|r| &r.registration), "rules.registration", Some(0.0), Sign::NonNegative);
     let rules = Rules {
         min_width,
         min_gap,
@@ -130,6 +131,7 @@ pub fn rules(p: &mut Problems, r: Option<&RawRules>) -> Rules {
         backplane_overlap,
         edge_clearance,
         lead_width,
+        registration,
     };
     if p.clean(&["rules"]) && rules.etched_width(lead_width) < min_width - 1e-9 {
         p.bad(

@@ -21,3 +21,30 @@ pub fn build_demo(name: &str) -> (tempfile::TempDir, PathBuf) {
     assert_eq!(o.status.code(), Some(0), "{name} must build clean:\n{}", String::from_utf8_lossy(&o.stderr));
     (dir, out)
 }
+
+/// The segment map `NAME.segmap.csv` of a build as element → column → value, read per
+/// RFC 4180 §2 (quoted fields may hold commas and doubled quotes), written here
+/// independently of segmask's writer.
+#[allow(dead_code)]
+pub fn segmap(out: &Path, name: &str) -> std::collections::BTreeMap<String, std::collections::BTreeMap<String, String>> {
+    let text = std::fs::read_to_string(out.join(format!("{name}.segmap.csv"))).unwrap();
+    let mut rows = text.lines().map(|l| {
+        let (mut cells, mut cell, mut quoted) = (vec![], String::new(), false);
+        let mut it = l.chars().peekable();
+        while let Some(c) = it.next() {
+            match (c, quoted) {
+                ('"', true) if it.peek() == Some(&'"') => {
+                    it.next();
+                    cell.push('"');
+                }
+                ('"', _) => quoted = !quoted,
+                (',', false) => cells.push(std::mem::take(&mut cell)),
+                _ => cell.push(c),
+            }
+        }
+        cells.push(cell);
+        cells
+    });
+    let header = rows.next().unwrap();
+    rows.map(|r| (r[0].clone(), header.iter().cloned().zip(r).collect())).collect()
+}

@@ -67,6 +67,7 @@ pub fn rules() -> Rules {
         backplane_overlap: 0.3,
         edge_clearance: 1.5,
         lead_width: 0.15,
+        registration: 0.0,
     }
 }
 
@@ -124,6 +125,8 @@ pub fn artwork() -> Artwork {
             com_net: "COM1".into(),
             region: geo::MultiPolygon(vec![seg]),
         }],
+        digits: vec![],
+        cell: segmask::layout::Cell::with_gap(0.007),
         transfer_dots: vec![TransferDot { at: pt(31.0, 9.5), dot }],
         lc_region: rect(7.0, 10.0, 33.0, 27.0),
         window: rect(8.0, 11.0, 32.0, 26.0),
