@@ -197,8 +197,9 @@ pub struct DigitSlot {
     pub segments: Vec<(String, String)>,
     /// Element of the decimal point after it, if any.
     pub point: Option<String>,
-    /// Element of the colon after it, if any.
-    pub colon: Option<String>,
+    /// Elements of the colon after it: none, one (static drive: both dots one element)
+    /// or two (multiplexed: upper dot, then lower dot).
+    pub colon: Vec<String>,
 }
 
 /// A non-ITO text placed on a film and as a GDSII TEXT (plate labels).

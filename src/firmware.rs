@@ -57,17 +57,18 @@ pub fn text_elements(art: &Artwork, text: &str) -> (Vec<String>, Vec<(usize, cha
     let mut on = Vec::new();
     let mut missed = Vec::new();
     let mut next = 0usize;
-    // What the last filled position still takes: its point, its colon.
-    let mut last: Option<(Option<&String>, Option<&String>)> = None;
+    // What the last filled position still takes: its point, its colon (one element, or
+    // two dots under multiplexed drive).
+    let mut last: Option<(Option<&String>, Option<&Vec<String>>)> = None;
     for (i, c) in text.chars().enumerate() {
         if let Some((point, colon)) = last.as_mut() {
-            let taken = match c {
-                '.' => point.take(),
-                ':' => colon.take(),
+            let taken: Option<Vec<String>> = match c {
+                '.' => point.take().map(|e| vec![e.clone()]),
+                ':' => colon.take().cloned(),
                 _ => None,
             };
             if let Some(e) = taken {
-                on.push(e.clone());
+                on.extend(e);
                 continue;
             }
         }
@@ -81,7 +82,7 @@ pub fn text_elements(art: &Artwork, text: &str) -> (Vec<String>, Vec<(usize, cha
             continue;
         };
         next += 1;
-        last = Some((slot.point.as_ref(), slot.colon.as_ref()));
+        last = Some((slot.point.as_ref(), (!slot.colon.is_empty()).then_some(&slot.colon)));
         match charset(slot.style).lookup(c).and_then(|segs| elements_of(slot, segs)) {
             Some(e) => on.extend(e),
             None => missed.push((i, c)),
@@ -102,7 +103,7 @@ mod tests {
             style: DigitStyle::Seven,
             segments: segs.iter().map(|s| (s.to_string(), format!("D{pos}.{s}"))).collect(),
             point: point.then(|| format!("D{pos}.dp")),
-            colon: colon.then(|| format!("D{pos}.col")),
+            colon: if colon { vec![format!("D{pos}.col")] } else { Vec::new() },
         }
     }
 

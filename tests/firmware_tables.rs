@@ -26,7 +26,9 @@ fn segmap(out: &Path, name: &str) -> BTreeMap<String, (u32, u32)> {
 }
 
 /// The bits a text lights by hand: digit i shows the i-th character (segments from the
-/// usual bytes), a `.` lights `{group}{i}.dp` when the segment map has it.
+/// usual bytes), a `.` lights `{group}{i}.dp` when the segment map has it, a `:` the
+/// colon after digit i (`col`, or its two dots `col_top` and `col_bottom` when
+/// multiplexed).
 fn expected(map: &BTreeMap<String, (u32, u32)>, group: &str, text: &str) -> BTreeSet<(u32, u32)> {
     let mut bits = BTreeSet::new();
     let mut pos = 0;
@@ -34,6 +36,14 @@ fn expected(map: &BTreeMap<String, (u32, u32)>, group: &str, text: &str) -> BTre
         if c == '.' {
             if let Some(b) = map.get(&format!("{group}{pos}.dp")) {
                 bits.insert(*b);
+            }
+            continue;
+        }
+        if c == ':' {
+            for s in ["col", "col_top", "col_bottom"] {
+                if let Some(b) = map.get(&format!("{group}{pos}.{s}")) {
+                    bits.insert(*b);
+                }
             }
             continue;
         }
@@ -138,3 +148,19 @@ fn c_header_sets_the_segment_map_bits() {
         assert_eq!(json["elements"].as_array().unwrap().len(), others, "{name}");
     }
 }
+
+/// The darkroom timer (1/4 duty) has a colon of two elements after digit 2, its dots on
+/// COM2 and COM3 of one SEG line: "12:34" through the compiled header sets both dots and
+/// the digits' segments, exactly as the segment map gives them; "1234" sets no dot.
+#[test]
+fn c_header_lights_both_dots_of_a_multiplexed_colon() {
+    let name = "darkroom-timer";
+    let (dir, out) = demo_build::build_demo(name);
+    let map = segmap(&out, name);
+    let runs = run_c(dir.path(), &out, name, &["12:34", "1234"]);
+    let dots = [map["T2.col_top"], map["T2.col_bottom"]];
+    assert_eq!(runs[0], (expected(&map, "T", "12:34"), 0));
+    assert!(dots.iter().all(|d| runs[0].0.contains(d)), "{:?}", runs[0]);
+    assert_eq!(runs[1].0, &runs[0].0 - &dots.into_iter().collect());
+}
+

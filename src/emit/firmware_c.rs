@@ -58,7 +58,7 @@ fn digit_row(art: &Artwork, d: &DigitSlot) -> String {
         style_number(d.style),
         segs.join(", "),
         bit_text(d.point.as_deref().and_then(|e| bit_of(art, e))),
-        bit_text(d.colon.as_deref().and_then(|e| bit_of(art, e)))
+        format!("{{{}}}", (0..2).map(|k| bit_text(d.colon.get(k).and_then(|e| bit_of(art, e)))).collect::<Vec<_>>().join(", "))
     )
 }
 
@@ -97,7 +97,7 @@ pub fn render_firmware_header(art: &Artwork) -> Vec<u8> {
          typedef struct {{ uint32_t code; uint16_t mask; }} {p}_char;\n\
          /* A digit position: style (0 seven, 1 fourteen, 2 sixteen), the bit of each segment in\n\
           \x20* the style's order, then its decimal point and its colon. */\n\
-         typedef struct {{ uint8_t style; {p}_bit seg[{MAX_SEGMENTS}]; {p}_bit point, colon; }} {p}_digit;\n\n",
+         typedef struct {{ uint8_t style; {p}_bit seg[{MAX_SEGMENTS}]; {p}_bit point; {p}_bit colon[2]; }} {p}_digit;\n\n",
         name = comment(&art.name),
     );
     let used: BTreeSet<usize> = art.digits.iter().map(|d| style_number(d.style)).collect();
@@ -116,7 +116,7 @@ pub fn render_firmware_header(art: &Artwork) -> Vec<u8> {
     let in_digits: BTreeSet<&str> = art
         .digits
         .iter()
-        .flat_map(|d| d.segments.iter().map(|(_, e)| e.as_str()).chain(d.point.as_deref()).chain(d.colon.as_deref()))
+        .flat_map(|d| d.segments.iter().map(|(_, e)| e.as_str()).chain(d.point.as_deref()).chain(d.colon.iter().map(String::as_str)))
         .collect();
     for px in art.pixels.iter().filter(|px| !in_digits.contains(px.element.as_str())) {
         let Some(b) = bit_of(art, &px.element) else { continue };
@@ -155,7 +155,8 @@ fn functions(p: &str, m: &str, used: &BTreeSet<usize>, has_digits: bool) -> Stri
          \x20   for (d = 0; d < {m}_DIGITS; d++) {{\n\
          \x20       for (s = 0; s < {MAX_SEGMENTS}; s++) {p}_set(frame, {p}_digits[d].seg[s], 0);\n\
          \x20       {p}_set(frame, {p}_digits[d].point, 0);\n\
-         \x20       {p}_set(frame, {p}_digits[d].colon, 0);\n\
+         \x20       {p}_set(frame, {p}_digits[d].colon[0], 0);\n\
+         \x20       {p}_set(frame, {p}_digits[d].colon[1], 0);\n\
          \x20   }}\n}}\n\n\
          /* The mask of a character in a style; -1 when the style has no such character. */\n\
          static inline long {p}_mask(int style, uint32_t code)\n{{\n\
@@ -194,7 +195,7 @@ fn functions(p: &str, m: &str, used: &BTreeSet<usize>, has_digits: bool) -> Stri
           \x20* characters not shown. Other elements are left as they are. */\n\
          static inline int {p}_show_text(uint8_t frame[][{m}_SEG_BYTES], const char *text)\n{{\n\
          \x20   const unsigned char *s = (const unsigned char *)text;\n\
-         \x20   {p}_bit point = {{0, 0}}, colon = {{0, 0}};\n\
+         \x20   {p}_bit point = {{0, 0}}, colon[2] = {{{{0, 0}}, {{0, 0}}}};\n\
          \x20   int next = 0, missed = 0;\n\
          \x20   {p}_clear_digits(frame);\n\
          \x20   while (*s) {{\n\
@@ -207,10 +208,15 @@ fn functions(p: &str, m: &str, used: &BTreeSet<usize>, has_digits: bool) -> Stri
          \x20           s += 2;\n\
          \x20       }}\n\
          \x20       if (c == '.' || c == ':') {{\n\
-         \x20           {p}_bit *b = c == '.' ? &point : &colon;\n\
+         \x20           /* A colon is one element, or two dots under multiplexed drive. */\n\
+         \x20           {p}_bit *b = c == '.' ? &point : &colon[0];\n\
          \x20           if (b->com != 0) {{\n\
          \x20               {p}_set(frame, *b, 1);\n\
          \x20               b->com = 0;\n\
+         \x20               if (c == ':' && colon[1].com != 0) {{\n\
+         \x20                   {p}_set(frame, colon[1], 1);\n\
+         \x20                   colon[1].com = 0;\n\
+         \x20               }}\n\
          \x20           }} else {{\n\
          \x20               missed++;\n\
          \x20           }}\n\
@@ -221,7 +227,8 @@ fn functions(p: &str, m: &str, used: &BTreeSet<usize>, has_digits: bool) -> Stri
          \x20           continue;\n\
          \x20       }}\n\
          \x20       point = {p}_digits[next].point;\n\
-         \x20       colon = {p}_digits[next].colon;\n\
+         \x20       colon[0] = {p}_digits[next].colon[0];\n\
+         \x20       colon[1] = {p}_digits[next].colon[1];\n\
          \x20       missed += {p}_put(frame, next, c);\n\
          \x20       next++;\n\
          \x20   }}\n\

@@ -30,7 +30,9 @@ struct Digit<'a> {
     style: &'static str,
     segments: Vec<Segment<'a>>,
     point: Option<[u32; 2]>,
-    colon: Option<[u32; 2]>,
+    /// The colon's bits: one (static drive) or two (multiplexed: upper dot, lower dot);
+    /// empty without a colon.
+    colon: Vec<[u32; 2]>,
     characters: Vec<Character>,
 }
 
@@ -70,7 +72,7 @@ pub fn render_firmware_json(art: &Artwork) -> Result<Vec<u8>> {
             style: d.style.name(),
             segments: d.segments.iter().map(|(s, e)| Segment { segment: s, element: e, bit: bit(e) }).collect(),
             point: d.point.as_deref().and_then(bit),
-            colon: d.colon.as_deref().and_then(bit),
+            colon: d.colon.iter().filter_map(|e| bit(e)).collect(),
             characters: characters(d)
                 .into_iter()
                 .map(|(c, els)| {
@@ -83,7 +85,7 @@ pub fn render_firmware_json(art: &Artwork) -> Result<Vec<u8>> {
         .collect();
     let in_digits = |name: &str| {
         art.digits.iter().any(|d| {
-            d.segments.iter().any(|(_, e)| e == name) || d.point.as_deref() == Some(name) || d.colon.as_deref() == Some(name)
+            d.segments.iter().any(|(_, e)| e == name) || d.point.as_deref() == Some(name) || d.colon.iter().any(|e| e == name)
         })
     };
     let elements = art

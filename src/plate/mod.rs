@@ -102,11 +102,11 @@ fn film_shapes(layout: &Layout, shapes: &[Shape]) -> Vec<Shape> {
 
 /// Every digit position of the layout with the elements of its segments, point and colon.
 fn digit_slots(layout: &Layout) -> Vec<DigitSlot> {
-    use crate::layout::{COLON, DECIMAL_POINT, segment_net};
+    use crate::layout::{COLON, COLON_DOTS, DECIMAL_POINT, segment_net};
     let mut out = Vec::new();
     for g in &layout.digits {
         for d in 1..=g.count {
-            let names = crate::spec::digit_segments(g, d);
+            let names = crate::spec::digit_segments(g, d, layout.drive.commons > 1);
             let el = |s: &str| names.contains(&s).then(|| segment_net(&g.name, d, s));
             out.push(DigitSlot {
                 group: g.name.clone(),
@@ -114,7 +114,7 @@ fn digit_slots(layout: &Layout) -> Vec<DigitSlot> {
                 style: g.style,
                 segments: g.style.segment_names().iter().filter_map(|s| el(s).map(|e| (s.to_string(), e))).collect(),
                 point: el(DECIMAL_POINT),
-                colon: el(COLON),
+                colon: std::iter::once(COLON).chain(COLON_DOTS).filter_map(el).collect(),
             });
         }
     }
