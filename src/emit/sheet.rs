@@ -90,7 +90,7 @@ pub fn sheet_pages(films: &[Drawing], sheet: Sheet, copies: u32, name: &str) -> 
         .iter()
         .enumerate()
         .map(|(i, &(w, h))| {
-            let line = format!("{name} FILMS - PRINT AT 100 % (ACTUAL SIZE), NO SCALING - CUT ON THE MARKS - PAGE {} OF {n}", i + 1);
+            let line = format!("{name} FILMS - PRINT AT 100 PERCENT (ACTUAL SIZE), NO SCALING - CUT ON THE MARKS - PAGE {} OF {n}", i + 1);
             let height = fit_height(&line, 2.0, w - 2.0 * SHEET_MARGIN);
             let at = TextPlace { left: SHEET_MARGIN, baseline: SHEET_MARGIN + 2.5, height, mirrored: false };
             let items = vec![Item::Stroke { lines: text_lines(&line, at), width: stroke_width(height), paint: Paint::Ink }];
