@@ -11,7 +11,7 @@
 
 use crate::finding::Finding;
 use crate::geom::{Polygon, Pt, Region};
-use crate::layout::{Cell, DigitStyle, Drive, LayerMap, PlateId, Resist, Rules};
+use crate::layout::{Cell, DigitStyle, Drive, LayerMap, MaskOptions, PlateId, Resist, Rules};
 
 /// A drawn layer. ITO and mark layers belong to one plate; the seal, transfer dots and
 /// window lie between the plates.
@@ -255,6 +255,9 @@ pub struct Artwork {
     pub resist: Resist,
     /// Drive scheme the nets were assigned for (static, or 1/N duty with its bias).
     pub drive: Drive,
+    /// How the mask files are made (process, mirroring of Gerber and GDSII masks, print
+    /// sheet).
+    pub masks: MaskOptions,
     /// The etched layers as the films carry them when the rules ask for etch
     /// compensation: each net's ITO grown by the undercut. Empty when films carry the
     /// drawn shapes.

@@ -31,6 +31,8 @@ pub struct Layout {
     pub resist: Resist,
     /// Process and design rules.
     pub rules: Rules,
+    /// How the mask files are made.
+    pub masks: MaskOptions,
     /// Seal ring and fill port.
     pub seal: Seal,
     /// Transfer dots joining back-plate leads to front-plate pads.
@@ -702,5 +704,98 @@ mod rules_tests {
         assert!((r.grid_step() - 0.025).abs() < 1e-12);
         assert!((r.passing_gap(false) - 0.21).abs() < 1e-12);
         assert!((r.passing_gap(true) - 0.31).abs() < 1e-12);
+    }
+}
+
+/// How the masks are made: decides the smallest line and space the mask itself holds
+/// (`rules.film_min_feature` may not go below it) and the rules a layout gets when it
+/// does not write them (docs/background.md, *Films, photoplots and chrome*).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Process {
+    /// A laser or inkjet printer on transparency film.
+    LaserFilm,
+    /// A film written by a laser photoplotter.
+    PhotoplotFilm,
+    /// Chrome on glass written by a mask shop.
+    Chrome,
+}
+
+impl Process {
+    /// Every process with its name as written in layouts.
+    pub const ALL: [(&'static str, Process); 3] =
+        [("laser-film", Process::LaserFilm), ("photoplot-film", Process::PhotoplotFilm), ("chrome", Process::Chrome)];
+
+    /// Name as written in layouts.
+    pub fn name(self) -> &'static str {
+        Process::ALL.iter().find(|(_, p)| *p == self).map(|(n, _)| *n).unwrap_or("photoplot-film")
+    }
+
+    /// Smallest line or space this process holds reliably on the mask, mm (*common
+    /// practice*: laser transparency about 0.10–0.15 mm, photoplotted film about 30 µm;
+    /// chrome a few µm, *from memory*). The default of `rules.film_min_feature`.
+    pub fn mask_limit(self) -> f64 {
+        match self {
+            Process::LaserFilm => 0.15,
+            Process::PhotoplotFilm => 0.03,
+            Process::Chrome => 0.002,
+        }
+    }
+
+    /// Suggested `(min_width, min_gap)` when the layout writes none: the mask limit kept
+    /// with room for the wet etch. Photoplotted film and chrome keep segmask's long-standing
+    /// defaults (the ITO etch, not the mask, limits them); laser film widens both to
+    /// what it holds.
+    pub fn suggested_rules(self) -> (f64, f64) {
+        match self {
+            Process::LaserFilm => (0.15, 0.15),
+            Process::PhotoplotFilm | Process::Chrome => (0.1, 0.05),
+        }
+    }
+}
+
+/// A sheet size for the printable sheet of films.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Sheet {
+    /// ISO 216 A4, 210 × 297 mm.
+    A4,
+    /// US Letter, 8.5 × 11 in (215.9 × 279.4 mm).
+    Letter,
+}
+
+impl Sheet {
+    /// Width and height, mm (portrait).
+    pub fn size(self) -> (f64, f64) {
+        match self {
+            Sheet::A4 => (210.0, 297.0),
+            Sheet::Letter => (215.9, 279.4),
+        }
+    }
+
+    /// Name as written in layouts.
+    pub fn name(self) -> &'static str {
+        match self {
+            Sheet::A4 => "a4",
+            Sheet::Letter => "letter",
+        }
+    }
+}
+
+/// How the mask files are made (`masks:` in the layout).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct MaskOptions {
+    /// The process the masks are made with.
+    pub process: Process,
+    /// Whether Gerber files and the GDSII mask structures carry each plate the way contact
+    /// printing needs it (the back plate mirrored), like the films always do.
+    pub mirror: bool,
+    /// Sheet size of the printable sheet of films.
+    pub sheet: Sheet,
+    /// Copies of each plate's film on the printable sheet.
+    pub copies: u32,
+}
+
+impl Default for MaskOptions {
+    fn default() -> Self {
+        MaskOptions { process: Process::PhotoplotFilm, mirror: true, sheet: Sheet::A4, copies: 1 }
     }
 }

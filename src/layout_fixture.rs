@@ -14,6 +14,7 @@ pub fn tiny_layout() -> Layout {
         window: Rect { x: 4.0, y: 8.0, width: 22.0, height: 12.0 },
         cell_gap: 0.007,
         resist: Resist::Positive,
+        masks: crate::layout::MaskOptions::default(),
         rules: Rules {
             min_width: 0.1,
             min_gap: 0.05,

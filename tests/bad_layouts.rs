@@ -58,6 +58,8 @@ const CASES: &[Case] = &[
     Case("fill-port-in-corner", "seal.fill_port.at", 8, "runs into the corner of the seal"),
     Case("bad-drive", "drive.duty", 13, "duty `1/5` not supported"),
     Case("bad-bias", "drive.bias", 13, "bias 1/2 with duty 1/4"),
+    Case("film-below-process", "rules.film_min_feature", 14, "0.05 mm is finer than laser-film holds reliably"),
+    Case("unknown-process", "masks.process", 13, "`inkjet-film`"),
     Case("fixed-com-beyond-duty", "drive.fixed.D1.b.com", 16, "COM5 does not exist at duty 1/4"),
     Case("fixed-unknown-element", "drive.fixed.D9.a", 16, "unknown element `D9.a` (did you mean `D1.a`?)"),
     Case("unknown-gds-layer", "gds_layers.front_itto", 29, "unknown layer `front_itto` (did you mean `front_ito`?)"),

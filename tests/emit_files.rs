@@ -11,15 +11,21 @@ fn names(files: &[OutputFile]) -> Vec<&str> {
 }
 
 #[test]
-fn clean_build_gives_all_ten_files() {
+fn clean_build_gives_every_file() {
     let files = render_outputs(&artwork(), &[warning()], &opts()).unwrap();
     assert_eq!(
         names(&files),
         [
             "fixture.front.svg",
             "fixture.back.svg",
+            "fixture.films.pdf",
+            "fixture.sheet.pdf",
+            "fixture.front.gbr",
+            "fixture.back.gbr",
             "fixture.preview.svg",
             "fixture.gds",
+            "fixture.masks.json",
+            "fixture.masks.txt",
             "fixture.pins.csv",
             "fixture.segmap.csv",
             "fixture.segmap.json",
@@ -31,14 +37,14 @@ fn clean_build_gives_all_ten_files() {
 }
 
 #[test]
-fn errors_withhold_films_and_gdsii() {
+fn errors_withhold_every_mask_file() {
     let findings = [warning(), error()];
     let files = render_outputs(&artwork(), &findings, &opts()).unwrap();
     let always = ["preview.svg", "pins.csv", "segmap.csv", "segmap.json", "firmware.h", "firmware.json", "report.json"].map(|s| format!("fixture.{s}"));
     assert_eq!(names(&files), always);
     let forced = EmitOptions { masks_despite_errors: true, ..opts() };
     let files = render_outputs(&artwork(), &findings, &forced).unwrap();
-    assert_eq!(files.len(), 10);
+    assert_eq!(files.len(), 16);
     // A film made despite errors says so on its face (stroke text, so look for the
     // title element instead): the title line count grows by one.
     let clean = render_outputs(&artwork(), &[], &opts()).unwrap();

@@ -4,8 +4,8 @@
 //! Units: W3C SVG and CSS Values and Units — 1 in = 25.4 mm = 96 px; a renderer set to
 //! 2400 dpi makes `width="74mm"` 74 / 25.4 × 2400 px wide. Page layout as documented in
 //! docs/outputs.md: page width = max(glass width, ruler length ≥ 50 mm) + 2 × 12 mm, the
-//! glass centred across it and 13 mm below the top edge, the ruler zero 12 mm from the
-//! left edge and 3 mm below the glass.
+//! glass centred across it and 16 mm below the top edge, the ruler zero 12 mm from the
+//! left edge and 4.5 mm below the glass.
 
 mod emit_fixture;
 
@@ -19,7 +19,7 @@ const DPI: f32 = 2400.0;
 
 /// Page position of the fixture glass: left edge and top edge, mm (docs/outputs.md).
 const GLASS_LEFT: f64 = 12.0 + (50.0 - 40.0) / 2.0;
-const GLASS_TOP: f64 = 13.0;
+const GLASS_TOP: f64 = 16.0;
 
 struct Raster {
     size: usvg::Size,
@@ -88,8 +88,8 @@ fn check_inked(r: &Raster, glass: (f64, f64, f64, f64), want: f64, perimeter: f6
 fn page_is_exact_size_in_millimetres() {
     let r = rasterise(&film(&artwork(), "front.svg"), DPI);
     // W3C SVG / CSS: mm → px at the renderer's resolution is mm / 25.4 × dpi.
-    // 13 mm title + 30 mm glass + 23 mm ruler and notes.
-    let (w, h) = (74.0f32 / 25.4 * DPI, 66.0f32 / 25.4 * DPI);
+    // Height: 16 mm + glass 30 mm + 52.3 mm below it (docs/outputs.md, *Page layout*).
+    let (w, h) = (74.0f32 / 25.4 * DPI, 98.3f32 / 25.4 * DPI);
     assert!((r.size.width() - w).abs() < 0.5 && (r.size.height() - h).abs() < 0.5, "{:?}", r.size);
 }
 
@@ -153,7 +153,7 @@ fn back_film_is_mirrored_and_front_is_not() {
 #[test]
 fn ruler_ticks_are_one_millimetre_apart() {
     let r = rasterise(&film(&artwork(), "front.svg"), DPI);
-    let row = ((GLASS_TOP + 30.0 + 3.0 + 0.5) * r.px_per_mm) as u32;
+    let row = ((GLASS_TOP + 30.0 + 4.5 + 0.5) * r.px_per_mm) as u32;
     let mut centres = Vec::new();
     let mut start = None;
     for x in 0..r.pixmap.width() {
@@ -166,8 +166,105 @@ fn ruler_ticks_are_one_millimetre_apart() {
             _ => {}
         }
     }
+    // The vertical ruler's base line, 7.5 mm from the page edge, crosses this row too.
+    centres.retain(|&c| c > 10.0);
     assert_eq!(centres.len(), 51, "{centres:?}");
     for (i, c) in centres.iter().enumerate() {
         assert!((c - (12.0 + i as f64)).abs() < 1.0 / r.px_per_mm + 1e-9, "tick {i} at {c} mm");
     }
+}
+
+/// The vertical ruler has a tick every millimetre too: a column through its short ticks
+/// (base line 7.5 mm from the left page edge, ticks 1 mm long to its left) meets 51
+/// ticks, the first at the glass top, each within a pixel of its place.
+#[test]
+fn vertical_ruler_ticks_are_one_millimetre_apart() {
+    let r = rasterise(&film(&artwork(), "front.svg"), DPI);
+    let col = ((7.5 - 0.5) * r.px_per_mm) as u32;
+    let mut centres = Vec::new();
+    let mut start = None;
+    for y in 0..r.pixmap.height() {
+        match (r.ink(col, y) > 0.5, start) {
+            (true, None) => start = Some(y),
+            (false, Some(s)) => {
+                centres.push(((s + y - 1) as f64 / 2.0 + 0.5) / r.px_per_mm);
+                start = None;
+            }
+            _ => {}
+        }
+    }
+    assert_eq!(centres.len(), 51, "{centres:?}");
+    for (i, c) in centres.iter().enumerate() {
+        assert!((c - (GLASS_TOP + i as f64)).abs() < 1.0 / r.px_per_mm + 1e-9, "tick {i} at {c} mm");
+    }
+}
+
+/// Ink in a page rectangle that is not ITO of the given layers there, mm², and the
+/// one-pixel band allowed around the ITO edges in it.
+fn extra_ink(r: &Raster, art: &Artwork, layers: &[Layer], page: (f64, f64, f64, f64), glass_top_y: f64) -> (f64, f64) {
+    use geo::{Area, BooleanOps, Euclidean, Length};
+    let (x0, y0, x1, y1) = page;
+    let got = r.inked_area(x0, y0, x1, y1);
+    // page → artwork (front film unmirrored): x − GLASS_LEFT, glass_top_y − (y − GLASS_TOP)
+    let clip = geo::MultiPolygon(vec![segmask::geom::rect(
+        x0 - GLASS_LEFT,
+        glass_top_y - (y1 - GLASS_TOP),
+        x1 - GLASS_LEFT,
+        glass_top_y - (y0 - GLASS_TOP),
+    )]);
+    let (mut want, mut band) = (0.0, 0.0);
+    for l in layers {
+        for s in art.on_layer(*l) {
+            let part = geo::MultiPolygon(vec![s.polygon.clone()]).intersection(&clip);
+            want += part.unsigned_area();
+            band += part.0.iter().map(|p| Euclidean.length(p.exterior())).sum::<f64>();
+        }
+    }
+    (got - want, (band + 2.0 * (x1 - x0 + y1 - y0)) / r.px_per_mm)
+}
+
+/// docs/outputs.md, *Films*: on a clear-field film nothing but ITO is inked on the glass
+/// or within 0.8 mm outside it — no outline on the glass edge (ink there would leave an
+/// ITO line along the edge, inside the edge clearance); the glass is marked by corner
+/// marks that start 1 mm beyond each corner. Checked on bands 1.5 mm (the fixture's
+/// edge clearance) inside and 0.8 mm outside each glass edge of the front film.
+#[test]
+fn clear_field_has_no_ink_at_the_glass_edge_but_ito() {
+    let art = unlabelled(Resist::Positive);
+    let layers = [Layer::FrontIto, Layer::FrontMarks];
+    let r = rasterise(&film(&art, "front.svg"), DPI);
+    let (l, t, w, h) = (GLASS_LEFT, GLASS_TOP, 40.0, 30.0);
+    let (inside, outside) = (1.5, 0.8);
+    let bands = [
+        (l - outside, t - outside, l + w + outside, t + inside),
+        (l - outside, t + h - inside, l + w + outside, t + h + outside),
+        (l - outside, t + inside, l + inside, t + h - inside),
+        (l + w - inside, t + inside, l + w + outside, t + h - inside),
+    ];
+    for b in bands {
+        let (extra, tol) = extra_ink(&r, &art, &layers, b, 30.0);
+        assert!(extra.abs() <= tol, "band {b:?}: {extra:.4} mm² of ink that is not ITO (allowed {tol:.4})");
+    }
+    // The corner marks are there: ink on the line continuing the top edge, 1.75 mm left
+    // of the top-left corner.
+    assert!(r.ink_at(l - 1.75, t) > 0.5, "no corner mark");
+}
+
+/// docs/outputs.md, *Tone*: a dark-field film is black a margin past the glass (here
+/// halfway into the 3 mm margin, all round), and the plate label prints clear inside the
+/// dark, so it stays readable (the fixture's label "B1" is on the back plate at (36, 27),
+/// printed mirrored like the back plate).
+#[test]
+fn dark_field_reaches_past_the_glass_and_keeps_the_label() {
+    let art = Artwork { resist: Resist::Negative, ..artwork() };
+    let r = rasterise(&film(&art, "back.svg"), 600.0);
+    let (l, t, w, h) = (GLASS_LEFT, GLASS_TOP, 40.0, 24.0);
+    for (x, y) in [(l + w / 2.0, t - 1.5), (l + w / 2.0, t + h + 1.5), (l - 1.5, t + h / 2.0), (l + w + 1.5, t + h / 2.0)] {
+        assert!(r.ink_at(x, y) > 0.9, "no dark field at ({x}, {y})");
+    }
+    let label = &art.labels[0];
+    let wl = segmask::emit::text::text_width(&label.text, label.height);
+    let (lx, ly) = (GLASS_LEFT + (40.0 - label.at.x - wl), GLASS_TOP + (30.0 - label.at.y));
+    let dark = r.inked_area(lx, ly - label.height, lx + wl, ly) / (wl * label.height);
+    assert!(dark > 0.3 && dark < 0.95, "label box {dark:.2} dark: the label is not printed clear in the field");
 }

@@ -69,9 +69,18 @@ const STRING: u16 = 0x1906;
 
 /// Boundaries as (layer, ring of integer points).
 fn boundaries(recs: &[Record]) -> Vec<(i16, Vec<(i32, i32)>)> {
+    boundaries_in(recs, None)
+}
+
+/// Boundaries of one structure (or of all), as (layer, ring of integer points).
+fn boundaries_in(recs: &[Record], structure: Option<&str>) -> Vec<(i16, Vec<(i32, i32)>)> {
     let mut out = Vec::new();
+    let mut current = String::new();
     for (i, r) in recs.iter().enumerate() {
-        if r.code == BOUNDARY {
+        if r.code == STRNAME {
+            current = string(&r.data);
+        }
+        if r.code == BOUNDARY && structure.is_none_or(|s| s == current) {
             let layer = recs[i + 1..].iter().find(|r| r.code == LAYER).map(|r| i16s(&r.data)[0]).unwrap();
             let xy = recs[i + 1..].iter().find(|r| r.code == XY).map(|r| i32s(&r.data)).unwrap();
             out.push((layer, xy.chunks(2).map(|c| (c[0], c[1])).collect()));
@@ -119,7 +128,7 @@ fn header_library_and_units_follow_release_6() {
     assert_eq!(recs.last().unwrap().code, ENDLIB);
     let names: Vec<String> =
         recs.windows(2).filter(|w| w[0].code == BGNSTR && w[1].code == STRNAME).map(|w| string(&w[1].data)).collect();
-    assert_eq!(names, ["FRONT", "BACK", "CELL", "TOP"]);
+    assert_eq!(names, ["FRONT", "BACK", "CELL", "TOP", "FRONT_MASK", "BACK_MASK"]);
 }
 
 #[test]
@@ -148,7 +157,7 @@ fn output_is_byte_identical_between_runs() {
 fn hole_is_split_keeping_area_exactly() {
     let recs = records(&gds());
     let (back_ito, _) = artwork().gds_layer(Layer::BackIto);
-    let pieces: Vec<_> = boundaries(&recs).into_iter().filter(|(l, _)| *l == back_ito).collect();
+    let pieces: Vec<_> = boundaries_in(&recs, Some("BACK")).into_iter().filter(|(l, _)| *l == back_ito).collect();
     let got: i128 = pieces
         .iter()
         .map(|(_, r)| shoelace2(&r.iter().map(|&(x, y)| (x as i64, y as i64)).collect::<Vec<_>>()).abs())
@@ -191,4 +200,36 @@ fn net_names_sit_on_their_ito() {
         assert!(on, "{net} at {at:?}");
     }
     assert!(texts.iter().any(|t| t.0 == "B1"));
+}
+
+/// The back plate's mask structure holds only its ITO layer (ITO and marks) and its
+/// glass layer; its ITO is the back ITO and marks mirrored about the glass centre
+/// (x → 40 mm − x, docs/outputs.md, *Which way round*), area kept to the square
+/// nanometre: the ring at x 8–20 mm lies at 20–32 mm.
+#[test]
+fn back_mask_is_mirrored_ito_and_marks_only() {
+    let recs = records(&gds());
+    let art = artwork();
+    let (back_ito, _) = art.gds_layer(Layer::BackIto);
+    let (back_glass, _) = art.gds_layer(Layer::BackGlass);
+    let mask = boundaries_in(&recs, Some("BACK_MASK"));
+    assert!(mask.iter().all(|(l, _)| *l == back_ito || *l == back_glass), "other layers in BACK_MASK");
+    let area = |rings: &[(i16, Vec<(i32, i32)>)]| -> i128 {
+        rings.iter().map(|(_, r)| shoelace2(&r.iter().map(|&(x, y)| (x as i64, y as i64)).collect::<Vec<_>>()).abs()).sum()
+    };
+    let ito: Vec<_> = mask.iter().filter(|(l, _)| *l == back_ito).cloned().collect();
+    let (marks, _) = art.gds_layer(Layer::BackMarks);
+    let drawn: Vec<_> = boundaries_in(&recs, Some("BACK")).into_iter().filter(|(l, _)| *l == back_ito || *l == marks).collect();
+    assert_eq!(area(&ito), area(&drawn));
+    let xs: Vec<i32> = ito.iter().flat_map(|(_, r)| r.iter().map(|p| p.0)).collect();
+    // The ring's edges 8, 20 and its hole's 12, 16 mirror to 32, 20, 28, 24; no mirrored
+    // back shape has an edge at 12 or 16.
+    for x in [32_000_000, 28_000_000, 24_000_000] {
+        assert!(xs.contains(&x), "ring not mirrored: no edge at {x} nm");
+    }
+    assert!(!xs.contains(&12_000_000) && !xs.contains(&16_000_000), "unmirrored ring in BACK_MASK");
+    // The front mask is not mirrored: the segment square stays at x 10–18 mm.
+    let (front_ito, _) = art.gds_layer(Layer::FrontIto);
+    let fx: Vec<i32> = boundaries_in(&recs, Some("FRONT_MASK")).iter().filter(|(l, _)| *l == front_ito).flat_map(|(_, r)| r.iter().map(|p| p.0).collect::<Vec<_>>()).collect();
+    assert!(fx.contains(&10_000_000) && fx.contains(&18_000_000));
 }

@@ -1,7 +1,8 @@
-//! Reference tests: every demo layout is built by the real binary and its GDSII is read
-//! back by independent libraries from PyPI — gdstk (GDSII reader) and shapely (GEOS) —
-//! installed by this test into a virtual environment under `target/`. The test fails,
-//! never skips, when Python or the packages cannot be set up.
+//! Reference tests: every demo layout is built by the real binary (once per run, shared
+//! by the tests here) and its GDSII, Gerber and PDF files are read back by independent
+//! libraries from PyPI — gdstk (GDSII reader), shapely (GEOS), gerbonara (Gerber reader)
+//! and pypdf (PDF reader) — installed by this test into a virtual environment under
+//! `target/`. The test fails, never skips, when Python or the packages cannot be set up.
 
 mod demo_build;
 
@@ -37,15 +38,32 @@ fn python() -> &'static Path {
     })
 }
 
-fn build_demo(name: &str) -> (tempfile::TempDir, PathBuf, PathBuf) {
-    let (dir, out) = demo_build::build_demo(name);
-    let gds = out.join(format!("{name}.gds"));
-    let report = out.join(format!("{name}.report.json"));
-    (dir, gds, report)
+/// One build: the folder (kept while the run lasts), its output folder and the name.
+struct Build {
+    _dir: tempfile::TempDir,
+    out: PathBuf,
+    name: String,
 }
 
-fn run_py(script: &str, gds: &Path, report: &Path) {
-    let o = Command::new(python()).arg(root().join("tests/reference").join(script)).arg(gds).arg(report).output().unwrap();
+/// Every demo, and the negative-resist mask fixture, built once for all tests here.
+fn builds() -> &'static [Build] {
+    static BUILDS: OnceLock<Vec<Build>> = OnceLock::new();
+    BUILDS.get_or_init(|| {
+        let mut v: Vec<Build> = demos()
+            .into_iter()
+            .map(|d| {
+                let (dir, out) = demo_build::build_demo(&d);
+                Build { _dir: dir, out, name: d }
+            })
+            .collect();
+        let (dir, out) = demo_build::build_layout(&root().join("tests/fixtures/masks/etch-negative.yaml"), "etch-negative");
+        v.push(Build { _dir: dir, out, name: "etch-negative".into() });
+        v
+    })
+}
+
+fn run_py(script: &str, args: &[&Path]) {
+    let o = Command::new(python()).arg(root().join("tests/reference").join(script)).args(args).output().unwrap();
     let text = String::from_utf8_lossy(&o.stdout);
     println!("{text}{}", String::from_utf8_lossy(&o.stderr));
     assert!(o.status.success(), "{script} failed:\n{text}{}", String::from_utf8_lossy(&o.stderr));
@@ -68,9 +86,9 @@ fn demos() -> Vec<String> {
 /// areas equal to the report's (GDSII Stream Format Manual 6.0, via gdstk).
 #[test]
 fn gdstk_reads_every_demo() {
-    for d in demos() {
-        let (_dir, gds, report) = build_demo(&d);
-        run_py("check_gds.py", &gds, &report);
+    for b in builds() {
+        let (gds, report) = (b.out.join(format!("{}.gds", b.name)), b.out.join(format!("{}.report.json", b.name)));
+        run_py("check_gds.py", &[&gds, &report]);
     }
 }
 
@@ -78,8 +96,21 @@ fn gdstk_reads_every_demo() {
 /// on each plate of every demo.
 #[test]
 fn shapely_confirms_gaps_in_every_demo() {
-    for d in demos() {
-        let (_dir, gds, report) = build_demo(&d);
-        run_py("check_gaps.py", &gds, &report);
+    for b in builds() {
+        let (gds, report) = (b.out.join(format!("{}.gds", b.name)), b.out.join(format!("{}.report.json", b.name)));
+        run_py("check_gaps.py", &[&gds, &report]);
+    }
+}
+
+/// gerbonara reads each plate's Gerber file (Gerber Layer Format Specification 2022.02)
+/// and its dark area equals the ITO of the GDSII mask structure (gdstk) within 0.1 %
+/// (the field minus it on dark-field files); the mask structures are the drawn ITO
+/// mirrored and compensated as the mask order says; pypdf reads films.pdf with pages of
+/// the SVG films' size (ISO 32000-1 MediaBox) and the same path points. Covers both
+/// tones, compensation on and off, mirroring on and off (tests/reference/check_masks.py).
+#[test]
+fn mask_files_agree_with_each_other_in_every_demo() {
+    for b in builds() {
+        run_py("check_masks.py", &[&b.out, Path::new(&b.name)]);
     }
 }

@@ -136,6 +136,7 @@ pub fn clean() -> Artwork {
         labels: vec![],
         rules: rules(),
         resist: crate::layout::Resist::Positive,
+        masks: crate::layout::MaskOptions::default(),
         drive: crate::layout::Drive { commons: 1, bias: None },
         film_shapes: vec![],
         layers: LayerMap::defaults(),

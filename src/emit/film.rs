@@ -1,55 +1,47 @@
-//! Exact-scale photomask films, one per plate: `NAME.front.svg`, `NAME.back.svg`.
+//! Exact-scale photomask films, one per plate: the page every film format prints.
 //!
-//! Takes the artwork and a plate, gives an SVG page (1 user unit = 1 mm) holding that
-//! plate's etched layers (ITO and marks), its labels, its glass outline as a thin line,
-//! a title, a scale ruler and a side note. Coordinates are only transformed: y flipped,
-//! and for the back plate x mirrored about the plate centre (docs/outputs.md works out
-//! why). Tone follows the resist (docs/background.md, *Tone*): positive resist →
-//! clear-field film,
-//! black where ITO stays; negative resist → dark-field film, black inside the glass
-//! except where ITO stays (one path, glass ring plus ITO rings, even-odd fill).
+//! Takes the artwork and a plate, gives a [`Drawing`] (1 unit = 1 mm) holding the
+//! plate's mask ([`super::mask`]: etched layers, compensated and mirrored there), its
+//! labels, corner marks outside the glass, a title, a ruler along each axis, a
+//! calibration square and a side note; `NAME.front.svg`/`NAME.back.svg` and the pages of
+//! `NAME.films.pdf` are this drawing. Coordinates are only transformed here (y flipped);
+//! tone follows the resist (docs/background.md, *Tone*): positive resist → clear-field
+//! film, ink where ITO stays and nothing on or near the glass edge; negative resist →
+//! dark-field film, ink over the glass and a margin around it except where ITO stays
+//! (one path, field rectangle plus ITO rings, even-odd fill).
 
-use super::page::{self, TextPlace};
+use super::drawing::{Drawing, Item, Paint, PagePt};
+use super::mask::{MaskPlate, bbox, contact_mirrored, mask_plate};
+use super::page::{TextPlace, text_lines};
 use super::report::resist_name;
-use super::ruler;
-use super::svg_path::{PageMap, push_polygon, push_ring};
-use super::text::{fit_height, stroke_width, text_strokes};
-use crate::artwork::{Artwork, Label, Layer};
-use crate::geom::{Polygon, pt};
+use super::ruler::{self, Axis};
+use super::svg_path::{PageMap, page_ring};
+use super::text::{fit_height, stroke_width, text_width};
+use crate::artwork::Artwork;
+use crate::geom::{Polygon, Pt, pt};
 use crate::layout::{PlateId, Resist};
 use crate::{Error, Result};
 
-/// Clear margin on every side of the glass, mm.
-const MARGIN: f64 = 12.0;
-/// Space above the glass for the title, mm.
-const TOP: f64 = 13.0;
-/// Space below the glass for the ruler, the side note and the cell's notes, mm.
-const BOTTOM: f64 = 23.0;
-/// Line width of the glass outline, mm.
-pub const OUTLINE: f64 = 0.1;
-/// Ink.
-const BLACK: &str = "#000000";
-/// No ink (used for what must stay clear inside a dark field).
-const WHITE: &str = "#ffffff";
-
-/// Bounding box (x0, y0, x1, y1) of a polygon's outer ring.
-fn bbox(p: &Polygon) -> Option<(f64, f64, f64, f64)> {
-    let pts = &p.exterior().0;
-    if pts.is_empty() {
-        return None;
-    }
-    Some(pts.iter().fold((f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY), |b, q| {
-        (b.0.min(q.x), b.1.min(q.y), b.2.max(q.x), b.3.max(q.y))
-    }))
-}
-
-/// The etched layers of a plate.
-fn etched_layers(plate: PlateId) -> [Layer; 2] {
-    match plate {
-        PlateId::Front => [Layer::FrontIto, Layer::FrontMarks],
-        PlateId::Back => [Layer::BackIto, Layer::BackMarks],
-    }
-}
+/// Clear margin on the left and right of the content, mm.
+pub const MARGIN: f64 = 12.0;
+/// Space above the glass for the title (and the dark field's margin), mm.
+pub const TOP: f64 = 16.0;
+/// How far the dark field of a negative-resist film reaches past the glass, mm: the
+/// glass edge then lies in the dark, and a film laid a little off still darkens it.
+pub const FIELD_MARGIN: f64 = 3.0;
+/// Where the corner marks start and end, measured outward from the glass corner, mm.
+pub const CORNER_MARK: (f64, f64) = (1.0, 2.5);
+/// Line width of the corner marks, mm.
+pub const CORNER_LINE: f64 = 0.15;
+/// Side of the calibration square, mm.
+pub const CALIBRATION: f64 = 20.0;
+/// Gap between the glass (or its dark field) and the horizontal ruler, mm.
+const RULER_GAP: f64 = FIELD_MARGIN + 1.5;
+/// x of the vertical ruler's base line: left of everything else on the page, mm.
+const VRULER_X: f64 = MARGIN - 4.5;
+/// Space below the glass for ruler, side note, the cell's notes and calibration square, mm
+/// (the side note and the cell's two notes take 2.8 mm a line).
+pub const BOTTOM: f64 = RULER_GAP + ruler::DEPTH + 9.6 + 5.6 + CALIBRATION + 8.0;
 
 /// Upper-case words for the plate.
 fn plate_words(plate: PlateId) -> &'static str {
@@ -66,77 +58,101 @@ struct Frame {
     height: f64,
     glass_bottom: f64,
     ruler: f64,
+    vruler: f64,
 }
 
-fn frame(glass: &Polygon, mirrored: bool) -> Result<Frame> {
-    let (x0, y0, x1, y1) = bbox(glass).ok_or_else(|| Error::Bug("film: empty glass outline".into()))?;
+fn frame(glass: &Polygon) -> Result<Frame> {
+    if glass.exterior().0.is_empty() {
+        return Err(Error::Bug("film: empty glass outline".into()));
+    }
+    let (x0, y0, x1, y1) = bbox(glass);
     let (gw, gh) = (x1 - x0, y1 - y0);
     let ruler = ruler::length_for(gw);
+    let vruler = ruler::length_for(gh);
     let content = gw.max(ruler);
     let width = content + 2.0 * MARGIN;
     let left = MARGIN + (content - gw) / 2.0;
-    let map = if mirrored { PageMap::mirrored(x1, y1, left, TOP) } else { PageMap::upright(x0, y1, left, TOP) };
-    Ok(Frame { map, width, height: TOP + gh + BOTTOM, glass_bottom: TOP + gh, ruler })
+    let map = PageMap::upright(x0, y1, left, TOP);
+    let height = TOP + (gh + BOTTOM).max(vruler + 4.0);
+    Ok(Frame { map, width, height, glass_bottom: TOP + gh, ruler, vruler })
 }
 
-/// Path data of every etched polygon of the plate.
-fn etched_d(art: &Artwork, plate: PlateId, map: &PageMap) -> String {
-    let mut d = String::new();
-    for layer in etched_layers(plate) {
-        for s in art.film_layer(layer) {
-            push_polygon(&mut d, &s.polygon, map);
+/// Page rings of polygons (outer rings counter-clockwise, holes clockwise in the mask
+/// frame, so the non-zero rule keeps holes open).
+fn rings(polys: &[Polygon], map: &PageMap) -> Vec<Vec<PagePt>> {
+    let mut out = Vec::new();
+    for p in polys {
+        out.extend(page_ring(&p.exterior().0, map, true));
+        for h in p.interiors() {
+            out.extend(page_ring(&h.0, map, false));
         }
     }
-    d
+    out
 }
 
-/// The etched content in the plate's tone.
-fn content(art: &Artwork, plate: PlateId, map: &PageMap) -> svg::node::element::Path {
-    let ito = etched_d(art, plate, map);
-    match art.resist {
+/// The dark field of a negative film, in the mask frame: the glass grown by
+/// [`FIELD_MARGIN`], and grown further to hold every label with 1 mm to spare.
+pub fn dark_field(m: &MaskPlate) -> (f64, f64, f64, f64) {
+    let (x0, y0, x1, y1) = bbox(&m.glass);
+    let mut f = (x0 - FIELD_MARGIN, y0 - FIELD_MARGIN, x1 + FIELD_MARGIN, y1 + FIELD_MARGIN);
+    for l in &m.labels {
+        let w = text_width(&l.text, l.height);
+        f = (f.0.min(l.at.x - 1.0), f.1.min(l.at.y - 1.0), f.2.max(l.at.x + w + 1.0), f.3.max(l.at.y + l.height + 1.0));
+    }
+    f
+}
+
+/// The corner marks: at each glass corner, two short lines continuing the glass edges
+/// outward, starting [`CORNER_MARK`]`.0` beyond the corner (mask frame).
+pub fn corner_marks(glass: &Polygon) -> Vec<[Pt; 2]> {
+    let (x0, y0, x1, y1) = bbox(glass);
+    let (a, b) = CORNER_MARK;
+    let mut out = Vec::new();
+    for (cx, sx) in [(x0, -1.0), (x1, 1.0)] {
+        for (cy, sy) in [(y0, -1.0), (y1, 1.0)] {
+            out.push([pt(cx + sx * a, cy), pt(cx + sx * b, cy)]);
+            out.push([pt(cx, cy + sy * a), pt(cx, cy + sy * b)]);
+        }
+    }
+    out
+}
+
+/// The mask content in the plate's tone: etched shapes, corner marks and labels.
+fn content(art: &Artwork, m: &MaskPlate, map: &PageMap) -> Vec<Item> {
+    let ito = rings(&m.etched, map);
+    let marks: Vec<Vec<PagePt>> = corner_marks(&m.glass).iter().map(|s| s.iter().map(|p| map.apply(*p)).collect()).collect();
+    let (fill, mark_paint) = match art.resist {
         // Clear-field: ink where ITO stays; non-zero rule with holes wound against their
         // outer rings, so shapes that merely touch never cancel.
-        Resist::Positive => page::fill(ito, BLACK, "nonzero"),
-        // Dark-field: the glass and every ITO ring in one path; even-odd leaves the ITO
+        Resist::Positive => (Item::Fill { rings: ito, even_odd: false, paint: Paint::Ink }, Paint::Ink),
+        // Dark-field: the field and every ITO ring in one path; even-odd leaves the ITO
         // clear (and an island inside an ITO hole dark again).
         Resist::Negative => {
-            let mut d = String::new();
-            push_ring(&mut d, &art.glass(plate).exterior().0, map, true);
-            if !ito.is_empty() {
-                d.push(' ');
-                d.push_str(&ito);
-            }
-            page::fill(d, BLACK, "evenodd")
+            let (x0, y0, x1, y1) = dark_field(m);
+            let field = [pt(x0, y0), pt(x1, y0), pt(x1, y1), pt(x0, y1)];
+            let mut all = page_ring(&field, map, true).into_iter().collect::<Vec<_>>();
+            all.extend(ito);
+            (Item::Fill { rings: all, even_odd: true, paint: Paint::Ink }, Paint::Clear)
         }
+    };
+    let mut items = vec![fill, Item::Stroke { lines: marks, width: CORNER_LINE, paint: mark_paint }];
+    for l in &m.labels {
+        let lines = l.strokes().into_iter().map(|s| s.into_iter().map(|p| map.apply(p)).collect()).collect();
+        items.push(Item::Stroke { lines, width: stroke_width(l.height), paint: mark_paint });
     }
-}
-
-/// A plate label as stroke text, placed and mirrored like the plate's geometry.
-fn label(l: &Label, map: &PageMap, colour: &str) -> svg::node::element::Path {
-    let lines: Vec<Vec<(f64, f64)>> = text_strokes(&l.text, l.height)
-        .into_iter()
-        .map(|s| s.into_iter().map(|(u, v)| map.apply(pt(l.at.x + u, l.at.y + v))).collect())
-        .collect();
-    page::stroke(page::polylines_d(&lines), colour, stroke_width(l.height))
+    items
 }
 
 /// The title lines (they read normally on the printed side).
-fn title_lines(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Vec<String> {
+fn title_lines(art: &Artwork, m: &MaskPlate, date: &str, errors: usize) -> Vec<String> {
     let tone = match art.resist {
         Resist::Positive => "CLEAR-FIELD",
         Resist::Negative => "DARK-FIELD",
     };
-    let reading = match plate {
-        PlateId::Front => "PRINTED AS THE VIEWER SEES IT",
-        PlateId::Back => "PRINTED MIRRORED",
-    };
-    let grown = if art.film_shapes.is_empty() {
-        String::new()
-    } else {
-        format!(" - GROWN {:.1} UM PER EDGE FOR ETCH", art.rules.film_bias() * 1000.0)
-    };
+    let reading = if m.mirrored { "PRINTED MIRRORED" } else { "PRINTED AS THE VIEWER SEES IT" };
+    let grown = if m.compensated { format!(" - GROWN {:.1} UM PER EDGE FOR ETCH", m.bias * 1000.0) } else { String::new() };
     let mut lines = vec![
-        format!("{} - {} FILM", art.name, plate_words(plate)),
+        format!("{} - {} FILM", art.name, plate_words(m.plate)),
         format!("{tone} FOR {} RESIST - {reading} - 1:1{grown} - {date}", resist_name(art.resist)),
     ];
     if errors > 0 {
@@ -154,39 +170,56 @@ fn note_lines(plate: PlateId) -> [String; 2] {
     ]
 }
 
-/// Renders the film of one plate. `errors` is the number of rule errors standing
+/// A line of stroke text as one item.
+fn words(s: &str, at: TextPlace) -> Item {
+    Item::Stroke { lines: text_lines(s, at), width: stroke_width(at.height), paint: Paint::Ink }
+}
+
+/// The film of one plate as a drawing. `errors` is the number of rule errors standing
 /// (printed on the film when masks are made despite them).
-pub fn render_film(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Result<Vec<u8>> {
-    let f = frame(art.glass(plate), plate == PlateId::Back)?;
-    let title = format!("{} {} film", art.name, plate.name());
-    let mut doc = page::document(f.width, f.height, &title).add(content(art, plate, &f.map));
-    let label_colour = if art.resist == Resist::Positive { BLACK } else { WHITE };
-    for l in art.labels.iter().filter(|l| l.plate == plate) {
-        doc = doc.add(label(l, &f.map, label_colour));
-    }
-    let mut outline = String::new();
-    push_ring(&mut outline, &art.glass(plate).exterior().0, &f.map, true);
-    doc = doc.add(page::stroke(outline, BLACK, OUTLINE));
+pub fn film_drawing(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Result<Drawing> {
+    let m = mask_plate(art, plate, contact_mirrored(plate));
+    let f = frame(&m.glass)?;
+    let mut items = content(art, &m, &f.map);
 
     let avail = f.width - 2.0 * MARGIN;
     let heights = [2.5, 1.8, 1.8];
-    for (i, line) in title_lines(art, plate, date, errors).iter().enumerate() {
+    for (i, line) in title_lines(art, &m, date, errors).iter().enumerate() {
         let h = fit_height(line, heights[i], avail);
-        let at = TextPlace { left: MARGIN, baseline: 4.5 + 3.2 * i as f64, height: h, mirrored: false };
-        doc = doc.add(page::text(line, at, BLACK));
+        items.push(words(line, TextPlace { left: MARGIN, baseline: 4.5 + 3.2 * i as f64, height: h, mirrored: false }));
     }
-    let ruler_top = f.glass_bottom + 3.0;
-    doc = doc.add(ruler::ruler(MARGIN, ruler_top, f.ruler));
-    for (i, line) in note_lines(plate).iter().enumerate() {
-        let h = fit_height(line, 1.6, avail);
-        let baseline = ruler_top + ruler::DEPTH + 3.0 + 2.8 * i as f64;
-        doc = doc.add(page::text(line, TextPlace { left: MARGIN, baseline, height: h, mirrored: true }, BLACK));
+    let ruler_top = f.glass_bottom + RULER_GAP;
+    items.extend(ruler::ruler(MARGIN, ruler_top, f.ruler, Axis::Across));
+    items.extend(ruler::ruler(VRULER_X, TOP, f.vruler, Axis::Down));
+    let mut y = ruler_top + ruler::DEPTH + 3.0;
+    for line in note_lines(plate) {
+        let h = fit_height(&line, 1.6, avail);
+        items.push(words(&line, TextPlace { left: MARGIN, baseline: y, height: h, mirrored: true }));
+        y += 2.8;
     }
     // The cell the plates are for (gap, spacers, rubbing, polarizers), readable as printed.
-    for (i, line) in crate::plan::optics::note_lines(&art.cell).iter().enumerate() {
-        let h = fit_height(line, 1.6, avail);
-        let baseline = ruler_top + ruler::DEPTH + 3.0 + 2.8 * (2 + i) as f64;
-        doc = doc.add(page::text(line, TextPlace { left: MARGIN, baseline, height: h, mirrored: false }, BLACK));
+    for line in crate::plan::optics::note_lines(&art.cell) {
+        let h = fit_height(&line, 1.6, avail);
+        items.push(words(&line, TextPlace { left: MARGIN, baseline: y, height: h, mirrored: false }));
+        y += 2.8;
     }
-    Ok(page::bytes(&doc))
+    let (sx, sy) = (MARGIN, y + 1.0);
+    let square = vec![(sx, sy), (sx + CALIBRATION, sy), (sx + CALIBRATION, sy + CALIBRATION), (sx, sy + CALIBRATION)];
+    items.push(Item::Fill { rings: vec![square], even_odd: false, paint: Paint::Ink });
+    let calib = [
+        format!("CALIBRATION SQUARE {CALIBRATION:.2} X {CALIBRATION:.2} MM"),
+        "MEASURE BOTH AXES AND BOTH RULERS BEFORE EXPOSURE".to_string(),
+    ];
+    let mut by = sy + CALIBRATION + 3.0;
+    for line in calib {
+        let h = fit_height(&line, 1.6, avail);
+        items.push(words(&line, TextPlace { left: MARGIN, baseline: by, height: h, mirrored: false }));
+        by += 2.8;
+    }
+    Ok(Drawing { width: f.width, height: f.height, title: format!("{} {} film", art.name, plate.name()), items })
+}
+
+/// The SVG film of one plate.
+pub fn render_film(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Result<Vec<u8>> {
+    Ok(super::drawing::svg_bytes(&film_drawing(art, plate, date, errors)?))
 }

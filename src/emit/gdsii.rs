@@ -4,11 +4,15 @@
 //! artwork's frame, nothing mirrored, in nm): `FRONT` (front ITO, front marks, front
 //! glass, front labels, net names of front nets), `BACK` (the same for the back plate),
 //! `CELL` (seal, transfer dots, window: the layers between the plates) and `TOP`, which
-//! places the three at the origin. A mask shop can take one plate's structure alone;
-//! a viewer opening `TOP` sees the plates overlaid as the display's viewer does.
+//! places the three at the origin; a viewer opening `TOP` sees the plates overlaid as the
+//! display's viewer does. Beside them, one mask structure per plate for the mask shop,
+//! `FRONT_MASK` and `BACK_MASK` ([`mask_structure`]): what that plate's mask carries
+//! ([`super::mask`]: ITO and marks on the plate's ITO layer, compensated and mirrored as
+//! the other mask files are) and its glass outline on the glass layer, nothing else.
 
 use super::gds::{Cell, library_bytes};
 use super::layer_polygons;
+use super::mask::{contact_mirrored, mask_plate};
 use crate::Result;
 use crate::artwork::{Artwork, Layer};
 use crate::geom::interior_point;
@@ -19,6 +23,36 @@ const FRONT: &str = "FRONT";
 const BACK: &str = "BACK";
 const CELL: &str = "CELL";
 const TOP: &str = "TOP";
+
+/// Name of a plate's mask structure.
+pub fn mask_structure(plate: PlateId) -> &'static str {
+    match plate {
+        PlateId::Front => "FRONT_MASK",
+        PlateId::Back => "BACK_MASK",
+    }
+}
+
+/// Whether the GDSII mask structure (and the Gerber file) of `plate` is mirrored.
+pub fn mask_mirrored(art: &Artwork, plate: PlateId) -> bool {
+    art.masks.mirror && contact_mirrored(plate)
+}
+
+/// The mask structure of one plate: its etched polygons on its ITO layer and its glass
+/// outline on its glass layer.
+fn mask_cell(art: &Artwork, plate: PlateId) -> Result<Cell> {
+    let m = mask_plate(art, plate, mask_mirrored(art, plate));
+    let mut cell = Cell::new(mask_structure(plate));
+    let ito = art.gds_layer(Layer::ito(plate));
+    for p in &m.etched {
+        cell.polygon(ito, p)?;
+    }
+    let glass = match plate {
+        PlateId::Front => Layer::FrontGlass,
+        PlateId::Back => Layer::BackGlass,
+    };
+    cell.polygon(art.gds_layer(glass), &m.glass)?;
+    Ok(cell)
+}
 
 /// Encodes the artwork as a GDSII stream dated `date`.
 pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
@@ -53,5 +87,7 @@ pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>>
         top.reference(name);
     }
     let [front, back, cell] = cells;
-    library_bytes(&art.name, date, vec![front, back, cell, top])
+    let masks = [mask_cell(art, PlateId::Front)?, mask_cell(art, PlateId::Back)?];
+    let [front_mask, back_mask] = masks;
+    library_bytes(&art.name, date, vec![front, back, cell, top, front_mask, back_mask])
 }

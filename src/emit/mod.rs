@@ -1,25 +1,35 @@
 //! Stage `emit`: `Artwork` + findings → output files.
 //!
-//! Takes the artwork and the findings, gives the bytes of every output file (films,
-//! preview, GDSII, pin map, segment map, report) and writes them atomically. Writers never compute
-//! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the
-//! one exception is cutting polygons into hole-free GDSII pieces ([`split`]), which the
-//! format demands. docs/outputs.md describes every file.
+//! Takes the artwork and the findings, gives the bytes of every output file (films as
+//! SVG and PDF, the print sheet, Gerber, preview, GDSII, the mask order, pin map, segment
+//! map, report) and writes them atomically. Every output is one row of [`OUTPUTS`]: its
+//! file suffix, whether it is a mask (withheld while rule errors stand, decided once in
+//! [`render_outputs`]) and its writer. What a mask carries — mirrored or not, compensated
+//! or not — is decided once in [`mask`] for every mask writer. Writers never compute
+//! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the one
+//! exception is cutting polygons into hole-free pieces ([`split`]), which GDSII and Gerber
+//! regions demand. docs/outputs.md describes every file.
 
 mod csv;
+pub mod drawing;
 mod drive_info;
 mod files;
-mod film;
+pub mod film;
 pub mod firmware_c;
 mod firmware_json;
 pub mod gds;
 mod gdsii;
+mod gerber;
+pub mod mask;
+mod order;
 mod page;
+pub mod pdf;
 mod pins;
 mod preview;
 mod report;
 mod ruler;
 pub mod segmap;
+pub mod sheet;
 pub mod show_svg;
 mod split;
 pub mod svg_path;
@@ -53,13 +63,84 @@ pub struct EmitOptions {
     pub masks_despite_errors: bool,
 }
 
-/// Renders every output of a build, in this order: `NAME.front.svg`, `NAME.back.svg`,
-/// `NAME.preview.svg`, `NAME.gds`, `NAME.pins.csv`, `NAME.segmap.csv`,
-/// `NAME.segmap.json`, `NAME.firmware.h`, `NAME.firmware.json`, `NAME.report.json`.
+/// Everything a writer may read: the artwork, the findings and the build date.
+pub struct Ctx<'a> {
+    /// The artwork.
+    pub art: &'a Artwork,
+    /// Every finding.
+    pub findings: &'a [Finding],
+    /// Build date as given, `YYYY-MM-DD`.
+    pub date: &'a str,
+    /// The same date at midnight.
+    pub datetime: chrono::NaiveDateTime,
+    /// Rule errors standing (printed on films made despite them).
+    pub errors: usize,
+    /// The electrical and optical plan (for the report).
+    pub plan: &'a crate::plan::Plan,
+}
+
+/// One output file: its suffix after `NAME.`, whether it is a mask (something a plate is
+/// made from, withheld while rule errors stand), and its writer.
+pub struct Output {
+    /// File-name suffix after `NAME.`.
+    pub suffix: &'static str,
+    /// True for the files plates are made from.
+    pub mask: bool,
+    /// The writer.
+    pub render: fn(&Ctx) -> Result<Vec<u8>>,
+}
+
+/// The date as (year, month, day).
+fn ymd(c: &Ctx) -> (i32, u32, u32) {
+    use chrono::Datelike;
+    (c.datetime.year(), c.datetime.month(), c.datetime.day())
+}
+
+/// Both plates' film drawings.
+fn films(c: &Ctx) -> Result<Vec<drawing::Drawing>> {
+    [PlateId::Front, PlateId::Back].into_iter().map(|p| film::film_drawing(c.art, p, c.date, c.errors)).collect()
+}
+
+/// Every output, in the order they are rendered and listed.
+pub const OUTPUTS: &[Output] = &[
+    Output { suffix: "front.svg", mask: true, render: |c| film::render_film(c.art, PlateId::Front, c.date, c.errors) },
+    Output { suffix: "back.svg", mask: true, render: |c| film::render_film(c.art, PlateId::Back, c.date, c.errors) },
+    Output {
+        suffix: "films.pdf",
+        mask: true,
+        render: |c| Ok(pdf::pdf_bytes(&films(c)?, &format!("{} films", c.art.name), ymd(c))),
+    },
+    Output {
+        suffix: "sheet.pdf",
+        mask: true,
+        render: |c| {
+            let pages = sheet::sheet_pages(&films(c)?, c.art.masks.sheet, c.art.masks.copies, &c.art.name);
+            Ok(pdf::pdf_bytes(&pages, &format!("{} print sheet", c.art.name), ymd(c)))
+        },
+    },
+    Output { suffix: "front.gbr", mask: true, render: |c| gerber::render_gerber(c.art, PlateId::Front, c.datetime) },
+    Output { suffix: "back.gbr", mask: true, render: |c| gerber::render_gerber(c.art, PlateId::Back, c.datetime) },
+    Output { suffix: "preview.svg", mask: false, render: |c| preview::render_preview(c.art, c.findings) },
+    Output { suffix: "gds", mask: true, render: |c| gdsii::render_gds(c.art, c.datetime) },
+    Output { suffix: "masks.json", mask: true, render: |c| order::render_order_json(c.art, c.date) },
+    Output { suffix: "masks.txt", mask: true, render: |c| Ok(order::render_order_text(c.art, c.date)) },
+    Output { suffix: "pins.csv", mask: false, render: |c| Ok(pins::render_pins(c.art)) },
+    Output { suffix: "segmap.csv", mask: false, render: |c| Ok(segmap::csv_of(&segmap::segment_rows(c.art))) },
+    Output { suffix: "segmap.json", mask: false, render: |c| segmap::json_of(c.art, segmap::segment_rows(c.art)) },
+    Output { suffix: "firmware.h", mask: false, render: |c| Ok(firmware_c::render_firmware_header(c.art)) },
+    Output { suffix: "firmware.json", mask: false, render: |c| firmware_json::render_firmware_json(c.art) },
+    Output {
+        suffix: "report.json",
+        mask: false,
+        render: |c| report::render_report(c.art, c.findings, segmap::segment_rows(c.art), c.plan),
+    },
+];
+
+/// Renders every output of a build, in the order of [`OUTPUTS`].
 ///
 /// While any finding is an error and `masks_despite_errors` is off, the mask files
-/// (films and GDSII) are withheld and only preview, pin map, segment map and report are
-/// given.
+/// (films, print sheet, Gerber, GDSII, mask order) are withheld and only preview, pin map,
+/// segment map and report are given.
 ///
 /// The report's plan is worked out here from the artwork; [`render_outputs_planned`]
 /// takes one already made (the pipeline's).
@@ -74,28 +155,16 @@ pub fn render_outputs_planned(
     plan: &crate::plan::Plan,
     opts: &EmitOptions,
 ) -> Result<Vec<OutputFile>> {
-    let date = gds::parse_date(&opts.date).ok_or_else(|| bad_date(&opts.date))?;
+    let datetime = gds::parse_date(&opts.date).ok_or_else(|| bad_date(&opts.date))?;
     let errors = crate::finding::count(findings, Severity::Error);
     let masks = errors == 0 || opts.masks_despite_errors;
     let name = file_stem(&art.name);
-    let file = |suffix: &str, bytes| OutputFile { name: format!("{name}.{suffix}"), bytes };
-    let mut out = Vec::new();
-    if masks {
-        out.push(file("front.svg", film::render_film(art, PlateId::Front, &opts.date, errors)?));
-        out.push(file("back.svg", film::render_film(art, PlateId::Back, &opts.date, errors)?));
-    }
-    out.push(file("preview.svg", preview::render_preview(art, findings)?));
-    if masks {
-        out.push(file("gds", gdsii::render_gds(art, date)?));
-    }
-    out.push(file("pins.csv", pins::render_pins(art)));
-    let rows = segmap::segment_rows(art);
-    out.push(file("segmap.csv", segmap::csv_of(&rows)));
-    out.push(file("segmap.json", segmap::json_of(art, rows.clone())?));
-    out.push(file("firmware.h", firmware_c::render_firmware_header(art)));
-    out.push(file("firmware.json", firmware_json::render_firmware_json(art)?));
-    out.push(file("report.json", report::render_report(art, findings, rows, plan)?));
-    Ok(out)
+    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan };
+    OUTPUTS
+        .iter()
+        .filter(|o| masks || !o.mask)
+        .map(|o| Ok(OutputFile { name: format!("{name}.{}", o.suffix), bytes: (o.render)(&ctx)? }))
+        .collect()
 }
 
 /// True when `render_outputs` would withhold the mask files for these findings.

@@ -6,7 +6,7 @@
 //! 96 px). Built on the svg crate, with path data written by [`super::svg_path`].
 
 use super::svg_path::{num, push_page_polyline};
-use super::text::{stroke_width, text_strokes, text_width};
+use super::text::{text_strokes, text_width};
 use svg::Document;
 use svg::node::element::{Path, Title};
 
@@ -64,16 +64,15 @@ pub struct TextPlace {
     pub mirrored: bool,
 }
 
-/// A line of text as stroke paths (no fonts needed).
-pub fn text(s: &str, at: TextPlace, colour: &str) -> Path {
+/// A line of text as polylines in page coordinates (no fonts needed).
+pub fn text_lines(s: &str, at: TextPlace) -> Vec<Vec<(f64, f64)>> {
     let w = text_width(s, at.height);
-    let lines: Vec<Vec<(f64, f64)>> = text_strokes(s, at.height)
+    text_strokes(s, at.height)
         .into_iter()
         .map(|l| {
             l.into_iter()
                 .map(|(u, v)| (if at.mirrored { at.left + w - u } else { at.left + u }, at.baseline - v))
                 .collect()
         })
-        .collect();
-    stroke(polylines_d(&lines), colour, stroke_width(at.height))
+        .collect()
 }

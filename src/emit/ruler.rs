@@ -1,14 +1,14 @@
-//! The scale ruler printed on every film.
+//! The scale rulers printed on every film, one along each axis.
 //!
-//! Takes a place on the page and a length, gives the ruler's strokes: a base line, a
-//! tick every millimetre, longer ticks every 5 mm and longest every 10 mm, numbered in
-//! mm. Printers and viewers rescale pages (docs/background.md, *Scale ruler*), so the
-//! ruler is measured with
-//! a good steel rule before a film is used.
+//! Takes a place on the page, a length and a direction, gives the ruler's strokes: a
+//! base line, a tick every millimetre, longer ticks every 5 mm and longest every 10 mm,
+//! numbered in mm. Printers and viewers rescale pages, and not always alike in x and y
+//! (docs/background.md, *Scale ruler*), so both rulers are measured with a good steel rule
+//! before a film is used.
 
-use super::page::{TextPlace, polylines_d, stroke, text};
-use super::text::text_width;
-use svg::node::element::Group;
+use super::drawing::{Item, Paint};
+use super::page::{TextPlace, text_lines};
+use super::text::{stroke_width, text_width};
 
 /// Shortest ruler, mm.
 pub const MIN_LENGTH: f64 = 50.0;
@@ -18,39 +18,67 @@ const TICKS: [f64; 3] = [1.0, 1.6, 2.4];
 const LINE: f64 = 0.1;
 /// Cap height of the numbers, mm.
 const NUMBER_HEIGHT: f64 = 1.4;
-/// Height the ruler takes below its base line, numbers included, mm.
+/// Room the ruler takes beside its base line, numbers included, mm.
 pub const DEPTH: f64 = 4.6;
 
-/// Ruler length for a plate `width` mm wide: the plate width rounded down to whole
-/// centimetres, but never shorter than [`MIN_LENGTH`].
-pub fn length_for(width: f64) -> f64 {
-    ((width / 10.0).floor() * 10.0).max(MIN_LENGTH)
+/// Ruler length for a plate side `size` mm long: rounded down to whole centimetres, but
+/// never shorter than [`MIN_LENGTH`].
+pub fn length_for(size: f64) -> f64 {
+    ((size / 10.0).floor() * 10.0).max(MIN_LENGTH)
 }
 
-/// A ruler of whole-mm `length` whose zero is at page (`left`, `top`), ticks hanging
-/// down from the base line.
-pub fn ruler(left: f64, top: f64, length: f64) -> Group {
+/// Which way a ruler runs.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Axis {
+    /// Left to right, ticks hanging down, numbers below.
+    Across,
+    /// Top to bottom, ticks pointing left, numbers to their left.
+    Down,
+}
+
+/// Tick length at millimetre `i`.
+fn tick(i: i64) -> f64 {
+    if i % 10 == 0 {
+        TICKS[2]
+    } else if i % 5 == 0 {
+        TICKS[1]
+    } else {
+        TICKS[0]
+    }
+}
+
+/// A ruler of whole-mm `length` whose zero is at page point (`x`, `y`).
+pub fn ruler(x: f64, y: f64, length: f64, axis: Axis) -> Vec<Item> {
     let n = length.round() as i64;
-    let mut lines = vec![vec![(left, top), (left + n as f64, top)]];
+    // Page point at distance `along` from zero and `off` towards the ticks' side.
+    let at = |along: f64, off: f64| match axis {
+        Axis::Across => (x + along, y + off),
+        Axis::Down => (x - off, y + along),
+    };
+    let mut lines = vec![vec![at(0.0, 0.0), at(n as f64, 0.0)]];
     for i in 0..=n {
-        let t = if i % 10 == 0 {
-            TICKS[2]
-        } else if i % 5 == 0 {
-            TICKS[1]
-        } else {
-            TICKS[0]
-        };
-        lines.push(vec![(left + i as f64, top), (left + i as f64, top + t)]);
+        lines.push(vec![at(i as f64, 0.0), at(i as f64, tick(i))]);
     }
-    let mut g = Group::new().add(stroke(polylines_d(&lines), "#000000", LINE));
-    let baseline = top + TICKS[2] + 0.6 + NUMBER_HEIGHT;
+    let mut items = vec![Item::Stroke { lines, width: LINE, paint: Paint::Ink }];
+    let mut numbers = Vec::new();
     for i in (0..=n).step_by(10) {
-        let label = if i == n - n % 10 { format!("{i} MM") } else { i.to_string() };
-        let w = text_width(&i.to_string(), NUMBER_HEIGHT);
-        let at = TextPlace { left: left + i as f64 - w / 2.0, baseline, height: NUMBER_HEIGHT, mirrored: false };
-        g = g.add(text(&label, at, "#000000"));
+        let s = i.to_string();
+        let w = text_width(&s, NUMBER_HEIGHT);
+        let place = match axis {
+            Axis::Across => {
+                let label = if i == n - n % 10 { format!("{i} MM") } else { s };
+                let p = TextPlace { left: x + i as f64 - w / 2.0, baseline: y + TICKS[2] + 0.6 + NUMBER_HEIGHT, height: NUMBER_HEIGHT, mirrored: false };
+                (label, p)
+            }
+            Axis::Down => {
+                let p = TextPlace { left: x - TICKS[2] - 0.6 - w, baseline: y + i as f64 + NUMBER_HEIGHT / 2.0, height: NUMBER_HEIGHT, mirrored: false };
+                (s, p)
+            }
+        };
+        numbers.extend(text_lines(&place.0, place.1));
     }
-    g
+    items.push(Item::Stroke { lines: numbers, width: stroke_width(NUMBER_HEIGHT), paint: Paint::Ink });
+    items
 }
 
 #[cfg(test)]
@@ -63,12 +91,17 @@ mod tests {
         assert_eq!(length_for(87.3), 80.0);
     }
 
-    /// One tick per millimetre plus the base line: 51 ticks on a 50 mm ruler.
+    /// One tick per millimetre plus the base line: 51 ticks on a 50 mm ruler, on both
+    /// axes; the vertical ruler's ticks are horizontal and one millimetre apart.
     #[test]
     fn one_tick_per_millimetre() {
-        let s = ruler(0.0, 0.0, 50.0).to_string();
-        let first = s.split("d=\"").nth(1).unwrap();
-        let moves = first.split('"').next().unwrap().matches('M').count();
-        assert_eq!(moves, 52);
+        for axis in [Axis::Across, Axis::Down] {
+            let Item::Stroke { lines, .. } = &ruler(0.0, 0.0, 50.0, axis)[0] else { panic!() };
+            assert_eq!(lines.len(), 52);
+            if axis == Axis::Down {
+                assert_eq!(lines[2][0].1 - lines[1][0].1, 1.0);
+                assert_eq!(lines[1][0].1, lines[1][1].1);
+            }
+        }
     }
 }

@@ -77,23 +77,29 @@ pub fn signed_area2(ring: &[Pt]) -> f64 {
         .sum()
 }
 
-/// Appends one closed ring as `M … L … Z` in page coordinates; `ccw` chooses the
+/// One closed ring in page coordinates (first point not repeated); `ccw` chooses the
 /// winding in the artwork frame (the page map flips all rings alike, so the non-zero
-/// rule still sees holes as holes).
-pub fn push_ring(d: &mut String, ring: &[Pt], map: &PageMap, ccw: bool) {
+/// rule still sees holes as holes). `None` for fewer than three points.
+pub fn page_ring(ring: &[Pt], map: &PageMap, ccw: bool) -> Option<Vec<(f64, f64)>> {
     let mut pts: Vec<Pt> = ring.to_vec();
     if pts.len() > 1 && pts.first() == pts.last() {
         pts.pop();
     }
     if pts.len() < 3 {
-        return;
+        return None;
     }
     if (signed_area2(&pts) > 0.0) != ccw {
         pts.reverse();
     }
-    let page: Vec<(f64, f64)> = pts.iter().map(|p| map.apply(*p)).collect();
-    push_page_polyline(d, &page);
-    d.push('Z');
+    Some(pts.iter().map(|p| map.apply(*p)).collect())
+}
+
+/// Appends one closed ring as `M … L … Z` in page coordinates, wound as [`page_ring`].
+pub fn push_ring(d: &mut String, ring: &[Pt], map: &PageMap, ccw: bool) {
+    if let Some(page) = page_ring(ring, map, ccw) {
+        push_page_polyline(d, &page);
+        d.push('Z');
+    }
 }
 
 /// Appends a polygon: outer ring counter-clockwise, holes clockwise (artwork frame).

@@ -73,6 +73,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         labels: labels(layout),
         rules: layout.rules.clone(),
         resist: layout.resist,
+        masks: layout.masks,
         drive: layout.drive,
         layers: layout.layers.clone(),
         film_shapes: film_shapes(layout, &shapes_for_film),
@@ -161,11 +162,21 @@ fn pixels(el: &Electrodes) -> Vec<Pixel> {
         .collect()
 }
 
+/// How far a plate label starts right of the glass's left edge, mm: clear of the film's
+/// corner mark that continues that edge upward (docs/outputs.md, *Films*).
+const LABEL_INSET: f64 = 1.0;
+
+/// How far a plate label's baseline lies above the glass's top edge, mm: outside the
+/// glass, so a label never becomes ITO on the plate, and far enough that a film laid a
+/// little off does not print it onto the glass edge.
+const LABEL_ABOVE: f64 = 1.0;
+
+/// The plate labels: the layout name and plate, above each glass.
 fn labels(layout: &Layout) -> Vec<Label> {
     let f = layout.glass.front;
     let b = layout.glass.back;
     vec![
-        Label { plate: PlateId::Front, text: format!("{} FRONT", layout.name), at: crate::geom::pt(f.x, f.y1() + 0.5), height: 1.5 },
-        Label { plate: PlateId::Back, text: format!("{} BACK", layout.name), at: crate::geom::pt(b.x, b.y1() + 0.5), height: 1.5 },
+        Label { plate: PlateId::Front, text: format!("{} FRONT", layout.name), at: crate::geom::pt(f.x + LABEL_INSET, f.y1() + LABEL_ABOVE), height: 1.5 },
+        Label { plate: PlateId::Back, text: format!("{} BACK", layout.name), at: crate::geom::pt(b.x + LABEL_INSET, b.y1() + LABEL_ABOVE), height: 1.5 },
     ]
 }

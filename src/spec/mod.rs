@@ -81,7 +81,8 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
     let window = resolve::window(p, raw.window.as_ref());
     let cell_gap = resolve::cell_gap(p, raw.cell_gap.as_ref());
     let tolerance = resolve::tolerance(p, raw.tolerance.as_ref());
-    let rules = resolve::rules(p, raw.rules.as_ref());
+    let masks = resolve::masks(p, raw.masks.as_ref());
+    let rules = resolve::rules(p, raw.rules.as_ref(), masks.process);
     let pads = resolve::pads(p, raw.pads.as_ref());
     let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
     let drive = resolve::drive(p, raw.drive.as_ref());
@@ -105,6 +106,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
         layers: resolve::layers(p, raw.gds_layers.as_ref()),
         extra_fonts,
         rules,
+        masks,
         seal,
         pads,
         digits,

@@ -18,6 +18,7 @@ pub struct RawLayout {
     pub resist: Option<Scalar>,
     pub tolerance: Option<Scalar>,
     pub rules: Option<RawRules>,
+    pub masks: Option<RawMasks>,
     pub seal: Option<RawSeal>,
     pub transfer_dots: Option<RawTransfer>,
     pub pads: Option<RawPads>,
@@ -103,6 +104,16 @@ pub struct RawRules {
     pub edge_clearance: Option<Scalar>,
     pub lead_width: Option<Scalar>,
     pub registration: Option<Scalar>,
+}
+
+/// `masks:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys process, mirror, sheet and copies")]
+pub struct RawMasks {
+    pub process: Option<Scalar>,
+    pub mirror: Option<Scalar>,
+    pub sheet: Option<Scalar>,
+    pub copies: Option<Scalar>,
 }
 
 /// `seal:`.

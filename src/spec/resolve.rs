@@ -107,14 +107,42 @@ pub fn resist(p: &mut Problems, v: Option<&Scalar>) -> Resist {
     p.word(v, "resist", &[("positive", Resist::Positive), ("negative", Resist::Negative)], Some(Resist::Positive))
 }
 
-/// `rules:` with their defaults.
-pub fn rules(p: &mut Problems, r: Option<&RawRules>) -> Rules {
+/// `masks:` with their defaults (photoplotted film, mirrored as contact printing needs,
+/// A4, one copy).
+pub fn masks(p: &mut Problems, m: Option<&RawMasks>) -> MaskOptions {
+    let get = |f: fn(&RawMasks) -> &Option<Scalar>| m.and_then(|m| f(m).as_ref());
+    let d = MaskOptions::default();
+    let process = p.word(get(|m| &m.process), "masks.process", &Process::ALL, Some(d.process));
+    let mirror = p.boolean(get(|m| &m.mirror), "masks.mirror", d.mirror);
+    let sheet = p.word(get(|m| &m.sheet), "masks.sheet", &[("a4", Sheet::A4), ("letter", Sheet::Letter)], Some(d.sheet));
+    let copies = p.int(get(|m| &m.copies), "masks.copies", Some(d.copies as i64), 1);
+    if p.clean(&["masks.copies"]) && copies > MAX_COPIES {
+        p.bad("masks.copies", format!("{copies} copies are more than a print sheet is for"), &format!("1 to {MAX_COPIES}"));
+    }
+    MaskOptions { process, mirror, sheet, copies: copies.clamp(1, MAX_COPIES) as u32 }
+}
+
+/// Most copies of each film on the print sheet (more belong on a second print run).
+const MAX_COPIES: i64 = 50;
+
+/// `rules:` with their defaults; `process` (from `masks.process`) gives the defaults of
+/// `min_width`, `min_gap` and `film_min_feature`, and the floor of `film_min_feature`.
+pub fn rules(p: &mut Problems, r: Option<&RawRules>, process: Process) -> Rules {
     let get = |f: fn(&RawRules) -> &Option<Scalar>| r.and_then(|r| f(r).as_ref());
-    let min_width = p.length(get(|r| &r.min_width), "rules.min_width", Some(0.1), Sign::Positive);
-    let min_gap = p.length(get(|r| &r.min_gap), "rules.min_gap", Some(0.05), Sign::Positive);
+    let (width0, gap0) = process.suggested_rules();
+    let min_width = p.length(get(|r| &r.min_width), "rules.min_width", Some(width0), Sign::Positive);
+    let min_gap = p.length(get(|r| &r.min_gap), "rules.min_gap", Some(gap0), Sign::Positive);
     let undercut = p.length(get(|r| &r.undercut), "rules.undercut", Some(0.005), Sign::NonNegative);
     let compensate = p.boolean(get(|r| &r.compensate), "rules.compensate", false);
-    let film_min_feature = p.length(get(|r| &r.film_min_feature), "rules.film_min_feature", Some(0.03), Sign::Positive);
+    let limit = process.mask_limit();
+    let film_min_feature = p.length(get(|r| &r.film_min_feature), "rules.film_min_feature", Some(limit), Sign::Positive);
+    if p.clean(&["rules.film_min_feature"]) && film_min_feature < limit - 1e-9 {
+        p.bad(
+            "rules.film_min_feature",
+            format!("{} is finer than {} holds reliably", mm(film_min_feature), process.name()),
+            &format!("at least {} for masks.process {} (or choose a finer masks.process)", mm(limit), process.name()),
+        );
+    }
     let backplane_overlap =
         p.length(get(|r| &r.backplane_overlap), "rules.backplane_overlap", Some(0.15), Sign::NonNegative);
     let edge_clearance = p.length(get(|r| &r.edge_clearance), "rules.edge_clearance", Some(1.5), Sign::NonNegative);

@@ -273,3 +273,27 @@ fn bar_graphs_stay_in_the_window_and_off_other_elements() {
     let v = problems(&bar("[10.5, 16]"));
     assert!(v[0].message.contains("step 1 of bar graph `L` overlaps digit 1 of `D`"), "{}", v[0].message);
 }
+
+/// The default process (photoplotted film) and the default rules agree: the rules a
+/// layout gets without writing any are the process's suggested ones, and the film rule
+/// is the process's limit (about 30 µm for photoplotted film, *common practice*,
+/// docs/background.md, *Films, photoplots and chrome*). Laser-printed film widens the
+/// defaults to 0.15 mm (about 0.10–0.15 mm, same source) and refuses a finer film rule.
+#[test]
+fn process_profiles_set_the_default_rules() {
+    let l = parse(MINIMAL).unwrap();
+    assert_eq!(l.masks, MaskOptions::default());
+    assert_eq!(l.masks.process, Process::PhotoplotFilm);
+    assert_eq!((l.rules.min_width, l.rules.min_gap), Process::PhotoplotFilm.suggested_rules());
+    assert!(close(l.rules.film_min_feature, Process::PhotoplotFilm.mask_limit()));
+    assert!(l.rules.min_gap >= l.rules.film_min_feature, "default gap finer than the default film holds");
+
+    let laser = parse(&edit("name: minimal\n", "name: minimal\nmasks: {process: laser-film, sheet: letter, copies: 2, mirror: false}\n")).unwrap();
+    assert_eq!((laser.rules.min_width, laser.rules.min_gap, laser.rules.film_min_feature), (0.15, 0.15, 0.15));
+    assert_eq!((laser.masks.sheet, laser.masks.copies, laser.masks.mirror), (Sheet::Letter, 2, false));
+
+    let fine = problems(&edit("name: minimal\n", "name: minimal\nmasks: {process: laser-film}\nrules: {film_min_feature: 0.1}\n"));
+    assert_eq!(fine[0].key, "rules.film_min_feature");
+    let zero = problems(&edit("name: minimal\n", "name: minimal\nmasks: {copies: 0}\n"));
+    assert_eq!(zero[0].key, "masks.copies");
+}

@@ -137,6 +137,7 @@ pub fn artwork() -> Artwork {
         rules: rules(),
         layers: LayerMap::defaults(),
         resist: Resist::Positive,
+        masks: segmask::layout::MaskOptions::default(),
         drive: Drive { commons: 1, bias: None },
         film_shapes: vec![],
         generation_findings: vec![],

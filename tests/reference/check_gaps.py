@@ -22,7 +22,8 @@ def main(gds_path, report_path):
     for plate in ("front", "back"):
         entry = next(l for l in report["layers"] if l["name"] == f"{plate}_ito")
         key = (entry["gds_layer"], entry["gds_datatype"])
-        rings = [p.points * 1e-3 for c in lib.cells for p in c.polygons if (p.layer, p.datatype) == key]
+        # The design structures only: the mask structures repeat the ITO (check_masks.py).
+        rings = [p.points * 1e-3 for c in lib.cells if c.name in ("FRONT", "BACK") for p in c.polygons if (p.layer, p.datatype) == key]
         merged = shapely.unary_union([Polygon(r).buffer(0) for r in rings])
         parts = list(getattr(merged, "geoms", [merged]))
         # Each net is one connected piece of ITO; fewer pieces than nets means a short,

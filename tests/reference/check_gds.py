@@ -12,6 +12,9 @@ Checks, each against an outside reference:
   area in the report includes its front-plate pad and lead);
 - no boundary has a hole-free violation (gdstk polygons are simple rings) and no more
   than 8191 points (the format's XY record limit).
+The net checks read the design structures FRONT, BACK and CELL; the mask structures
+(FRONT_MASK, BACK_MASK) hold the same ITO again, possibly mirrored and compensated, and
+are compared with these by check_masks.py.
 Prints one line per check; exits 1 on the first failure.
 """
 import json
@@ -32,7 +35,15 @@ def main(gds_path, report_path):
         fail(f"units {lib.unit} {lib.precision}")
     print(f"ok units user={lib.unit} db={lib.precision}")
     polys = {}
+    names = sorted(c.name for c in lib.cells)
+    if names != ["BACK", "BACK_MASK", "CELL", "FRONT", "FRONT_MASK", "TOP"]:
+        fail(f"structures {names}")
     for cell in lib.cells:
+        if cell.name.endswith("_MASK"):
+            for p in cell.polygons:
+                if len(p.points) > 8191:
+                    fail(f"boundary with {len(p.points)} points")
+            continue
         for p in cell.polygons:
             polys.setdefault((p.layer, p.datatype), []).append(p)
             if len(p.points) > 8191:

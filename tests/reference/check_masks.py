@@ -1,0 +1,168 @@
+"""Reads a build's mask files with independent readers from PyPI and compares them.
+
+Usage: check_masks.py OUT_DIR NAME
+
+Checks, each against an outside reference:
+- Gerber (Ucamco Gerber Layer Format Specification 2022.02, read by gerbonara): each
+  plate's file is in mm with format 4.6, carries .FileFunction, .FilePolarity and
+  .GenerationSoftware, and its dark area (dark regions united, clear regions cut out, in
+  file order, by shapely) equals the ITO area of the plate's GDSII mask structure (read by
+  gdstk) within 0.1 %; on a dark-field file (negative resist) the dark area is the field
+  minus that ITO, and the field covers the glass with margin.
+- GDSII (read by gdstk): each mask structure holds only the plate's ITO layer and its
+  glass layer; its ITO is the design structure's ITO and marks, mirrored about the glass
+  centre where the mask order says so (centroids compared), with the same area where no
+  compensation is applied and a larger one where it is.
+- PDF (ISO 32000-1, read by pypdf): films.pdf has one page per plate, each MediaBox equal
+  to the SVG film's size within 0.01 mm, and the path points of each page equal the SVG
+  film's path points in order within 0.001 mm; sheet.pdf pages are A4 or Letter or
+  larger.
+Prints one line per check; exits 1 on the first failure.
+"""
+import json
+import re
+import sys
+
+import gdstk
+import pypdf
+import shapely
+from gerbonara import GerberFile
+from shapely.geometry import Polygon
+
+PT_PER_MM = 72 / 25.4
+
+
+def fail(msg):
+    print("FAIL:", msg)
+    sys.exit(1)
+
+
+def union_of(polys):
+    return shapely.unary_union([Polygon(p).buffer(0) for p in polys if len(p) >= 3])
+
+
+def gds_layer_polys(cell, key, scale=1e-3):
+    # gdstk gives user units (um); * 1e-3 gives mm.
+    return [p.points * scale for p in cell.polygons if (p.layer, p.datatype) == key]
+
+
+def gerber_dark(path):
+    g = GerberFile.open(path)
+    if g.import_settings.number_format != (4, 6):
+        fail(f"{path}: number format {g.import_settings.number_format}")
+    dark = shapely.Polygon()
+    # Objects in file order; clear polarity removes what earlier objects darkened
+    # (Gerber specification 2022.02, polarity).
+    for o in g.objects:
+        if type(o).__name__ != "Region":
+            fail(f"{path}: unexpected object {type(o).__name__}")
+        if str(o.unit) not in ("mm", "MM") and getattr(o.unit, "shorthand", "mm") != "mm":
+            fail(f"{path}: unit {o.unit}")
+        poly = Polygon([(x, y) for x, y in o.outline]).buffer(0)
+        dark = dark.union(poly) if o.polarity_dark else dark.difference(poly)
+    return g, dark
+
+
+def svg_points(svg_text):
+    pts = []
+    for d in re.findall(r' d="([^"]*)"', svg_text):
+        nums = [float(v) for v in re.findall(r"-?\d+(?:\.\d+)?", d)]
+        pts.extend(zip(nums[0::2], nums[1::2]))
+    return pts
+
+
+def pdf_points(page, height_mm):
+    pts = []
+    ops = pypdf.generic.ContentStream(page.get_contents(), page.pdf).operations
+    for operands, op in ops:
+        if op in (b"m", b"l"):
+            x, y = float(operands[0]), float(operands[1])
+            pts.append((x / PT_PER_MM, height_mm - y / PT_PER_MM))
+    return pts
+
+
+def main(out, name):
+    report = json.load(open(f"{out}/{name}.report.json"))
+    order = json.load(open(f"{out}/{name}.masks.json"))
+    lib = gdstk.read_gds(f"{out}/{name}.gds")
+    cells = {c.name: c for c in lib.cells}
+    layer = {l["name"]: (l["gds_layer"], l["gds_datatype"]) for l in report["layers"]}
+    negative = report["resist"] == "negative"
+    for plate in order["plates"]:
+        pname = plate["plate"]
+        key = (plate["gds_layer"], plate["gds_datatype"])
+        glass_key = tuple(plate["glass_layer"])
+        if key != layer[f"{pname}_ito"]:
+            fail(f"{pname}: mask layer {key} is not {pname}_ito {layer[pname + '_ito']}")
+        mask = cells[plate["gdsii_structure"]]
+        held = {(p.layer, p.datatype) for p in mask.polygons}
+        if held != {key, glass_key}:
+            fail(f"{pname}: mask structure holds layers {held}, want only {key} and {glass_key}")
+        ito = union_of(gds_layer_polys(mask, key))
+        design_cell = cells["FRONT" if pname == "front" else "BACK"]
+        design = union_of(gds_layer_polys(design_cell, layer[f"{pname}_ito"]) + gds_layer_polys(design_cell, layer[f"{pname}_marks"]))
+        gx0, gy0, gx1, gy1 = union_of(gds_layer_polys(design_cell, layer[f"{pname}_glass"])).bounds
+        cx = ito.centroid.x
+        want_cx = (gx0 + gx1) - design.centroid.x if plate["mirrored"] else design.centroid.x
+        if abs(cx - want_cx) > 0.05:
+            fail(f"{pname}: mask centroid x {cx:.4f}, want {want_cx:.4f} (mirrored={plate['mirrored']})")
+        if plate["compensated"]:
+            if not ito.area > design.area:
+                fail(f"{pname}: compensated mask area {ito.area:.6f} not above drawn {design.area:.6f}")
+        elif abs(ito.area - design.area) > 1e-6 * design.area:
+            fail(f"{pname}: mask area {ito.area:.6f} != drawn {design.area:.6f}")
+        print(f"ok {pname} GDSII {plate['gdsii_structure']}: {ito.area:.4f} mm2 ITO, mirrored={plate['mirrored']}, compensated={plate['compensated']}")
+
+        gbr = f"{out}/{plate['gerber_file']}"
+        text = open(gbr).read()
+        for need in ("%MOMM*%", "%FSLAX46Y46*%", "%TF.FileFunction,", "%TF.GenerationSoftware,segmask", "%TF.CreationDate,"):
+            if need not in text:
+                fail(f"{gbr}: no {need}")
+        want_pol = "Negative" if negative else "Positive"
+        if f"%TF.FilePolarity,{want_pol}*%" not in text or not text.rstrip().endswith("M02*"):
+            fail(f"{gbr}: polarity attribute or M02 missing")
+        _, dark = gerber_dark(gbr)
+        if negative:
+            field = None
+            g = GerberFile.open(gbr)
+            first = g.objects[0]
+            field = Polygon(first.outline)
+            fx0, fy0, fx1, fy1 = field.bounds
+            if not (fx0 <= gx0 - 2.9 and fy0 <= gy0 - 2.9 and fx1 >= gx1 + 2.9 and fy1 >= gy1 + 2.9):
+                fail(f"{gbr}: dark field {field.bounds} does not reach past the glass {(gx0, gy0, gx1, gy1)}")
+            want = field.area - ito.area
+        else:
+            want = ito.area
+        rel = abs(dark.area - want) / want
+        if rel > 1e-3:
+            fail(f"{gbr}: dark area {dark.area:.6f} mm2, want {want:.6f} (rel {rel:.2e})")
+        print(f"ok {pname} Gerber: dark {dark.area:.4f} mm2 = {'field - ' if negative else ''}ITO (rel {rel:.1e})")
+
+    pdf = pypdf.PdfReader(f"{out}/{name}.films.pdf")
+    if len(pdf.pages) != 2:
+        fail(f"films.pdf has {len(pdf.pages)} pages")
+    for page, pname in zip(pdf.pages, ("front", "back")):
+        svg = open(f"{out}/{name}.{pname}.svg").read()
+        w = float(re.search(r'width="([\d.]+)mm"', svg).group(1))
+        h = float(re.search(r'height="([\d.]+)mm"', svg).group(1))
+        box = page.mediabox
+        pw, ph = float(box.width) / PT_PER_MM, float(box.height) / PT_PER_MM
+        if abs(pw - w) > 0.01 or abs(ph - h) > 0.01:
+            fail(f"films.pdf {pname}: page {pw:.4f} x {ph:.4f} mm, film {w} x {h} mm")
+        a, b = svg_points(svg), pdf_points(page, ph)
+        if len(a) != len(b):
+            fail(f"films.pdf {pname}: {len(b)} path points, SVG film has {len(a)}")
+        worst = max((max(abs(p[0] - q[0]), abs(p[1] - q[1])) for p, q in zip(a, b)), default=0.0)
+        if worst > 1e-3:
+            fail(f"films.pdf {pname}: a path point differs from the SVG film by {worst:.6f} mm")
+        print(f"ok films.pdf {pname}: {pw:.3f} x {ph:.3f} mm, {len(b)} points = SVG (worst {worst:.1e} mm)")
+    sheet = pypdf.PdfReader(f"{out}/{name}.sheet.pdf")
+    for i, page in enumerate(sheet.pages):
+        pw, ph = float(page.mediabox.width) / PT_PER_MM, float(page.mediabox.height) / PT_PER_MM
+        if not (pw >= 209.99 and ph >= 279.39):
+            fail(f"sheet.pdf page {i + 1}: {pw:.2f} x {ph:.2f} mm is smaller than A4/Letter")
+    print(f"ok sheet.pdf: {len(sheet.pages)} page(s)")
+
+
+if __name__ == "__main__":
+    main(sys.argv[1], sys.argv[2])
