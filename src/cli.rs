@@ -130,14 +130,11 @@ fn check(layout: &Path) -> segmask::Result<ExitCode> {
 
 fn show(layout: &Path, text: &str, on: &[String], out: &Path, dpi: f32) -> segmask::Result<ExitCode> {
     if !(dpi.is_finite() && (10.0..=4800.0).contains(&dpi)) {
-        return Err(segmask::Error::input(segmask::error::InputProblem {
-            file: "command line".into(),
-            line: None,
-            column: None,
-            key: "--dpi".into(),
-            message: format!("{dpi} dots per inch is outside the range drawn"),
-            allowed: Some("10 to 4800".into()),
-        }));
+        return Err(segmask::Error::input(segmask::error::InputProblem::on_command_line(
+            "--dpi",
+            format!("{dpi} dots per inch is outside the range drawn"),
+            "10 to 4800",
+        )));
     }
     let built = segmask::pipeline::build_layout_file(layout)?;
     print_findings(layout, &built);

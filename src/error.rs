@@ -20,6 +20,20 @@ pub struct InputProblem {
     pub allowed: Option<String>,
 }
 
+impl InputProblem {
+    /// A problem with a command-line argument (`key` is the option, e.g. `--date`).
+    pub fn on_command_line(key: &str, message: String, allowed: &str) -> InputProblem {
+        InputProblem {
+            file: "command line".into(),
+            line: None,
+            column: None,
+            key: key.into(),
+            message,
+            allowed: Some(allowed.into()),
+        }
+    }
+}
+
 impl std::fmt::Display for InputProblem {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         write!(f, "{}", self.file.display())?;

@@ -69,7 +69,7 @@ pub fn show(art: &Artwork, text: &str, on: &[String]) -> Result<Shown> {
 }
 
 fn problem(key: &str, message: String, allowed: &str) -> InputProblem {
-    InputProblem { file: "command line".into(), line: None, column: None, key: key.into(), message, allowed: Some(allowed.into()) }
+    InputProblem::on_command_line(key, message, allowed)
 }
 
 /// Where front ITO of a driven SEG net faces back ITO of its driven COM net in the

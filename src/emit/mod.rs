@@ -181,14 +181,11 @@ pub fn write_atomically(dir: &Path, files: &[OutputFile]) -> Result<()> {
 
 /// The input problem of a date that is not `YYYY-MM-DD`.
 fn bad_date(date: &str) -> Error {
-    Error::input(InputProblem {
-        file: "command line".into(),
-        line: None,
-        column: None,
-        key: "--date".into(),
-        message: format!("`{date}` is not a calendar date"),
-        allowed: Some("YYYY-MM-DD, for example 2025-03-14".into()),
-    })
+    Error::input(InputProblem::on_command_line(
+        "--date",
+        format!("`{date}` is not a calendar date"),
+        "YYYY-MM-DD, for example 2025-03-14",
+    ))
 }
 
 /// The layout name made safe as a file-name stem: path separators, control characters
