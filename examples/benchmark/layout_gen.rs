@@ -10,7 +10,7 @@
 //! the rows below, and the pad row sits under the digits on the bottom ledge.
 //!
 //! This file and the two it includes (`digit_style.rs`, `icons.rs`) use only `std`, so
-//! `tests/benchmark_layout.rs` includes it with `#[path]` and checks that what it writes
+//! `tests/cli/benchmark_layout.rs` includes it with `#[path]` and checks that what it writes
 //! is a valid layout.
 
 #[path = "digit_style.rs"]

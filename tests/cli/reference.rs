@@ -4,7 +4,7 @@
 //! and pypdf (PDF reader) — installed by this test into a virtual environment under
 //! `target/`. The test fails, never skips, when Python or the packages cannot be set up.
 
-mod demo_build;
+use crate::demo_build;
 
 use std::path::{Path, PathBuf};
 use std::process::Command;

@@ -2,7 +2,7 @@
 //! description (Calma, *GDSII Stream Format Manual*, release 6.0, 1987; record codes as
 //! listed in docs/background.md, *GDSII*), not with the library that wrote it.
 
-mod emit_fixture;
+use crate::emit_fixture;
 
 use emit_fixture::*;
 use geo::{Contains, Validation};

@@ -2,7 +2,7 @@
 //! digit 2): the picture, rasterised independently by resvg, is dark exactly where the
 //! segment map's elements for "88:88" are.
 
-mod demo_build;
+use crate::demo_build;
 
 use std::path::Path;
 use std::process::Command;

@@ -1,7 +1,7 @@
 //! The report, pin map and preview of the emit stage, which files are withheld, and
 //! atomic writing.
 
-mod emit_fixture;
+use crate::emit_fixture;
 
 use emit_fixture::*;
 use segmask::emit::{EmitOptions, OutputFile, render_outputs, write_atomically};

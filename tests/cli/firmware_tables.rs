@@ -3,7 +3,7 @@
 //! (COM, SEG) bits that the segment map (`NAME.segmap.csv`) gives the lit segments; the
 //! JSON gives the same bits for every digit's characters.
 
-mod demo_build;
+use crate::demo_build;
 
 use std::collections::{BTreeMap, BTreeSet};
 use std::path::Path;

@@ -4,7 +4,6 @@
 //! lead runs right to a transfer dot, alignment marks left of the seal, two pins and one
 //! finding. Every shape touches its neighbours at most along edges (no overlaps).
 
-#![allow(dead_code)]
 
 use segmask::artwork::*;
 use segmask::emit::EmitOptions;

@@ -6,13 +6,9 @@
 //! checks; the multiplexed ones also leave room on the ledge for the pins the assign
 //! stage really makes and for the transfer dots. No times are measured here.
 
-#[path = "../examples/benchmark/layout_gen.rs"]
-#[allow(dead_code)]
-mod layout_gen;
-#[path = "../examples/benchmark/presets.rs"]
-mod presets;
+use crate::{layout_gen, presets};
 
-use layout_gen::{Drive, Params, Style};
+use crate::layout_gen::{Drive, Params, Style};
 use segmask::layout::{DigitStyle, IconShape, Layout};
 use std::path::Path;
 use std::process::Command;

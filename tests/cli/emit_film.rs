@@ -7,7 +7,7 @@
 //! glass centred across it and 16 mm below the top edge, the ruler zero 12 mm from the
 //! left edge and 4.5 mm below the glass.
 
-mod emit_fixture;
+use crate::emit_fixture;
 
 use emit_fixture::*;
 use resvg::{tiny_skia, usvg};

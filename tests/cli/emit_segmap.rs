@@ -1,7 +1,7 @@
 //! The segment map, pin map and drive summary as the real `segmask build` writes them
 //! for a demo layout (static drive).
 
-mod demo_build;
+use crate::demo_build;
 
 use serde_json::Value;
 use std::collections::BTreeMap;
