@@ -46,6 +46,26 @@ pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch
     Some(at)
 }
 
+/// How far the dots and a pad row of centre span `span` overrun the room for them, by
+/// the spacing [`place_transfer_dots`] uses (zero or less: they fit). Dot centres lie
+/// within the seal on the pad side, pad centres within the front glass's side less the
+/// edge margin; the best of the three placements counts: all dots right of the row, all
+/// left, or the usual split (the two outer commons right, the rest left).
+pub fn room_shortfall(layout: &Layout, frame: &SideFrame, pitch: f64, commons: usize, span: f64) -> f64 {
+    let tpad = layout.transfer.pad;
+    let clear = tpad / 2.0 + pitch + layout.pads.width / 2.0;
+    let step = tpad + pitch;
+    let min_u = frame.u_back.0 + layout.seal.inset + tpad / 2.0;
+    let max_u = frame.u_back.1 - layout.seal.inset - tpad / 2.0;
+    let edge = layout.pads.edge_margin + layout.pads.width / 2.0;
+    let (first_min, last_max) = (edge, frame.side_length() - edge);
+    let k = commons.max(1) as f64;
+    let right = first_min + span + clear + step * (k - 1.0) - max_u;
+    let left = min_u + clear + step * (k - 1.0) + span - last_max;
+    let split = if commons >= 3 { min_u + span + 2.0 * clear + step * (k - 2.0) - max_u } else { f64::INFINITY };
+    right.min(left).min(split)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -63,5 +83,42 @@ mod tests {
         assert!((at[0].x - at[3].x - (layout.transfer.pad + 0.3)).abs() < 1e-9);
         let one = place_transfer_dots(&layout, &frame, &us, 0.3, 1).unwrap();
         assert!(one[0].x < 12.0);
+    }
+
+    /// `room_shortfall` is exact for the placement: with the pad span a hair under the
+    /// limit some position of the row places every dot, a hair over it none does, at 1
+    /// to 5 commons.
+    #[test]
+    fn room_shortfall_agrees_with_the_placement() {
+        let layout = crate::layout::fixture::tiny_layout();
+        let frame = SideFrame::of(&layout);
+        let edge = layout.pads.edge_margin + layout.pads.width / 2.0;
+        for commons in 1..=5 {
+            // The span at which the shortfall is zero (it grows one for one with the span).
+            let limit = -room_shortfall(&layout, &frame, 0.3, commons, 0.0);
+            assert!(limit > 0.0, "{commons} commons must fit with a one-pad row");
+            for (slack, fits) in [(1e-6, true), (-1e-6, false)] {
+                let span = limit - slack;
+                let (first_min, last_max) = (edge, frame.side_length() - edge - span);
+                let placed = (0..=400).any(|i| {
+                    let lo = first_min + (last_max - first_min) * i as f64 / 400.0;
+                    place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons).is_some()
+                }) || [first_min, last_max]
+                    .into_iter()
+                    .chain(tight_starts(&layout, &frame, commons))
+                    .filter(|lo| (first_min..=last_max).contains(lo))
+                    .any(|lo| place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons).is_some());
+                assert_eq!(placed, fits, "{commons} commons, span {span}");
+            }
+        }
+    }
+
+    /// Row starts at which the left or split placement is just possible.
+    fn tight_starts(layout: &Layout, frame: &SideFrame, commons: usize) -> Vec<f64> {
+        let tpad = layout.transfer.pad;
+        let min_u = frame.u_back.0 + layout.seal.inset + tpad / 2.0;
+        let (clear, step) = (tpad / 2.0 + 0.3 + layout.pads.width / 2.0, tpad + 0.3);
+        let k = commons as f64;
+        vec![min_u + clear + step * (k - 1.0), min_u + clear + step * (k - 3.0).max(0.0)]
     }
 }

@@ -3,7 +3,9 @@
 //!
 //! Takes the electrodes and the layout; gives every drawn lead (centre line and outline),
 //! the pad of every net, the transfer dot, and the parts of the back plate that must stay
-//! clear of ITO so that front leads face no common electrode. Three steps:
+//! clear of ITO so that front leads face no common electrode. First the capacity check
+//! (`capacity.rs`) refuses, in milliseconds and located in the layout, what the steps
+//! below cannot route; then three steps:
 //! 1. *escape* (`escape.rs`): each SEG net's pieces are joined and led to the seal band on
 //!    the pad side by maze search on a grid (search.rs), keeping the minimum gap to
 //!    everything already placed, with rip-up and retry in a new order when a net is stuck;
@@ -14,6 +16,7 @@
 //!    the window.
 
 pub mod back;
+pub mod capacity;
 pub mod corridor;
 pub mod dots;
 pub mod escape;
@@ -99,6 +102,7 @@ pub fn lead_pitch(layout: &Layout) -> f64 {
 pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     check_buses(layout, el)?;
     let frame = SideFrame::of(layout);
+    capacity::check_capacity(layout, el, &frame)?;
     let mut findings = Vec::new();
     let escapes = escape::escape_all(layout, el, &frame, &mut findings);
     let mut leads: Vec<Lead> = user_buses(layout);
