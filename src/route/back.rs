@@ -38,7 +38,18 @@ struct Common {
     net: String,
     owner: u32,
     islands: Vec<Region>,
+    /// Per island, the indices of the elements (pixels) it lies behind, for messages.
+    behind: Vec<Vec<usize>>,
     dot: Option<Polygon>,
+}
+
+/// An island that could not be joined: its common, the island and what blocked it.
+#[derive(Debug, Clone)]
+struct Stuck {
+    common: usize,
+    island: usize,
+    at: Pt,
+    blockers: Vec<u32>,
 }
 
 /// Cuts and routes every common electrode.
@@ -62,16 +73,17 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
                 islands.push(stroke_polyline(&b.points, b.width, tol));
             }
             let dot = transfers.iter().find(|t| t.net == c.net).map(|t| t.pad.clone());
-            Common { net: c.net.clone(), owner: k as u32 + 1, islands, dot }
+            let behind = islands.iter().map(|isl| elements_behind(el, k as u32, isl)).collect();
+            Common { net: c.net.clone(), owner: k as u32 + 1, islands, behind, dot }
         })
         .collect();
     let base = back_grid(layout, &leads, &commons);
     let mut search = Search::new(&base);
-    let (out, notes) = super::retry::rip_up_and_retry((0..commons.len()).collect(), ATTEMPTS, |order| {
+    let ((out, stuck), _) = super::retry::rip_up_and_retry((0..commons.len()).collect(), ATTEMPTS, |order| {
         attempt(layout, &commons, order, base.clone(), &mut search)
     })
     .unwrap_or_default();
-    findings.extend(notes);
+    findings.extend(by_cause(layout, el, &commons, &stuck));
     let kept = commons.iter().flat_map(|c| c.islands.iter().map(|r| (c.net.clone(), r.clone()))).collect();
     BackRoutes { leads: out, kept }
 }
@@ -96,12 +108,13 @@ fn islands_of(layout: &Layout, outline: &Region, cuts: &Region, pixels: &Region,
         .collect()
 }
 
-type AttemptResult = (Vec<Lead>, Vec<usize>, Vec<Finding>);
+type AttemptResult = ((Vec<Lead>, Vec<Stuck>), Vec<usize>, Vec<Finding>);
 
 fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
     let mut out = Vec::new();
     let mut failed = Vec::new();
     let mut notes = Vec::new();
+    let mut stuck_islands = Vec::new();
     let mut tree = Targets::new(&grid);
     let mut corridors = Corridors::new(&grid);
     for &k in order {
@@ -112,13 +125,15 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
             tree.add(i);
         }
         let mut ok = true;
-        for isl in nearest_first(&c.islands, dot) {
-            match join(layout, &mut grid, search, &mut corridors, c, &mut tree, isl) {
+        for i in nearest_first(&c.islands, dot) {
+            match join(layout, &mut grid, search, &mut corridors, c, &mut tree, &c.islands[i]) {
                 Ok(Some(lead)) => out.push(lead),
                 Ok(None) => {}
                 Err((at, blockers)) => {
                     ok = false;
+                    // Counted per island, so that the attempt with fewest cut-off parts wins.
                     notes.push(stuck(c, at, &blockers, commons));
+                    stuck_islands.push(Stuck { common: k, island: i, at, blockers });
                 }
             }
         }
@@ -126,7 +141,75 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
             failed.push(k);
         }
     }
-    (out, failed, notes)
+    ((out, stuck_islands), failed, notes)
+}
+
+/// The elements of common `k` whose pixels the island lies behind.
+fn elements_behind(el: &Electrodes, k: u32, island: &Region) -> Vec<usize> {
+    use geo::{BoundingRect, Intersects};
+    let Some(bb) = island.bounding_rect() else { return Vec::new() };
+    el.elements
+        .iter()
+        .zip(&el.assignment.com)
+        .enumerate()
+        .filter(|(_, (e, ck))| {
+            **ck == k && e.outline.bounding_rect().is_some_and(|r| r.intersects(&bb)) && e.outline.intersects(island)
+        })
+        .map(|(i, _)| i)
+        .collect()
+}
+
+/// One finding per cause: the stuck islands of a common blocked by the same commons
+/// become one finding at the first of them, naming every element behind them as the
+/// layout names it, with the line of its entry. A common cut off behind every digit of
+/// a row gave one finding per digit before.
+fn by_cause(layout: &Layout, el: &Electrodes, commons: &[Common], islands: &[Stuck]) -> Vec<Finding> {
+    let mut groups: Vec<(usize, Vec<u32>, Vec<&Stuck>)> = Vec::new();
+    for s in islands {
+        // The two commons the message names, in either order.
+        let mut key = s.blockers.clone();
+        key.truncate(2);
+        key.sort_unstable();
+        match groups.iter_mut().find(|(c, b, _)| *c == s.common && *b == key) {
+            Some(g) => g.2.push(s),
+            None => groups.push((s.common, key, vec![s])),
+        }
+    }
+    groups
+        .into_iter()
+        .map(|(k, blockers, members)| {
+            let c = &commons[k];
+            let mut names: Vec<String> = Vec::new();
+            let mut entries: Vec<String> = Vec::new();
+            for m in &members {
+                for &e in &c.behind[m.island] {
+                    let e = &el.elements[e];
+                    if !names.contains(&e.name) {
+                        names.push(e.name.clone());
+                    }
+                    let entry = match crate::layout::key_line(&layout.key_lines, &e.key) {
+                        Some(l) => format!("`{}` line {l}", e.key),
+                        None => format!("`{}`", e.key),
+                    };
+                    if !entries.contains(&entry) {
+                        entries.push(entry);
+                    }
+                }
+            }
+            let behind = if names.is_empty() {
+                String::new()
+            } else {
+                format!(" behind {} ({})", names.join(", "), entries.join(", "))
+            };
+            let mut f = stuck(c, members[0].at, &blockers, commons);
+            let parts = if members.len() == 1 { "a part".to_string() } else { format!("{} parts", members.len()) };
+            f.message = f.message.replacen("a part", &parts, 1);
+            if let Some(i) = f.message.find(" cannot reach") {
+                f.message.insert_str(i, &behind);
+            }
+            f
+        })
+        .collect()
 }
 
 /// The cells of a piece of ITO (a transfer dot's pad, an island of a common) where a lead
@@ -192,12 +275,13 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
     }
 }
 
-fn nearest_first<'a>(islands: &'a [Region], dot: &Polygon) -> Vec<&'a Region> {
+/// Island indices, nearest the dot first.
+fn nearest_first(islands: &[Region], dot: &Polygon) -> Vec<usize> {
     use geo::Centroid;
     let at = dot.centroid().map(|p| p.0).unwrap_or_default();
     let d2 = |r: &Region| r.centroid().map(|p| (p.0.x - at.x).powi(2) + (p.0.y - at.y).powi(2)).unwrap_or(f64::MAX);
-    let mut v: Vec<&Region> = islands.iter().collect();
-    v.sort_by(|a, b| d2(a).total_cmp(&d2(b)));
+    let mut v: Vec<usize> = (0..islands.len()).collect();
+    v.sort_by(|&a, &b| d2(&islands[a]).total_cmp(&d2(&islands[b])));
     v
 }
 

@@ -106,7 +106,9 @@ fn a_common_bus_across_a_seg_lead_fails_drive_truth_naming_the_pair() {
 
 /// Digit segment gaps of 0.2 mm leave no room at the left junction for the back lead that
 /// joins the second common of each digit (lead 0.11 mm + 2 × 0.05 mm gap, plus the grid):
-/// the build fails and names the common it cannot route.
+/// the build fails and names the common it cannot route — once for the one cause, with
+/// the elements behind the cut-off parts named as the layout names them and the line of
+/// their entry, and the check's opens folded into it.
 #[test]
 fn a_junction_too_narrow_for_the_back_lead_is_unroutable_naming_the_net() {
     let text = std::fs::read_to_string(root().join("demo-layouts/kiln-controller.yaml")).unwrap().replace("gap: 0.35", "gap: 0.2");
@@ -115,8 +117,13 @@ fn a_junction_too_narrow_for_the_back_lead_is_unroutable_naming_the_net() {
     std::fs::write(&path, text).unwrap();
     let (code, err) = build(&path, &dir.path().join("out"));
     assert_eq!(code, Some(1), "{err}");
-    let line = err.lines().find(|l| l.contains("error[unroutable]")).unwrap_or_else(|| panic!("no unroutable finding:\n{err}"));
-    assert!(line.contains("COM") || line.contains("SEG"), "{line}");
+    let lines: Vec<&str> = err.lines().filter(|l| l.contains("error[unroutable]")).collect();
+    assert_eq!(lines.len(), 1, "one finding for one cause:\n{err}");
+    let line = lines[0];
+    assert!(line.contains("parts of common electrode COM2 behind T1.b, T1.g,"), "{line}");
+    assert!(line.contains("(`digits[0]` line 29)"), "{line}");
+    assert!(line.contains("(the check confirms: 4 pieces of COM2 cut off from its pad)"), "{line}");
+    assert!(!err.contains("error[open]"), "{err}");
 }
 
 /// Two multiplexed rows, one behind the other as seen from the pads, are refused by the
