@@ -290,6 +290,19 @@ pub struct PanelArt {
     pub film_marks: Vec<(Layer, Polygon)>,
 }
 
+impl Artwork {
+    /// The cell's footprint: both glass outlines together, (x0, y0, x1, y1).
+    pub fn glass_footprint(&self) -> (f64, f64, f64, f64) {
+        let b = |p: &Polygon| {
+            p.exterior().0.iter().fold((f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY), |b, q| {
+                (b.0.min(q.x), b.1.min(q.y), b.2.max(q.x), b.3.max(q.y))
+            })
+        };
+        let (f, k) = (b(&self.front_glass), b(&self.back_glass));
+        (f.0.min(k.0), f.1.min(k.1), f.2.max(k.2), f.3.max(k.3))
+    }
+}
+
 impl PanelArt {
     /// The cut lines of one plate.
     pub fn cuts(&self, plate: PlateId) -> &[[Pt; 2]] {

@@ -188,13 +188,13 @@ pub fn film_drawing(art: &Artwork, plate: PlateId, date: &str, errors: usize) ->
 /// the glass drawn like the corner marks (a panel's cut-line ends), `name` heads the
 /// title.
 pub fn film_page(art: &Artwork, m: &MaskPlate, ticks: &[[Pt; 2]], name: &str, date: &str, errors: usize) -> Result<Drawing> {
-    let (m, plate) = (m.clone(), m.plate);
+    let plate = m.plate;
     let f = frame(&m.glass)?;
-    let mut items = content(art, &m, ticks, &f.map);
+    let mut items = content(art, m, ticks, &f.map);
 
     let avail = f.width - 2.0 * MARGIN;
     let heights = [2.5, 1.8, 1.8];
-    for (i, line) in title_lines(art, &m, name, date, errors).iter().enumerate() {
+    for (i, line) in title_lines(art, m, name, date, errors).iter().enumerate() {
         let h = fit_height(line, heights[i], avail);
         items.push(words(line, TextPlace { left: MARGIN, baseline: 4.5 + 3.2 * i as f64, height: h, mirrored: false }));
     }

@@ -8,7 +8,10 @@
 //! the regions are dark (`%LPD*%`) and the file says `.FilePolarity,Positive` (dark is
 //! ITO). Negative resist: a dark field — the glass grown by the films' field margin — is
 //! drawn first and the regions are cut out of it in clear polarity (`%LPC*%`); the file
-//! says `.FilePolarity,Negative` (dark is where no ITO stays). Regions are the hole-free
+//! says `.FilePolarity,Negative` (dark is where no ITO stays) — the specification's
+//! meaning of the attribute, checked against its text (section 5.6, *.FilePolarity*:
+//! positive, the image is the presence of material; negative, its absence;
+//! docs/background.md, *Gerber*). Regions are the hole-free
 //! rings of the GDSII writer ([`super::split`]), so coordinates are the same whole
 //! nanometres (`%FSLAX46Y46*%`, `%MOMM*%`: six decimals of a millimetre).
 

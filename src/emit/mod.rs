@@ -1,10 +1,11 @@
 //! Stage `emit`: `Artwork` + findings → output files.
 //!
 //! Takes the artwork and the findings, gives the bytes of every output file (films as
-//! SVG and PDF, the print sheet, Gerber, preview, GDSII, the mask order, pin map, segment
-//! map, report) and writes them atomically. Every output is one row of [`OUTPUTS`]: its
-//! file suffix, whether it is a mask (withheld while rule errors stand, decided once in
-//! [`render_outputs`]) and its writer. What a mask carries — mirrored or not, compensated
+//! SVG, PDF and PNG, the print sheet, Gerber, preview, GDSII, the mask order, the panel's
+//! files and its cut lines as DXF, pin map, segment map, report) and writes them
+//! atomically. Every output is one row of [`OUTPUTS`]: its file suffix, whether it is a
+//! mask (withheld while rule errors stand, decided once in [`render_outputs`]), whether it
+//! belongs to a panel (written only when the layout has one) and its writer. What a mask carries — mirrored or not, compensated
 //! or not — is decided once in [`mask`] for every mask writer. Writers never compute
 //! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the one
 //! exception is cutting polygons into hole-free pieces ([`split`]), which GDSII and Gerber

@@ -31,8 +31,10 @@ pub fn rasterise(svg: &[u8], dpi: f32) -> Result<(u32, u32, Vec<u8>)> {
     let tree = resvg::usvg::Tree::from_data(svg, &resvg::usvg::Options::default())
         .map_err(|e| Error::Bug(format!("film SVG does not parse: {e}")))?;
     let size = tree.size();
-    let px_per_mm = 96.0 / MM_PER_INCH;
-    let (w, h) = pixel_size(size.width() as f64 / px_per_mm, size.height() as f64 / px_per_mm, dpi);
+    // usvg keeps the page in f32 CSS pixels; back to mm, rounded to 1 µm, so that a
+    // whole number of pixels is not rounded up to one more.
+    let mm = |px: f32| (px as f64 * MM_PER_INCH / 96.0 * 1e3).round() / 1e3;
+    let (w, h) = pixel_size(mm(size.width()), mm(size.height()), dpi);
     if w as u64 * h as u64 > MAX_PIXELS {
         return Err(Error::input(crate::error::InputProblem::on_command_line(
             "--png-dpi",

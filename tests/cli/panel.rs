@@ -9,7 +9,7 @@ use crate::demo_build::build_demo;
 use std::path::Path;
 use std::process::Command;
 
-const NAME: &str = "coupon-panel";
+const NAME: &str = "coupons";
 const PANEL_FILES: [&str; 7] =
     ["panel.front.svg", "panel.back.svg", "panel.pdf", "panel.front.gbr", "panel.back.gbr", "panel.gds", "panel.cuts.dxf"];
 
@@ -38,7 +38,7 @@ fn panel_files_are_written_repeatably_and_only_for_panels() {
         assert!(a == b, "{name} differs between two builds of the same input and date");
     }
     let svg = std::fs::read_to_string(shared.join(format!("{NAME}.panel.front.svg"))).unwrap();
-    // The demo's substrate is 90 mm wide (demo-layouts/coupon-panel.yaml).
+    // The demo's substrate is 90 mm wide (demo-layouts/coupons.yaml).
     assert!(svg.contains("width=\"114mm\""), "panel film page width: {}", &svg[..300]);
     let (_d, plain) = build_demo("etch-test-plate");
     let stray: Vec<_> = std::fs::read_dir(plain).unwrap().filter_map(|e| {

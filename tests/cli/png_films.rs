@@ -1,4 +1,4 @@
-//! PNG films: the shared build of the panel demo (`coupon-panel`, positive resist,
+//! PNG films: the shared build of the panel demo (`coupons`, positive resist,
 //! compensated) writes each plate's film as an 8-bit greyscale PNG at the default
 //! resolution, sized and tagged by the PNG specification; and the film, rasterised at
 //! 2400 dpi by resvg, has no ink within the edge clearance of the glass edge except the
@@ -13,8 +13,8 @@
 use crate::demo_build::build_demo;
 use resvg::{tiny_skia, usvg};
 
-const NAME: &str = "coupon-panel";
-/// The demo's glass, mm (demo-layouts/coupon-panel.yaml): front 24 × 18, back 24 × 15.
+const NAME: &str = "coupons";
+/// The demo's glass, mm (demo-layouts/coupons.yaml): front 24 × 18, back 24 × 15.
 const GLASS: [(&str, f64, f64); 2] = [("front", 24.0, 18.0), ("back", 24.0, 15.0)];
 /// Its pads, mm wide (same file), and the film bias: grown 5 µm per edge.
 const PAD_WIDTH: f64 = 0.8 + 2.0 * 0.005;

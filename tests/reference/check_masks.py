@@ -133,22 +133,7 @@ def main(out, name):
         want_pol = "Negative" if negative else "Positive"
         if f"%TF.FilePolarity,{want_pol}*%" not in text or not text.rstrip().endswith("M02*"):
             fail(f"{gbr}: polarity attribute or M02 missing")
-        _, dark = gerber_dark(gbr)
-        if negative:
-            field = None
-            g = GerberFile.open(gbr)
-            first = g.objects[0]
-            field = Polygon(first.outline)
-            fx0, fy0, fx1, fy1 = field.bounds
-            if not (fx0 <= gx0 - 2.9 and fy0 <= gy0 - 2.9 and fx1 >= gx1 + 2.9 and fy1 >= gy1 + 2.9):
-                fail(f"{gbr}: dark field {field.bounds} does not reach past the glass {(gx0, gy0, gx1, gy1)}")
-            want = field.area - ito.area
-        else:
-            want = ito.area
-        rel = abs(dark.area - want) / want
-        if rel > 1e-3:
-            fail(f"{gbr}: dark area {dark.area:.6f} mm2, want {want:.6f} (rel {rel:.2e})")
-        print(f"ok {pname} Gerber: dark {dark.area:.4f} mm2 = {'field - ' if negative else ''}ITO (rel {rel:.1e})")
+        check_gerber_area(gbr, ito, negative, (gx0, gy0, gx1, gy1), f"{pname} Gerber")
 
     check_pdf(f"{out}/{name}.films.pdf", [f"{out}/{name}.{p}.svg" for p in ("front", "back")])
     if os.path.exists(f"{out}/{name}.panel.gds"):
@@ -161,6 +146,25 @@ def main(out, name):
     print(f"ok sheet.pdf: {len(sheet.pages)} page(s)")
 
 
+def check_gerber_area(gbr, ito, negative, glass, what):
+    """The Gerber file's dark area equals the ITO (positive) or the dark field minus the
+    ITO (negative; the field, the first region, must reach 2.9 mm past the glass box)."""
+    _, dark = gerber_dark(gbr)
+    if negative:
+        field = Polygon(GerberFile.open(gbr).objects[0].outline)
+        fx0, fy0, fx1, fy1 = field.bounds
+        gx0, gy0, gx1, gy1 = glass
+        if not (fx0 <= gx0 - 2.9 and fy0 <= gy0 - 2.9 and fx1 >= gx1 + 2.9 and fy1 >= gy1 + 2.9):
+            fail(f"{gbr}: dark field {field.bounds} does not reach past the glass {glass}")
+        want = field.area - ito.area
+    else:
+        want = ito.area
+    rel = abs(dark.area - want) / want
+    if rel > 1e-3:
+        fail(f"{gbr}: dark area {dark.area:.6f} mm2, want {want:.6f} (rel {rel:.2e})")
+    print(f"ok {what}: dark {dark.area:.4f} mm2 = {'field - ' if negative else ''}ITO (rel {rel:.1e})")
+
+
 def check_panel(out, name, order, report, layer, negative):
     lib = gdstk.read_gds(f"{out}/{name}.panel.gds")
     cells = {c.name: c for c in lib.cells}
@@ -169,6 +173,10 @@ def check_panel(out, name, order, report, layer, negative):
     if dxf.header.get("$INSUNITS") != 4:
         fail(f"panel.cuts.dxf: $INSUNITS {dxf.header.get('$INSUNITS')}, want 4 (mm)")
     lines = list(dxf.modelspace().query("LINE"))
+    # The mask order names the panel's structures and every cell's place.
+    po = order.get("panel")
+    if not po or po["gdsii_structures"] != ["FRONT_PANEL", "BACK_PANEL"] or po["cut_lines_dxf"] != f"{name}.panel.cuts.dxf":
+        fail(f"masks.json: panel entry {po}")
     flat_ito = {}
     for plate in order["plates"]:
         pname = plate["plate"]
@@ -176,7 +184,7 @@ def check_panel(out, name, order, report, layer, negative):
         glass_key = tuple(plate["glass_layer"])
         panel = cells[f"{pname.upper()}_PANEL"]
         refs = list(panel.references)
-        if not refs or any(r.cell.name != plate["gdsii_structure"] for r in refs):
+        if len(refs) != po["rows"] * po["columns"] or len(po["cell_origins_mm"]) != len(refs) or any(r.cell.name != plate["gdsii_structure"] for r in refs):
             fail(f"{pname} panel: references {[r.cell.name for r in refs]}, want {plate['gdsii_structure']}")
         marks = union_of(gds_layer_polys(panel, key))
         cell_ito = union_of(gds_layer_polys(cells[plate["gdsii_structure"]], key))
@@ -190,16 +198,7 @@ def check_panel(out, name, order, report, layer, negative):
         print(f"ok {pname} panel GDSII: {len(refs)} cells, {ito.area:.4f} mm2 ITO = cells + marks")
         flat_ito[pname] = (ito, cell_ito, plate, (sx0 + sx1) / 2, len(refs))
         gbr = f"{out}/{name}.panel.{pname}.gbr"
-        _, dark = gerber_dark(gbr)
-        if negative:
-            field = Polygon(GerberFile.open(gbr).objects[0].outline)
-            want = field.area - ito.area
-        else:
-            want = ito.area
-        rel = abs(dark.area - want) / want
-        if rel > 1e-3:
-            fail(f"{gbr}: dark area {dark.area:.6f} mm2, want {want:.6f} (rel {rel:.2e})")
-        print(f"ok {pname} panel Gerber: dark {dark.area:.4f} mm2 (rel {rel:.1e})")
+        check_gerber_area(gbr, ito, negative, (sx0, sy0, sx1, sy1), f"{pname} panel Gerber")
         # Cut lines against the cell glass edges of the panel GDSII.
         glass_polys = [p for p in gds_layer_polys(flat, glass_key)]
         edges_x, edges_y = set(), set()
