@@ -836,4 +836,13 @@ pub struct Panel {
 impl Panel {
     /// Room the panel keeps on every side of the cell array for its alignment marks, mm.
     pub const BORDER: f64 = 5.0;
+    /// Outer size of a panel alignment mark, mm; each is centred `BORDER / 2` in from a
+    /// substrate corner.
+    pub const MARK: f64 = 2.0;
+
+    /// The widest scribe lane that keeps clear of the panel's marks: every cut line lies
+    /// at least `BORDER` from the substrate edge, the marks reach `(BORDER + MARK) / 2`.
+    pub fn widest_lane() -> f64 {
+        2.0 * (Panel::BORDER - (Panel::BORDER + Panel::MARK) / 2.0)
+    }
 }

@@ -17,7 +17,7 @@ use crate::geom::{Polygon, pt, rect};
 use crate::layout::{Layout, Panel, PlateId};
 
 /// Outer size of a panel alignment mark, mm.
-pub const PANEL_MARK: f64 = 2.0;
+pub const PANEL_MARK: f64 = Panel::MARK;
 
 /// The panel of a layout that asks for one.
 pub fn panel_art(layout: &Layout) -> Option<PanelArt> {

@@ -45,6 +45,13 @@ pub fn panel(p: &mut Problems, r: &RawPanel, glass: &Glass, rules: &Rules) -> Op
             &format!("at most twice rules.edge_clearance: {}", mm(2.0 * rules.edge_clearance)),
         );
     }
+    if p.clean(&["panel.scribe_lane"]) && scribe_lane > Panel::widest_lane() + 1e-9 {
+        p.bad(
+            "panel.scribe_lane",
+            format!("a {} lane reaches the panel's alignment marks in the substrate corners", mm(scribe_lane)),
+            &format!("at most {}", mm(Panel::widest_lane())),
+        );
+    }
     let (x0, y0, x1, y1) = glass.footprint();
     for (key, n, cell, have, across) in
         [("panel.substrate.width", columns, x1 - x0, width, "columns"), ("panel.substrate.height", rows, y1 - y0, height, "rows")]

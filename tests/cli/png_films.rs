@@ -58,6 +58,27 @@ fn runs(row: &[u8]) -> Vec<(usize, usize)> {
     out
 }
 
+/// A resolution outside the range drawn is an input error naming the option, and
+/// nothing is written (the layout is not even read).
+#[test]
+fn png_dpi_out_of_range_is_refused() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("out");
+    let layout = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo-layouts").join(format!("{NAME}.yaml"));
+    let o = std::process::Command::new(env!("CARGO_BIN_EXE_segmask"))
+        .arg("build")
+        .arg(layout)
+        .arg("--out")
+        .arg(&out)
+        .args(["--png-dpi", "5"])
+        .output()
+        .unwrap();
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert_eq!(o.status.code(), Some(2), "{err}");
+    assert!(err.contains("--png-dpi") && err.contains("10 to 4800"), "{err}");
+    assert!(!out.exists());
+}
+
 #[test]
 fn png_films_are_sized_and_the_glass_edge_is_clear_but_pads() {
     let (_dir, out) = build_demo(NAME);
