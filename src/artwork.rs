@@ -264,6 +264,53 @@ pub struct Artwork {
     pub film_shapes: Vec<Shape>,
     /// Problems found while generating (unroutable leads and the like).
     pub generation_findings: Vec<Finding>,
+    /// The panel, when the layout asks for several cells on one substrate.
+    pub panel: Option<PanelArt>,
+}
+
+/// Several cells on one substrate, in the *panel frame*: the viewer's frame of the whole
+/// substrate, origin at its lower-left corner, mm (docs/outputs.md, *Panels*).
+#[derive(Debug, Clone)]
+pub struct PanelArt {
+    /// The layout's `panel:`.
+    pub panel: crate::layout::Panel,
+    /// The substrate outline (both plates' substrates are this size).
+    pub substrate: Polygon,
+    /// Where each cell's front-plate frame origin lies in the panel frame, rows from the
+    /// bottom, each row left to right.
+    pub offsets: Vec<Pt>,
+    /// Cut lines of the front plate, each across the whole substrate.
+    pub front_cuts: Vec<[Pt; 2]>,
+    /// Cut lines of the back plate, each across the whole substrate.
+    pub back_cuts: Vec<[Pt; 2]>,
+    /// The panel's alignment marks, on `FrontMarks` and `BackMarks`, as drawn.
+    pub marks: Vec<(Layer, Polygon)>,
+    /// The same marks as the masks carry them: grown by the film bias when the rules ask
+    /// for etch compensation, else as drawn.
+    pub film_marks: Vec<(Layer, Polygon)>,
+}
+
+impl Artwork {
+    /// The cell's footprint: both glass outlines together, (x0, y0, x1, y1).
+    pub fn glass_footprint(&self) -> (f64, f64, f64, f64) {
+        let b = |p: &Polygon| {
+            p.exterior().0.iter().fold((f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY), |b, q| {
+                (b.0.min(q.x), b.1.min(q.y), b.2.max(q.x), b.3.max(q.y))
+            })
+        };
+        let (f, k) = (b(&self.front_glass), b(&self.back_glass));
+        (f.0.min(k.0), f.1.min(k.1), f.2.max(k.2), f.3.max(k.3))
+    }
+}
+
+impl PanelArt {
+    /// The cut lines of one plate.
+    pub fn cuts(&self, plate: PlateId) -> &[[Pt; 2]] {
+        match plate {
+            PlateId::Front => &self.front_cuts,
+            PlateId::Back => &self.back_cuts,
+        }
+    }
 }
 
 impl Artwork {

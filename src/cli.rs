@@ -35,6 +35,9 @@ enum Command {
         /// Print the time each stage took.
         #[arg(long)]
         timings: bool,
+        /// Resolution of the PNG films, dots per inch.
+        #[arg(long, default_value_t = segmask::emit::DEFAULT_PNG_DPI)]
+        png_dpi: f32,
     },
     /// Build the artwork in memory and print the findings; writes nothing.
     Check {
@@ -85,8 +88,8 @@ enum DumpWhat {
 pub fn run() -> ExitCode {
     let cli = Cli::parse();
     let result = match cli.command {
-        Command::Build { layout, out, masks_despite_errors, date, timings } => {
-            build(&layout, &out, masks_despite_errors, date, timings)
+        Command::Build { layout, out, masks_despite_errors, date, timings, png_dpi } => {
+            build(&layout, &out, masks_despite_errors, date, timings, png_dpi)
         }
         Command::Check { layout } => check(&layout),
         Command::Show { layout, text, on, out, dpi } => show(&layout, &text, &on, &out, dpi),
@@ -101,7 +104,8 @@ pub fn run() -> ExitCode {
     }
 }
 
-fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: bool) -> segmask::Result<ExitCode> {
+fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: bool, png_dpi: f32) -> segmask::Result<ExitCode> {
+    check_dpi("--png-dpi", png_dpi)?;
     let built = segmask::pipeline::build_layout_file(layout)?;
     if timings {
         for (stage, d) in &built.timings {
@@ -110,7 +114,7 @@ fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: 
     }
     print_findings(layout, &built);
     let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
-    let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks };
+    let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
     let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts)?;
     segmask::emit::write_atomically(out, &files)?;
     for f in &files {
@@ -129,13 +133,7 @@ fn check(layout: &Path) -> segmask::Result<ExitCode> {
 }
 
 fn show(layout: &Path, text: &str, on: &[String], out: &Path, dpi: f32) -> segmask::Result<ExitCode> {
-    if !(dpi.is_finite() && (10.0..=4800.0).contains(&dpi)) {
-        return Err(segmask::Error::input(segmask::error::InputProblem::on_command_line(
-            "--dpi",
-            format!("{dpi} dots per inch is outside the range drawn"),
-            "10 to 4800",
-        )));
-    }
+    check_dpi("--dpi", dpi)?;
     let built = segmask::pipeline::build_layout_file(layout)?;
     print_findings(layout, &built);
     let art = &built.artwork;
@@ -153,6 +151,18 @@ fn show(layout: &Path, text: &str, on: &[String], out: &Path, dpi: f32) -> segma
         eprintln!("wrote {}", out.join(&f.name).display());
     }
     Ok(exit_for(&built.findings))
+}
+
+/// A resolution option must lie in the range the rasteriser is used for.
+fn check_dpi(flag: &str, dpi: f32) -> segmask::Result<()> {
+    if dpi.is_finite() && (10.0..=4800.0).contains(&dpi) {
+        return Ok(());
+    }
+    Err(segmask::Error::input(segmask::error::InputProblem::on_command_line(
+        flag,
+        format!("{dpi} dots per inch is outside the range drawn"),
+        "10 to 4800",
+    )))
 }
 
 fn dump(what: DumpWhat, layout: &Path) -> segmask::Result<ExitCode> {

@@ -138,6 +138,15 @@ pub struct Glass {
     pub back: Rect,
 }
 
+impl Glass {
+    /// The footprint of one cell: both glass outlines together, (x0, y0, x1, y1) in the
+    /// front-plate frame.
+    pub fn footprint(&self) -> (f64, f64, f64, f64) {
+        let (f, b) = (self.front, self.back);
+        (f.x.min(b.x), f.y.min(b.y), f.x1().max(b.x1()), f.y1().max(b.y1()))
+    }
+}
+
 /// One side of a rectangle.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub enum Side {
@@ -792,10 +801,48 @@ pub struct MaskOptions {
     pub sheet: Sheet,
     /// Copies of each plate's film on the printable sheet.
     pub copies: u32,
+    /// Several cells on one substrate (`panel:`), when the layout asks for a panel.
+    pub panel: Option<Panel>,
 }
 
 impl Default for MaskOptions {
     fn default() -> Self {
-        MaskOptions { process: Process::PhotoplotFilm, mirror: true, sheet: Sheet::A4, copies: 1 }
+        MaskOptions { process: Process::PhotoplotFilm, mirror: true, sheet: Sheet::A4, copies: 1, panel: None }
+    }
+}
+
+/// A panel: `rows` × `columns` copies of the cell on one substrate per plate, in the
+/// viewer's frame (docs/outputs.md, *Panels*). Cells are stepped by the cell's footprint
+/// (both glass outlines together) plus `spacing`; the array is centred on the substrate.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Panel {
+    /// Cells along y.
+    pub rows: u32,
+    /// Cells along x.
+    pub columns: u32,
+    /// Clear space between the footprints of neighbouring cells, mm (0: neighbours share
+    /// their cut lines).
+    pub spacing: f64,
+    /// Width of the lane centred on every cut line in which nothing of the panel's own
+    /// (alignment marks, label) may lie, mm; half of it may reach into a cell, which the
+    /// cell's edge clearance must hold.
+    pub scribe_lane: f64,
+    /// Substrate width, mm.
+    pub width: f64,
+    /// Substrate height, mm.
+    pub height: f64,
+}
+
+impl Panel {
+    /// Room the panel keeps on every side of the cell array for its alignment marks, mm.
+    pub const BORDER: f64 = 5.0;
+    /// Outer size of a panel alignment mark, mm; each is centred `BORDER / 2` in from a
+    /// substrate corner.
+    pub const MARK: f64 = 2.0;
+
+    /// The widest scribe lane that keeps clear of the panel's marks: every cut line lies
+    /// at least `BORDER` from the substrate edge, the marks reach `(BORDER + MARK) / 2`.
+    pub fn widest_lane() -> f64 {
+        2.0 * (Panel::BORDER - (Panel::BORDER + Panel::MARK) / 2.0)
     }
 }

@@ -75,7 +75,7 @@ pub struct Measured {
 
 /// Builds `layout` `repeat` times (at least once) and collects the times.
 pub fn measure(layout: &Path, repeat: u32) -> segmask::Result<Measured> {
-    let opts = segmask::emit::EmitOptions { date: "2000-01-01".into(), masks_despite_errors: true };
+    let opts = segmask::emit::EmitOptions { date: "2000-01-01".into(), masks_despite_errors: true, png_dpi: segmask::emit::DEFAULT_PNG_DPI };
     let mut stages: Vec<StageTimes> = Vec::new();
     let mut totals = Vec::new();
     let mut counts = Counts::default();

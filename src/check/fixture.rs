@@ -141,6 +141,7 @@ pub fn clean() -> Artwork {
         film_shapes: vec![],
         layers: LayerMap::defaults(),
         generation_findings: vec![],
+        panel: None,
     }
 }
 

@@ -117,10 +117,12 @@ pub fn corner_marks(glass: &Polygon) -> Vec<[Pt; 2]> {
     out
 }
 
-/// The mask content in the plate's tone: etched shapes, corner marks and labels.
-fn content(art: &Artwork, m: &MaskPlate, map: &PageMap) -> Vec<Item> {
+/// The mask content in the plate's tone: etched shapes, corner marks (and any other
+/// marks outside the glass, `ticks`) and labels.
+fn content(art: &Artwork, m: &MaskPlate, ticks: &[[Pt; 2]], map: &PageMap) -> Vec<Item> {
     let ito = rings(&m.etched, map);
-    let marks: Vec<Vec<PagePt>> = corner_marks(&m.glass).iter().map(|s| s.iter().map(|p| map.apply(*p)).collect()).collect();
+    let marks: Vec<Vec<PagePt>> =
+        corner_marks(&m.glass).iter().chain(ticks).map(|s| s.iter().map(|p| map.apply(*p)).collect()).collect();
     let (fill, mark_paint) = match art.resist {
         // Clear-field: ink where ITO stays; non-zero rule with holes wound against their
         // outer rings, so shapes that merely touch never cancel.
@@ -143,8 +145,9 @@ fn content(art: &Artwork, m: &MaskPlate, map: &PageMap) -> Vec<Item> {
     items
 }
 
-/// The title lines (they read normally on the printed side).
-fn title_lines(art: &Artwork, m: &MaskPlate, date: &str, errors: usize) -> Vec<String> {
+/// The title lines (they read normally on the printed side); `name` is what the film is
+/// of (the layout's name, or its panel).
+fn title_lines(art: &Artwork, m: &MaskPlate, name: &str, date: &str, errors: usize) -> Vec<String> {
     let tone = match art.resist {
         Resist::Positive => "CLEAR-FIELD",
         Resist::Negative => "DARK-FIELD",
@@ -152,7 +155,7 @@ fn title_lines(art: &Artwork, m: &MaskPlate, date: &str, errors: usize) -> Vec<S
     let reading = if m.mirrored { "PRINTED MIRRORED" } else { "PRINTED AS THE VIEWER SEES IT" };
     let grown = if m.compensated { format!(" - GROWN {:.1} UM PER EDGE FOR ETCH", m.bias * 1000.0) } else { String::new() };
     let mut lines = vec![
-        format!("{} - {} FILM", art.name, plate_words(m.plate)),
+        format!("{name} - {} FILM", plate_words(m.plate)),
         format!("{tone} FOR {} RESIST - {reading} - 1:1{grown} - {date}", resist_name(art.resist)),
     ];
     if errors > 0 {
@@ -178,13 +181,20 @@ fn words(s: &str, at: TextPlace) -> Item {
 /// The film of one plate as a drawing. `errors` is the number of rule errors standing
 /// (printed on the film when masks are made despite them).
 pub fn film_drawing(art: &Artwork, plate: PlateId, date: &str, errors: usize) -> Result<Drawing> {
-    let m = mask_plate(art, plate, contact_mirrored(plate));
+    film_page(art, &mask_plate(art, plate, contact_mirrored(plate)), &[], &art.name, date, errors)
+}
+
+/// The film page of a mask (a cell's or a panel's): `ticks` are further marks outside
+/// the glass drawn like the corner marks (a panel's cut-line ends), `name` heads the
+/// title.
+pub fn film_page(art: &Artwork, m: &MaskPlate, ticks: &[[Pt; 2]], name: &str, date: &str, errors: usize) -> Result<Drawing> {
+    let plate = m.plate;
     let f = frame(&m.glass)?;
-    let mut items = content(art, &m, &f.map);
+    let mut items = content(art, m, ticks, &f.map);
 
     let avail = f.width - 2.0 * MARGIN;
     let heights = [2.5, 1.8, 1.8];
-    for (i, line) in title_lines(art, &m, date, errors).iter().enumerate() {
+    for (i, line) in title_lines(art, m, name, date, errors).iter().enumerate() {
         let h = fit_height(line, heights[i], avail);
         items.push(words(line, TextPlace { left: MARGIN, baseline: 4.5 + 3.2 * i as f64, height: h, mirrored: false }));
     }
@@ -216,7 +226,7 @@ pub fn film_drawing(art: &Artwork, plate: PlateId, date: &str, errors: usize) ->
         items.push(words(&line, TextPlace { left: MARGIN, baseline: by, height: h, mirrored: false }));
         by += 2.8;
     }
-    Ok(Drawing { width: f.width, height: f.height, title: format!("{} {} film", art.name, plate.name()), items })
+    Ok(Drawing { width: f.width, height: f.height, title: format!("{name} {} film", plate.name()), items })
 }
 
 /// The SVG film of one plate.

@@ -58,7 +58,13 @@ impl Cell {
 
     /// Adds a reference to another structure, placed at the origin, unrotated.
     pub fn reference(&mut self, name: &str) {
-        let r = GdsStructRef { name: gds_name(name), xy: GdsPoint::new(0, 0), ..Default::default() };
+        self.reference_at(name, crate::geom::pt(0.0, 0.0));
+    }
+
+    /// Adds a reference to another structure with its origin at `at` (mm, snapped to
+    /// 1 nm), unrotated and unreflected.
+    pub fn reference_at(&mut self, name: &str, at: Pt) {
+        let r = GdsStructRef { name: gds_name(name), xy: GdsPoint::new(nm(at.x), nm(at.y)), ..Default::default() };
         self.elems.push(r.into());
     }
 }

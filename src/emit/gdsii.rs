@@ -39,7 +39,7 @@ pub fn mask_mirrored(art: &Artwork, plate: PlateId) -> bool {
 
 /// The mask structure of one plate: its etched polygons on its ITO layer and its glass
 /// outline on its glass layer.
-fn mask_cell(art: &Artwork, plate: PlateId) -> Result<Cell> {
+pub(super) fn mask_cell(art: &Artwork, plate: PlateId) -> Result<Cell> {
     let m = mask_plate(art, plate, mask_mirrored(art, plate));
     let mut cell = Cell::new(mask_structure(plate));
     let ito = art.gds_layer(Layer::ito(plate));

@@ -8,7 +8,10 @@
 //! the regions are dark (`%LPD*%`) and the file says `.FilePolarity,Positive` (dark is
 //! ITO). Negative resist: a dark field — the glass grown by the films' field margin — is
 //! drawn first and the regions are cut out of it in clear polarity (`%LPC*%`); the file
-//! says `.FilePolarity,Negative` (dark is where no ITO stays). Regions are the hole-free
+//! says `.FilePolarity,Negative` (dark is where no ITO stays) — the specification's
+//! meaning of the attribute, checked against its text (section 5.6, *.FilePolarity*:
+//! positive, the image is the presence of material; negative, its absence;
+//! docs/background.md, *Gerber*). Regions are the hole-free
 //! rings of the GDSII writer ([`super::split`]), so coordinates are the same whole
 //! nanometres (`%FSLAX46Y46*%`, `%MOMM*%`: six decimals of a millimetre).
 
@@ -69,6 +72,13 @@ fn function_words(plate: PlateId) -> String {
 /// The Gerber file of one plate. `date` becomes `.CreationDate` (midnight UTC).
 pub fn render_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
     let m = mask_plate(art, plate, art.masks.mirror && super::mask::contact_mirrored(plate));
+    gerber_of_mask(art, &m, &function_words(plate), date)
+}
+
+/// The Gerber file of a mask (a cell's or a panel's); `function` is the free text of
+/// `.FileFunction,Other,…`.
+pub fn gerber_of_mask(art: &Artwork, m: &MaskPlate, function: &str, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
+    let plate = m.plate;
     let polarity = match art.resist {
         Resist::Positive => FilePolarity::Positive,
         Resist::Negative => FilePolarity::Negative,
@@ -76,10 +86,10 @@ pub fn render_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime)
     let stamp = chrono::DateTime::<chrono::FixedOffset>::from_naive_utc_and_offset(date, chrono::FixedOffset::east_opt(0).unwrap_or_else(|| unreachable!()));
     let mut cmds = vec![
         comment(format!("{} {} plate mask, made by segmask", super::gds::gds_name(&art.name), plate.name())),
-        comment(describe(art, &m)),
+        comment(describe(art, m)),
         ext(FileAttribute::GenerationSoftware(GenerationSoftware::new("segmask", "segmask", Some(env!("CARGO_PKG_VERSION"))))),
         ext(FileAttribute::CreationDate(stamp)),
-        ext(FileAttribute::FileFunction(FileFunction::Other(function_words(plate)))),
+        ext(FileAttribute::FileFunction(FileFunction::Other(function.to_string()))),
         ext(FileAttribute::FilePolarity(polarity)),
         ext(format()),
         ext(Unit::Millimeters),
@@ -88,7 +98,7 @@ pub fn render_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime)
     match art.resist {
         Resist::Positive => cmds.push(ext(Polarity::Dark)),
         Resist::Negative => {
-            let (x0, y0, x1, y1) = dark_field(&m);
+            let (x0, y0, x1, y1) = dark_field(m);
             cmds.push(ext(Polarity::Dark));
             for ring in boundary_rings(&rect(x0, y0, x1, y1))? {
                 region(&ring, &mut cmds);

@@ -71,7 +71,7 @@ pub fn bbox(p: &Polygon) -> (f64, f64, f64, f64) {
 
 /// `p` mirrored about the vertical line `x = axis / 2` (x → axis − x), outer ring
 /// counter-clockwise again.
-fn mirror_polygon(p: &Polygon, axis: f64) -> Polygon {
+pub(crate) fn mirror_polygon(p: &Polygon, axis: f64) -> Polygon {
     let flip = |r: &geo::LineString<f64>| geo::LineString::from(r.0.iter().map(|q| pt(axis - q.x, q.y)).collect::<Vec<_>>());
     orient_ccw(&Polygon::new(flip(p.exterior()), p.interiors().iter().map(flip).collect()))
 }
@@ -103,6 +103,27 @@ pub fn mask_plate(art: &Artwork, plate: PlateId, mirror: bool) -> MaskPlate {
         glass: place(glass),
         glass_box,
         labels,
+    }
+}
+
+/// The whole mask mirrored about the centre of its glass box (x → x0 + x1 − x): etched
+/// polygons, glass and labels, each label's strokes reversed too.
+pub fn mirror_mask(m: MaskPlate) -> MaskPlate {
+    let axis = m.glass_box.0 + m.glass_box.2;
+    let labels = m
+        .labels
+        .into_iter()
+        .map(|l| {
+            let w = super::text::text_width(&l.text, l.height);
+            MaskLabel { at: pt(axis - l.at.x - w, l.at.y), mirrored: !l.mirrored, ..l }
+        })
+        .collect();
+    MaskPlate {
+        mirrored: !m.mirrored,
+        etched: m.etched.iter().map(|p| mirror_polygon(p, axis)).collect(),
+        glass: mirror_polygon(&m.glass, axis),
+        labels,
+        ..m
     }
 }
 

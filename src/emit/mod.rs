@@ -1,10 +1,11 @@
 //! Stage `emit`: `Artwork` + findings → output files.
 //!
 //! Takes the artwork and the findings, gives the bytes of every output file (films as
-//! SVG and PDF, the print sheet, Gerber, preview, GDSII, the mask order, pin map, segment
-//! map, report) and writes them atomically. Every output is one row of [`OUTPUTS`]: its
-//! file suffix, whether it is a mask (withheld while rule errors stand, decided once in
-//! [`render_outputs`]) and its writer. What a mask carries — mirrored or not, compensated
+//! SVG, PDF and PNG, the print sheet, Gerber, preview, GDSII, the mask order, the panel's
+//! files and its cut lines as DXF, pin map, segment map, report) and writes them
+//! atomically. Every output is one row of [`OUTPUTS`]: its file suffix, whether it is a
+//! mask (withheld while rule errors stand, decided once in [`render_outputs`]), whether it
+//! belongs to a panel (written only when the layout has one) and its writer. What a mask carries — mirrored or not, compensated
 //! or not — is decided once in [`mask`] for every mask writer. Writers never compute
 //! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the one
 //! exception is cutting polygons into hole-free pieces ([`split`]), which GDSII and Gerber
@@ -13,6 +14,7 @@
 mod csv;
 pub mod drawing;
 mod drive_info;
+mod dxf;
 mod files;
 pub mod film;
 pub mod firmware_c;
@@ -23,7 +25,9 @@ mod gerber;
 pub mod mask;
 mod order;
 mod page;
+pub mod panel;
 pub mod pdf;
+pub mod png;
 mod pins;
 mod preview;
 mod report;
@@ -61,7 +65,13 @@ pub struct EmitOptions {
     pub date: String,
     /// Write films and GDSII even though findings include errors.
     pub masks_despite_errors: bool,
+    /// Resolution of the PNG films, dots per inch.
+    pub png_dpi: f32,
 }
+
+/// Resolution of the PNG films when none is asked for, dots per inch: a common laser
+/// printer's (*common practice*), and small enough to write quickly.
+pub const DEFAULT_PNG_DPI: f32 = 600.0;
 
 /// Everything a writer may read: the artwork, the findings and the build date.
 pub struct Ctx<'a> {
@@ -77,6 +87,8 @@ pub struct Ctx<'a> {
     pub errors: usize,
     /// The electrical and optical plan (for the report).
     pub plan: &'a crate::plan::Plan,
+    /// Resolution of the PNG films, dots per inch.
+    pub png_dpi: f32,
 }
 
 /// One output file: its suffix after `NAME.`, whether it is a mask (something a plate is
@@ -86,6 +98,8 @@ pub struct Output {
     pub suffix: &'static str,
     /// True for the files plates are made from.
     pub mask: bool,
+    /// True for the files of a panel, written only when the layout has `panel:`.
+    pub panel: bool,
     /// The writer.
     pub render: fn(&Ctx) -> Result<Vec<u8>>,
 }
@@ -103,35 +117,52 @@ fn films(c: &Ctx) -> Result<Vec<drawing::Drawing>> {
 
 /// Every output, in the order they are rendered and listed.
 pub const OUTPUTS: &[Output] = &[
-    Output { suffix: "front.svg", mask: true, render: |c| film::render_film(c.art, PlateId::Front, c.date, c.errors) },
-    Output { suffix: "back.svg", mask: true, render: |c| film::render_film(c.art, PlateId::Back, c.date, c.errors) },
+    Output { suffix: "front.svg", mask: true, panel: false, render: |c| film::render_film(c.art, PlateId::Front, c.date, c.errors) },
+    Output { suffix: "back.svg", mask: true, panel: false, render: |c| film::render_film(c.art, PlateId::Back, c.date, c.errors) },
+    Output { suffix: "front.png", mask: true, panel: false, render: |c| png::film_png(&film::render_film(c.art, PlateId::Front, c.date, c.errors)?, c.png_dpi) },
+    Output { suffix: "back.png", mask: true, panel: false, render: |c| png::film_png(&film::render_film(c.art, PlateId::Back, c.date, c.errors)?, c.png_dpi) },
     Output {
         suffix: "films.pdf",
         mask: true,
+        panel: false,
         render: |c| Ok(pdf::pdf_bytes(&films(c)?, &format!("{} films", c.art.name), ymd(c))),
     },
     Output {
         suffix: "sheet.pdf",
         mask: true,
+        panel: false,
         render: |c| {
             let pages = sheet::sheet_pages(&films(c)?, c.art.masks.sheet, c.art.masks.copies, &c.art.name);
             Ok(pdf::pdf_bytes(&pages, &format!("{} print sheet", c.art.name), ymd(c)))
         },
     },
-    Output { suffix: "front.gbr", mask: true, render: |c| gerber::render_gerber(c.art, PlateId::Front, c.datetime) },
-    Output { suffix: "back.gbr", mask: true, render: |c| gerber::render_gerber(c.art, PlateId::Back, c.datetime) },
-    Output { suffix: "preview.svg", mask: false, render: |c| preview::render_preview(c.art, c.findings) },
-    Output { suffix: "gds", mask: true, render: |c| gdsii::render_gds(c.art, c.datetime) },
-    Output { suffix: "masks.json", mask: true, render: |c| order::render_order_json(c.art, c.date) },
-    Output { suffix: "masks.txt", mask: true, render: |c| Ok(order::render_order_text(c.art, c.date)) },
-    Output { suffix: "pins.csv", mask: false, render: |c| Ok(pins::render_pins(c.art)) },
-    Output { suffix: "segmap.csv", mask: false, render: |c| Ok(segmap::csv_of(&segmap::segment_rows(c.art))) },
-    Output { suffix: "segmap.json", mask: false, render: |c| segmap::json_of(c.art, segmap::segment_rows(c.art)) },
-    Output { suffix: "firmware.h", mask: false, render: |c| Ok(firmware_c::render_firmware_header(c.art)) },
-    Output { suffix: "firmware.json", mask: false, render: |c| firmware_json::render_firmware_json(c.art) },
+    Output { suffix: "front.gbr", mask: true, panel: false, render: |c| gerber::render_gerber(c.art, PlateId::Front, c.datetime) },
+    Output { suffix: "back.gbr", mask: true, panel: false, render: |c| gerber::render_gerber(c.art, PlateId::Back, c.datetime) },
+    Output { suffix: "preview.svg", mask: false, panel: false, render: |c| preview::render_preview(c.art, c.findings) },
+    Output { suffix: "gds", mask: true, panel: false, render: |c| gdsii::render_gds(c.art, c.datetime) },
+    Output { suffix: "masks.json", mask: true, panel: false, render: |c| order::render_order_json(c.art, c.date) },
+    Output { suffix: "masks.txt", mask: true, panel: false, render: |c| Ok(order::render_order_text(c.art, c.date)) },
+    Output { suffix: "pins.csv", mask: false, panel: false, render: |c| Ok(pins::render_pins(c.art)) },
+    Output { suffix: "segmap.csv", mask: false, panel: false, render: |c| Ok(segmap::csv_of(&segmap::segment_rows(c.art))) },
+    Output { suffix: "segmap.json", mask: false, panel: false, render: |c| segmap::json_of(c.art, segmap::segment_rows(c.art)) },
+    Output { suffix: "firmware.h", mask: false, panel: false, render: |c| Ok(firmware_c::render_firmware_header(c.art)) },
+    Output { suffix: "firmware.json", mask: false, panel: false, render: |c| firmware_json::render_firmware_json(c.art) },
+    Output { suffix: "panel.front.svg", mask: true, panel: true, render: |c| Ok(drawing::svg_bytes(&panel::panel_film(c.art, PlateId::Front, c.date, c.errors)?)) },
+    Output { suffix: "panel.back.svg", mask: true, panel: true, render: |c| Ok(drawing::svg_bytes(&panel::panel_film(c.art, PlateId::Back, c.date, c.errors)?)) },
+    Output {
+        suffix: "panel.pdf",
+        mask: true,
+        panel: true,
+        render: |c| Ok(pdf::pdf_bytes(&panel::panel_films(c.art, c.date, c.errors)?, &format!("{} panel films", c.art.name), ymd(c))),
+    },
+    Output { suffix: "panel.front.gbr", mask: true, panel: true, render: |c| panel::panel_gerber(c.art, PlateId::Front, c.datetime) },
+    Output { suffix: "panel.back.gbr", mask: true, panel: true, render: |c| panel::panel_gerber(c.art, PlateId::Back, c.datetime) },
+    Output { suffix: "panel.gds", mask: true, panel: true, render: |c| panel::panel_gds(c.art, c.datetime) },
+    Output { suffix: "panel.cuts.dxf", mask: true, panel: true, render: |c| dxf::render_cuts_dxf(c.art, c.datetime) },
     Output {
         suffix: "report.json",
         mask: false,
+        panel: false,
         render: |c| report::render_report(c.art, c.findings, segmap::segment_rows(c.art), c.plan),
     },
 ];
@@ -159,10 +190,10 @@ pub fn render_outputs_planned(
     let errors = crate::finding::count(findings, Severity::Error);
     let masks = errors == 0 || opts.masks_despite_errors;
     let name = file_stem(&art.name);
-    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan };
+    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan, png_dpi: opts.png_dpi };
     OUTPUTS
         .iter()
-        .filter(|o| masks || !o.mask)
+        .filter(|o| (masks || !o.mask) && (!o.panel || art.panel.is_some()))
         .map(|o| Ok(OutputFile { name: format!("{name}.{}", o.suffix), bytes: (o.render)(&ctx)? }))
         .collect()
 }

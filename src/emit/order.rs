@@ -52,6 +52,25 @@ struct PlateOrder {
     glass_box_in_structure_mm: [f64; 4],
 }
 
+/// The panel's entry, when the layout has `panel:`.
+#[derive(Debug, Serialize)]
+struct PanelOrder {
+    gdsii_file: String,
+    gdsii_structures: [&'static str; 2],
+    gerber_files: [String; 2],
+    film_svgs: [String; 2],
+    film_pdf: String,
+    cut_lines_dxf: String,
+    rows: u32,
+    columns: u32,
+    cell_pitch_mm: [f64; 2],
+    spacing_mm: f64,
+    scribe_lane_mm: f64,
+    substrate_mm: [f64; 2],
+    cell_origins_mm: Vec<[f64; 2]>,
+    reading: &'static str,
+}
+
 /// The whole summary.
 #[derive(Debug, Serialize)]
 struct Order {
@@ -61,7 +80,35 @@ struct Order {
     resist: &'static str,
     units: &'static str,
     plates: Vec<PlateOrder>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    panel: Option<PanelOrder>,
     notes: Vec<String>,
+}
+
+fn panel_order(art: &Artwork, stem: &str) -> Option<PanelOrder> {
+    let pa = art.panel.as_ref()?;
+    let p = pa.panel;
+    let (x0, y0, x1, y1) = art.glass_footprint();
+    let plates = [PlateId::Front, PlateId::Back];
+    Some(PanelOrder {
+        gdsii_file: format!("{stem}.panel.gds"),
+        gdsii_structures: plates.map(super::panel::panel_structure),
+        gerber_files: plates.map(|pl| format!("{stem}.panel.{}.gbr", pl.name())),
+        film_svgs: plates.map(|pl| format!("{stem}.panel.{}.svg", pl.name())),
+        film_pdf: format!("{stem}.panel.pdf"),
+        cut_lines_dxf: format!("{stem}.panel.cuts.dxf"),
+        rows: p.rows,
+        columns: p.columns,
+        cell_pitch_mm: [r6(x1 - x0 + p.spacing), r6(y1 - y0 + p.spacing)],
+        spacing_mm: r6(p.spacing),
+        scribe_lane_mm: r6(p.scribe_lane),
+        substrate_mm: [r6(p.width), r6(p.height)],
+        cell_origins_mm: pa.offsets.iter().map(|o| [r6(o.x), r6(o.y)]).collect(),
+        reading: "each panel structure references its plate's mask structure once per cell and holds the panel's \
+                  alignment marks on the mask layer and the substrate on the glass layer; mirrored about the substrate \
+                  centre exactly when the plate's mask structure is mirrored; cell origins are the front-plate frame \
+                  origin of each cell on the substrate as the viewer sees it, rows from the bottom",
+    })
 }
 
 /// Rounds to 1 nm for printing.
@@ -132,6 +179,7 @@ fn order(art: &Artwork, date: &str) -> Order {
         resist: resist_name(art.resist),
         units: "mm; GDSII user unit 1 um, database unit 1 nm; Gerber FSLAX46Y46 in mm",
         plates: [PlateId::Front, PlateId::Back].into_iter().map(|p| plate_order(art, p, &stem)).collect(),
+        panel: panel_order(art, &stem),
         notes: vec![
             "One mask per plate: write only the listed layer of the listed structure; the glass layer marks the plate edge and is not to be written.".into(),
             "Place each plate's glass box centred on the mask plate; the mask carries no other cell.".into(),
@@ -187,6 +235,19 @@ pub fn render_order_text(art: &Artwork, date: &str) -> Vec<u8> {
             p.glass_box_in_structure_mm[2],
             p.glass_box_in_structure_mm[3],
         ));
+    }
+    if let Some(p) = &o.panel {
+        s.push_str(&format!(
+            "\npanel: {} rows x {} columns on a {} x {} mm substrate, cell pitch {} x {} mm, spacing {} mm, scribe lane {} mm\n  \
+             GDSII: {} structures {} and {}\n  Gerber: {}, {}\n  films: {}, {}, {}\n  cut lines: {} (mm)\n  reading: {}\n  cell origins (mm):",
+            p.rows, p.columns, p.substrate_mm[0], p.substrate_mm[1], p.cell_pitch_mm[0], p.cell_pitch_mm[1], p.spacing_mm,
+            p.scribe_lane_mm, p.gdsii_file, p.gdsii_structures[0], p.gdsii_structures[1], p.gerber_files[0], p.gerber_files[1],
+            p.film_svgs[0], p.film_svgs[1], p.film_pdf, p.cut_lines_dxf, p.reading,
+        ));
+        for c in &p.cell_origins_mm {
+            s.push_str(&format!(" ({}, {})", c[0], c[1]));
+        }
+        s.push('\n');
     }
     s.push('\n');
     for n in &o.notes {

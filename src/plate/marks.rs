@@ -24,13 +24,13 @@ pub fn alignment_marks(layout: &Layout) -> Vec<(Layer, Polygon)> {
     out
 }
 
-fn front_cross(c: Pt, size: f64, line: f64) -> Vec<Polygon> {
+pub(super) fn front_cross(c: Pt, size: f64, line: f64) -> Vec<Polygon> {
     let (s, l) = (size / 2.0, line / 2.0);
     let u = crate::geom::union_all([rect(c.x - s, c.y - l, c.x + s, c.y + l), rect(c.x - l, c.y - s, c.x + l, c.y + s)]);
     u.0
 }
 
-fn back_squares(c: Pt, size: f64, line: f64) -> Vec<Polygon> {
+pub(super) fn back_squares(c: Pt, size: f64, line: f64) -> Vec<Polygon> {
     let half_channel = line / 2.0 + CHANNEL_CLEARANCE * line;
     let s = size / 2.0;
     [(1.0, 1.0), (-1.0, 1.0), (-1.0, -1.0), (1.0, -1.0)]

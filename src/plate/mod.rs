@@ -6,6 +6,7 @@
 //! reads.
 
 mod marks;
+mod panel;
 mod seal;
 
 use crate::artwork::{Artwork, DigitSlot, Label, Layer, Net, NetKind, Pin, Pixel, Role, Shape, TransferDot};
@@ -78,6 +79,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         layers: layout.layers.clone(),
         film_shapes: film_shapes(layout, &shapes_for_film),
         generation_findings: el.findings.iter().chain(&routes.findings).cloned().collect(),
+        panel: panel::panel_art(layout),
     })
 }
 

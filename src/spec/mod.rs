@@ -18,6 +18,7 @@ mod fit;
 mod gauges;
 mod locate;
 mod nets;
+mod panel;
 mod placement;
 mod problems;
 mod raw;
@@ -81,8 +82,9 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
     let window = resolve::window(p, raw.window.as_ref());
     let cell_gap = resolve::cell_gap(p, raw.cell_gap.as_ref());
     let tolerance = resolve::tolerance(p, raw.tolerance.as_ref());
-    let masks = resolve::masks(p, raw.masks.as_ref());
+    let mut masks = resolve::masks(p, raw.masks.as_ref());
     let rules = resolve::rules(p, raw.rules.as_ref(), masks.process);
+    masks.panel = raw.panel.as_ref().and_then(|r| panel::panel(p, r, &glass, &rules));
     let pads = resolve::pads(p, raw.pads.as_ref());
     let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
     let drive = resolve::drive(p, raw.drive.as_ref());

@@ -19,6 +19,7 @@ pub struct RawLayout {
     pub tolerance: Option<Scalar>,
     pub rules: Option<RawRules>,
     pub masks: Option<RawMasks>,
+    pub panel: Option<RawPanel>,
     pub seal: Option<RawSeal>,
     pub transfer_dots: Option<RawTransfer>,
     pub pads: Option<RawPads>,
@@ -114,6 +115,17 @@ pub struct RawMasks {
     pub mirror: Option<Scalar>,
     pub sheet: Option<Scalar>,
     pub copies: Option<Scalar>,
+}
+
+/// `panel:`.
+#[derive(Debug, DeriveDeserialize)]
+#[serde(deny_unknown_fields, expecting = "a mapping with keys rows, columns, spacing, scribe_lane and substrate")]
+pub struct RawPanel {
+    pub rows: Option<Scalar>,
+    pub columns: Option<Scalar>,
+    pub spacing: Option<Scalar>,
+    pub scribe_lane: Option<Scalar>,
+    pub substrate: Option<RawSize>,
 }
 
 /// `seal:`.

@@ -119,7 +119,7 @@ pub fn masks(p: &mut Problems, m: Option<&RawMasks>) -> MaskOptions {
     if p.clean(&["masks.copies"]) && copies > MAX_COPIES {
         p.bad("masks.copies", format!("{copies} copies are more than a print sheet is for"), &format!("1 to {MAX_COPIES}"));
     }
-    MaskOptions { process, mirror, sheet, copies: copies.clamp(1, MAX_COPIES) as u32 }
+    MaskOptions { process, mirror, sheet, copies: copies.clamp(1, MAX_COPIES) as u32, panel: None }
 }
 
 /// Most copies of each film on the print sheet (more belong on a second print run).

@@ -66,6 +66,13 @@ const CASES: &[Case] = &[
     Case("gds-layer-range", "gds_layers.seal[0]", 30, "300 is above 255"),
     Case("missing-font", "fonts[0]", 29, "cannot read"),
     Case(
+        "panel-substrate-small",
+        "panel.substrate.width",
+        37,
+        "150 mm is too small: 3 columns of 60 mm cells with 2 mm spacing take 184 mm, plus 5 mm on each side",
+    ),
+    Case("panel-lane-wide", "panel.scribe_lane", 36, "a 4 mm lane reaches 2 mm into each cell, deeper than rules.edge_clearance 1.5 mm"),
+    Case(
         "bar-too-many-steps",
         "bars[0].count",
         28,

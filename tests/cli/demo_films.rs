@@ -23,7 +23,7 @@ fn demo(name: &str) -> std::path::PathBuf {
 fn demo_films_print_at_size_with_the_right_ink() {
     for name in ["irrigation-timer", "conductivity-meter", "etch-test-plate", "tank-level-dial"] {
         let built = segmask::pipeline::build_layout_file(&demo(name)).unwrap();
-        let opts = segmask::emit::EmitOptions { date: "2026-12-01".into(), masks_despite_errors: false };
+        let opts = segmask::emit::EmitOptions { date: "2026-12-01".into(), masks_despite_errors: false, png_dpi: 100.0 };
         let files = segmask::emit::render_outputs(&built.artwork, &built.findings, &opts).unwrap();
         for plate in [PlateId::Front, PlateId::Back] {
             let file = files.iter().find(|f| f.name == format!("{name}.{}.svg", plate.name())).expect("film written");

@@ -18,6 +18,8 @@ fn clean_build_gives_every_file() {
         [
             "fixture.front.svg",
             "fixture.back.svg",
+            "fixture.front.png",
+            "fixture.back.png",
             "fixture.films.pdf",
             "fixture.sheet.pdf",
             "fixture.front.gbr",
@@ -44,7 +46,7 @@ fn errors_withhold_every_mask_file() {
     assert_eq!(names(&files), always);
     let forced = EmitOptions { masks_despite_errors: true, ..opts() };
     let files = render_outputs(&artwork(), &findings, &forced).unwrap();
-    assert_eq!(files.len(), 16);
+    assert_eq!(files.len(), 18);
     // A film made despite errors says so on its face (stroke text, so look for the
     // title element instead): the title line count grows by one.
     let clean = render_outputs(&artwork(), &[], &opts()).unwrap();

@@ -140,6 +140,7 @@ pub fn artwork() -> Artwork {
         drive: Drive { commons: 1, bias: None },
         film_shapes: vec![],
         generation_findings: vec![],
+        panel: None,
     }
 }
 
@@ -171,7 +172,7 @@ pub fn error() -> Finding {
 
 /// Options with a fixed date.
 pub fn opts() -> EmitOptions {
-    EmitOptions { date: "2025-03-14".into(), masks_despite_errors: false }
+    EmitOptions { date: "2025-03-14".into(), masks_despite_errors: false, png_dpi: 100.0 }
 }
 
 /// Sum of the areas of the shapes on some layers, mm².

@@ -24,6 +24,8 @@ mod findings;
 mod firmware_tables;
 mod laser_rules;
 mod multiplex;
+mod panel;
+mod png_films;
 mod position_sweep;
 mod reference;
 mod registration_demo;
