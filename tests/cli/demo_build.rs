@@ -2,7 +2,7 @@
 //! once per layout into a folder kept for the whole run, with a fixed date so the
 //! outputs are byte-for-byte repeatable.
 
-use std::collections::HashMap;
+use std::collections::{BTreeMap, HashMap};
 use std::path::{Path, PathBuf};
 use std::process::Command;
 use std::sync::atomic::{AtomicUsize, Ordering};
@@ -46,28 +46,42 @@ fn build_into(layout: &Path, out: &Path, name: &str) {
     assert_eq!(o.status.code(), Some(0), "{name} must build clean:\n{}", String::from_utf8_lossy(&o.stderr));
 }
 
-/// The segment map `NAME.segmap.csv` of a build as element → column → value, read per
-/// RFC 4180 §2 (quoted fields may hold commas and doubled quotes), written here
-/// independently of segmask's writer.
-pub fn segmap(out: &Path, name: &str) -> std::collections::BTreeMap<String, std::collections::BTreeMap<String, String>> {
-    let text = std::fs::read_to_string(out.join(format!("{name}.segmap.csv"))).unwrap();
-    let mut rows = text.lines().map(|l| {
-        let (mut cells, mut cell, mut quoted) = (vec![], String::new(), false);
-        let mut it = l.chars().peekable();
-        while let Some(c) = it.next() {
-            match (c, quoted) {
-                ('"', true) if it.peek() == Some(&'"') => {
-                    it.next();
-                    cell.push('"');
-                }
-                ('"', _) => quoted = !quoted,
-                (',', false) => cells.push(std::mem::take(&mut cell)),
-                _ => cell.push(c),
-            }
-        }
-        cells.push(cell);
-        cells
-    });
-    let header = rows.next().unwrap();
-    rows.map(|r| (r[0].clone(), header.iter().cloned().zip(r).collect())).collect()
+/// The segment map `NAME.segmap.csv` of a build as element → column → value.
+pub fn segmap(out: &Path, name: &str) -> BTreeMap<String, BTreeMap<String, String>> {
+    let (header, rows) = read_csv(&out.join(format!("{name}.segmap.csv")));
+    rows.into_iter().map(|r| (r[&header[0]].clone(), r)).collect()
 }
+
+/// Reads a CSV table per RFC 4180 §2 (written here independently of the writer): fields
+/// split at commas outside quotes, `""` inside quotes is one quote, records end at a line
+/// break outside quotes. Gives the header and the records as name → value maps.
+pub fn read_csv(path: &Path) -> (Vec<String>, Vec<BTreeMap<String, String>>) {
+    let text = std::fs::read_to_string(path).unwrap();
+    let mut records: Vec<Vec<String>> = vec![];
+    let (mut rec, mut cell, mut quoted) = (vec![], String::new(), false);
+    let mut chars = text.chars().peekable();
+    while let Some(c) = chars.next() {
+        match (c, quoted) {
+            ('"', true) if chars.peek() == Some(&'"') => {
+                chars.next();
+                cell.push('"');
+            }
+            ('"', _) => quoted = !quoted,
+            (',', false) => rec.push(std::mem::take(&mut cell)),
+            ('\n', false) => {
+                rec.push(std::mem::take(&mut cell));
+                records.push(std::mem::take(&mut rec));
+            }
+            _ => cell.push(c),
+        }
+    }
+    assert!(cell.is_empty() && rec.is_empty() && !quoted, "{}: last record must end in a line break", path.display());
+    let header = records.remove(0);
+    for r in &records {
+        // RFC 4180 §2.4: every record has as many fields as the header.
+        assert_eq!(r.len(), header.len(), "{}: {r:?}", path.display());
+    }
+    let rows = records.into_iter().map(|r| header.iter().cloned().zip(r).collect()).collect();
+    (header, rows)
+}
+

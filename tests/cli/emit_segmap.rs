@@ -14,39 +14,6 @@ fn build() -> (tempfile::TempDir, PathBuf) {
     demo_build::build_demo(DEMO)
 }
 
-/// Reads a CSV table per RFC 4180 §2 (written here independently of the writer): fields
-/// split at commas outside quotes, `""` inside quotes is one quote, records end at a line
-/// break outside quotes. Gives the header and the records as name → value maps.
-fn read_csv(path: &Path) -> (Vec<String>, Vec<BTreeMap<String, String>>) {
-    let text = std::fs::read_to_string(path).unwrap();
-    let mut records: Vec<Vec<String>> = vec![];
-    let (mut rec, mut cell, mut quoted) = (vec![], String::new(), false);
-    let mut chars = text.chars().peekable();
-    while let Some(c) = chars.next() {
-        match (c, quoted) {
-            ('"', true) if chars.peek() == Some(&'"') => {
-                chars.next();
-                cell.push('"');
-            }
-            ('"', _) => quoted = !quoted,
-            (',', false) => rec.push(std::mem::take(&mut cell)),
-            ('\n', false) => {
-                rec.push(std::mem::take(&mut cell));
-                records.push(std::mem::take(&mut rec));
-            }
-            _ => cell.push(c),
-        }
-    }
-    assert!(cell.is_empty() && rec.is_empty() && !quoted, "{}: last record must end in a line break", path.display());
-    let header = records.remove(0);
-    for r in &records {
-        // RFC 4180 §2.4: every record has as many fields as the header.
-        assert_eq!(r.len(), header.len(), "{}: {r:?}", path.display());
-    }
-    let rows = records.into_iter().map(|r| header.iter().cloned().zip(r).collect()).collect();
-    (header, rows)
-}
-
 fn json(path: &Path) -> Value {
     // RFC 8259, via serde_json.
     serde_json::from_slice(&std::fs::read(path).unwrap()).unwrap()
@@ -55,12 +22,12 @@ fn json(path: &Path) -> Value {
 #[test]
 fn segment_map_pin_map_and_drive_summary_agree() {
     let (_dir, out) = build();
-    let (pin_header, pins) = read_csv(&out.join(format!("{DEMO}.pins.csv")));
+    let (pin_header, pins) = demo_build::read_csv(&out.join(format!("{DEMO}.pins.csv")));
     assert_eq!(pin_header, ["pin", "net", "plate", "role", "index", "drives"]);
     let pin_of: BTreeMap<&str, &str> = pins.iter().map(|p| (p["net"].as_str(), p["pin"].as_str())).collect();
     assert_eq!(pin_of.len(), pins.len(), "one pin per net");
 
-    let (seg_header, rows) = read_csv(&out.join(format!("{DEMO}.segmap.csv")));
+    let (seg_header, rows) = demo_build::read_csv(&out.join(format!("{DEMO}.segmap.csv")));
     assert_eq!(seg_header[..3], ["element", "drives", "com"]);
     let s = rows.len();
     assert!(s > 20, "a 3½-digit panel with legends and icons has more than 20 elements: {s}");
