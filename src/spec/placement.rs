@@ -140,6 +140,20 @@ pub fn check_placement(p: &mut Problems, l: &Layout) {
         if p.clean(&[&lg.key]) && !(inside(&l.window, lg.at) && inside(&l.window, top)) {
             p.bad(&key, format!("legend `{}` starts outside the window", lg.name), &window_text(&l.window));
         }
+        // Every character's ink is at least a stroke wide and the pen moves on by at
+        // least a stroke (glyph/legend.rs), so n characters are at least n strokes wide.
+        let chars = lg.text.chars().count() as f64;
+        if p.clean(&[&lg.key]) && chars * lg.stroke > l.window.width {
+            p.bad(
+                &format!("{}.text", lg.key),
+                format!(
+                    "legend `{}` of {chars} characters is at least {} wide (one stroke a character), wider than the window",
+                    lg.name,
+                    super::read::mm(chars * lg.stroke)
+                ),
+                &format!("a text that fits the window's {}", super::read::mm(l.window.width)),
+            );
+        }
     }
     overlaps(p, &placed);
     if p.clean(&["glass"]) {
