@@ -456,7 +456,7 @@ pub fn fonts(p: &mut Problems, f: Option<&Vec<Scalar>>, file: &Path, font_dirs: 
             }
         };
         if !roots.iter().any(|r| real.starts_with(r)) {
-            p.bad(&key, format!("`{}` lies outside the layout's folder", path.display()), allowed);
+            p.bad(&key, format!("`{name}` lies outside the layout's folder"), allowed);
             continue;
         }
         match super::input::read_text(&real, super::limits::MAX_FONT_BYTES, "font file") {
@@ -469,7 +469,7 @@ pub fn fonts(p: &mut Problems, f: Option<&Vec<Scalar>>, file: &Path, font_dirs: 
                     (Some(l), Some(c)) => format!(" (its line {l}, column {c})"),
                     _ => String::new(),
                 };
-                p.bad(&key, format!("the font file `{}` {message}{at}", path.display()), &allowed)
+                p.bad(&key, format!("the font file `{name}` {message}{at}"), &allowed)
             }
         }
     }
