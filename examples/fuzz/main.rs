@@ -1,15 +1,15 @@
 //! Fuzz harness on stable Rust: seeded mutations of the demo layouts through the spec
 //! stage (in this process, every case) and through the whole pipeline (the real
-//! `segmask check` in a child process, every `--pipeline-every`-th case), with a wall
-//! clock limit and an address-space cap on each child and its peak memory recorded.
+//! `segmask check` in a child process, every `--pipeline-every`-th case), with a limit
+//! on its processor time and its address space, and its peak memory recorded.
 //!
 //! ```sh
 //! cargo build --release && cargo run --release --example fuzz -- --minutes 60 --seed 1
 //! ```
 //!
 //! A failure is a panic in the spec stage, or a child that ends other than with exit
-//! code 0, 1 or 2 (a panic gives 101, an abort 134 or a signal), that runs past
-//! `--timeout` seconds, or that peaks above 2 GiB. Each failure's input is saved to
+//! code 0, 1 or 2 (a panic gives 101, an abort 134 or a signal), that uses more than
+//! `--timeout` seconds of processor time, or that peaks above 2 GiB. Each failure's input is saved to
 //! `target/fuzz/failures/` with its seed; the run prints the counts at the end and
 //! exits with 1 when anything failed. docs/fuzzing.md tells how to read the figures.
 
@@ -147,6 +147,19 @@ fn save(dir: &Path, name: &str, seed: u64, bytes: &[u8], why: &str) {
     eprintln!("FAILURE {stem}: {why}");
 }
 
+/// Processor time (user + system) `pid` has used so far, from /proc/PID/stat (fields
+/// 14 and 15, in clock ticks; Linux proc(5)); 0 where it cannot be read.
+fn cpu_seconds(pid: i32) -> f64 {
+    let Ok(stat) = std::fs::read_to_string(format!("/proc/{pid}/stat")) else { return 0.0 };
+    // The command name (field 2) is in parentheses and may hold spaces: count after it.
+    let Some(rest) = stat.rsplit_once(')').map(|(_, r)| r) else { return 0.0 };
+    let f: Vec<&str> = rest.split_whitespace().collect();
+    let ticks: f64 = [11, 12].iter().filter_map(|&i| f.get(i)?.parse::<f64>().ok()).sum();
+    // SAFETY: sysconf only reads a constant.
+    let hz = unsafe { libc::sysconf(libc::_SC_CLK_TCK) }.max(1) as f64;
+    ticks / hz
+}
+
 /// Runs `segmask check FILE`; gives exit code (128 + signal when killed by one), peak
 /// resident set in KiB and wall time, or why it counts as a hang.
 fn run_child(exe: &PathBuf, file: &Path, timeout: Duration) -> Result<(i32, i64, Duration), String> {
@@ -177,10 +190,16 @@ fn run_child(exe: &PathBuf, file: &Path, timeout: Duration) -> Result<(i32, i64,
             let code = if libc::WIFEXITED(status) { libc::WEXITSTATUS(status) } else { 128 + libc::WTERMSIG(status) };
             return Ok((code, usage.ru_maxrss, start.elapsed()));
         }
-        if start.elapsed() > timeout {
+        // The limit is on the child's processor time, so that a machine busy with other
+        // work does not pass for a hang; ten times the limit in wall time as a backstop.
+        let cpu = cpu_seconds(pid);
+        if cpu > timeout.as_secs_f64() || start.elapsed() > timeout * 10 {
             unsafe { libc::kill(pid, libc::SIGKILL) };
             unsafe { libc::waitpid(pid, &mut status, 0) };
-            return Err(format!("no end after {} s (hang)", timeout.as_secs()));
+            return Err(format!(
+                "no end after {cpu:.0} s of processor time, {:.0} s of wall time (hang)",
+                start.elapsed().as_secs_f64()
+            ));
         }
         std::thread::sleep(Duration::from_millis(20));
     }
