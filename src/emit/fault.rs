@@ -6,7 +6,8 @@
 //! process sleeps until it is killed), and switches off the one-step folder exchange
 //! (`no-exchange`, to test the two-rename fallback). Several are joined with `,`.
 //! Points: `file-K` (before the K-th file of the set is written), `staged` (the new set
-//! is complete beside the target), `between` (fallback only: the old set is renamed
+//! is complete beside the target), `swap` (the rename or exchange that puts the new set
+//! in place, failing as a rename can fail), `between` (fallback only: the old set is renamed
 //! aside, the new one not yet in place), `swapped` (the new set is in place, the old one
 //! not yet removed). docs/outputs.md, *Testing failures*.
 

@@ -196,6 +196,10 @@ fn sync_dir(dir: &Path) {
 /// Exchanges the staging folder with the target (or renames it into place when there
 /// is no target yet), then removes what was the target.
 fn swap_in(parent: &Path, base: &str, staging: &Path, target: &Path) -> Result<()> {
+    if let Err(e) = fault::point("swap") {
+        let _ = std::fs::remove_dir_all(staging);
+        return Err(e);
+    }
     let exists = std::fs::symlink_metadata(target).is_ok();
     if !exists {
         let r = std::fs::rename(staging, target).map_err(|e| Error::io(target, e));

@@ -2,7 +2,7 @@
 //!
 //! Takes the artwork and the findings, gives the bytes of every output file (films as
 //! SVG and PDF, the print sheet, Gerber, preview, GDSII, the mask order, pin map, segment
-//! map, report) and writes them atomically. Every output is one row of [`OUTPUTS`]: its
+//! map, report) and writes them as one set (`files.rs`). Every output is one row of [`OUTPUTS`]: its
 //! file suffix, whether it is a mask (withheld while rule errors stand, decided once in
 //! [`render_outputs`]) and its writer. What a mask carries — mirrored or not, compensated
 //! or not — is decided once in [`mask`] for every mask writer. Writers never compute

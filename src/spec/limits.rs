@@ -80,16 +80,8 @@ pub fn counts(p: &mut Problems, raw: &RawLayout) -> bool {
     let legends = raw.legends.as_deref().unwrap_or(&[]);
     list(p, "legends", legends.len(), MAX_LEGENDS, "legends");
     for (i, l) in legends.iter().enumerate() {
-        if let Some(t) = &l.text {
-            let n = t.text.chars().count();
-            if n > MAX_LEGEND_CHARS {
-                p.bad(
-                    &format!("legends[{i}].text"),
-                    format!("{n} characters are more than one legend holds"),
-                    &format!("at most {MAX_LEGEND_CHARS} characters; split it into several legends"),
-                );
-            }
-        }
+        let allowed = format!("at most {MAX_LEGEND_CHARS} characters; split it into several legends");
+        text(p, &format!("legends[{i}].text"), l.text.as_ref(), MAX_LEGEND_CHARS, "one legend holds", &allowed);
     }
     let icons = raw.icons.as_deref().unwrap_or(&[]);
     list(p, "icons", icons.len(), MAX_ICONS, "icons");
@@ -97,16 +89,9 @@ pub fn counts(p: &mut Problems, raw: &RawLayout) -> bool {
         if let Some(pts) = &icon.polygon {
             list(p, &format!("icons[{i}].polygon"), pts.len(), MAX_POINTS, "points");
         }
-        if let Some(d) = icon.path.as_ref().and_then(|path| path.d.as_ref()) {
-            let n = d.text.chars().count();
-            if n > MAX_PATH_CHARS {
-                p.bad(
-                    &format!("icons[{i}].path.d"),
-                    format!("{n} characters of path data are more than one icon takes"),
-                    &format!("at most {MAX_PATH_CHARS} characters"),
-                );
-            }
-        }
+        let d = icon.path.as_ref().and_then(|path| path.d.as_ref());
+        let allowed = format!("at most {MAX_PATH_CHARS} characters");
+        text(p, &format!("icons[{i}].path.d"), d, MAX_PATH_CHARS, "one icon's path data takes", &allowed);
     }
     list(p, "bars", raw.bars.as_deref().map_or(0, <[_]>::len), MAX_BARS, "bar graphs");
     let buses = raw.buses.as_deref().unwrap_or(&[]);
@@ -132,6 +117,14 @@ fn whole(s: &Scalar) -> Option<i64> {
         ScalarKind::Integer(i) => Some(i64::try_from(i).unwrap_or(i64::MAX)),
         ScalarKind::Number(x) if x.is_finite() => Some(x.clamp(-1e15, 1e15) as i64),
         _ => s.text.trim().parse().ok(),
+    }
+}
+
+/// A text at `key` holds at most `max` characters.
+fn text(p: &mut Problems, key: &str, v: Option<&Scalar>, max: usize, what: &str, allowed: &str) {
+    let n = v.map_or(0, |t| t.text.chars().count());
+    if n > max {
+        p.bad(key, format!("{n} characters are more than {what}"), allowed);
     }
 }
 

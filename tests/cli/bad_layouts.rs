@@ -147,7 +147,7 @@ const CASES: &[Case] = &[
     Case("legend-wider-than-window", "legends[0].text", 25, "legend `UNIT_MV` of 40 characters is at least 56 mm wide (one stroke a character), wider than the window"),
     Case("icons-401", "icons", 26, "403 icons are more than segmask takes here (allowed: at most 400 icons)"),
     Case("polygon-1001-points", "icons[1].polygon", 29, "1001 points are more than segmask takes here (allowed: at most 1000 points)"),
-    Case("path-10001-chars", "icons[1].path.d", 29, "characters of path data are more than one icon takes (allowed: at most 10000 characters)"),
+    Case("path-10001-chars", "icons[1].path.d", 29, "characters are more than one icon's path data takes (allowed: at most 10000 characters)"),
     Case("bus-1001-points", "buses[0].points", 30, "1001 points are more than segmask takes here"),
     Case("buses-201", "buses", 29, "202 buses are more than segmask takes here"),
     Case("bars-51", "bars", 31, "51 bar graphs are more than segmask takes here"),

@@ -1,6 +1,6 @@
 //! The outputs of a build as one set (docs/outputs.md, *One set*): a run killed while
 //! its new set is staged, or between the two renames of the fallback swap, a run that
-//! fails half-way, two runs into one folder at once, and symbolic links planted where
+//! fails half-way or at the rename that would put its set in place, two runs into one folder at once, and symbolic links planted where
 //! segmask writes. After each, the folder must hold the complete old set or the
 //! complete new one, never a mix, and nothing may be written outside it.
 //!
@@ -126,6 +126,12 @@ fn kills_failures_locks_and_planted_links_never_leave_a_mixed_set() {
     assert!(msg.contains("fault injected"), "{msg}");
     assert_eq!(snapshot(&out), old);
     assert!(siblings(tmp.path()).is_empty(), "stale staging cleaned: {:?}", siblings(tmp.path()));
+
+    // The rename that would put the new set in place fails: the old set stands whole.
+    let failed = run(&out, "2025-05-06", "fail:swap");
+    assert_eq!(failed.status.code(), Some(2), "{}", String::from_utf8_lossy(&failed.stderr));
+    assert_eq!(snapshot(&out), old);
+    assert!(siblings(tmp.path()).is_empty(), "{:?}", siblings(tmp.path()));
 
     // Links planted at an output's name and at the next staging names are replaced or
     // removed, never written through.
