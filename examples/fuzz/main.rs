@@ -81,6 +81,9 @@ fn main() {
         let file = work.join(format!("case-{}.yaml", a.seed));
         std::fs::write(&file, &bytes).expect("write case");
         cases += 1;
+        if cases % 500 == 0 {
+            eprintln!("{cases} cases, {runs} pipeline runs, {failed} failures, {:.0} s", start.elapsed().as_secs_f64());
+        }
         let spec = std::panic::catch_unwind(|| match std::str::from_utf8(&bytes) {
             Ok(t) => segmask::spec::parse_layout(t, &file).is_ok(),
             Err(_) => false,
@@ -114,9 +117,6 @@ fn main() {
                 failed += 1;
                 save(&failures, name, case_seed, &bytes, &why);
             }
-        }
-        if cases % 500 == 0 {
-            eprintln!("{cases} cases, {runs} pipeline runs, {failed} failures, {:.0} s", start.elapsed().as_secs_f64());
         }
     }
     println!("fuzz: seed {}, {:.1} min", a.seed, start.elapsed().as_secs_f64() / 60.0);
