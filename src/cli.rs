@@ -1,8 +1,12 @@
 //! Command-line interface: parses arguments, runs the pipeline, prints diagnostics.
 //!
-//! Exit codes: 0 clean, 1 rule errors found, 2 bad input, I/O error or bug.
+//! Exit codes: 0 clean, 1 rule errors found, 2 bad input, I/O error or bug. Every
+//! argument is checked before any work; a closed or full console stream never changes
+//! the exit code of a build or check (`console.rs`).
 
+use crate::console;
 use clap::{Parser, Subcommand};
+use segmask::error::InputProblem;
 use segmask::finding::{Finding, Severity};
 use segmask::pipeline::Built;
 use std::path::{Path, PathBuf};
@@ -38,11 +42,18 @@ enum Command {
         /// Resolution of the PNG films, dots per inch.
         #[arg(long, default_value_t = segmask::emit::DEFAULT_PNG_DPI)]
         png_dpi: f32,
+        #[command(flatten)]
+        input: InputArgs,
+        /// Seconds to wait while another segmask run writes into the same folder.
+        #[arg(long, default_value_t = 60, value_parser = clap::value_parser!(u64).range(0..=3600))]
+        lock_wait: u64,
     },
     /// Build the artwork in memory and print the findings; writes nothing.
     Check {
         /// Layout file (YAML).
         layout: PathBuf,
+        #[command(flatten)]
+        input: InputArgs,
     },
     /// Build the artwork and draw the display showing a text and elements switched on,
     /// as the glass would show it (`NAME.show.svg` and `NAME.show.png`).
@@ -63,6 +74,11 @@ enum Command {
         /// Resolution of the PNG, dots per inch.
         #[arg(long, default_value_t = 300.0)]
         dpi: f32,
+        #[command(flatten)]
+        input: InputArgs,
+        /// Seconds to wait while another segmask run writes into the same folder.
+        #[arg(long, default_value_t = 60, value_parser = clap::value_parser!(u64).range(0..=3600))]
+        lock_wait: u64,
     },
     /// Print an intermediate form (for debugging and reviews): the resolved layout or
     /// the artwork, as Rust debug text.
@@ -72,7 +88,44 @@ enum Command {
         what: DumpWhat,
         /// Layout file (YAML).
         layout: PathBuf,
+        #[command(flatten)]
+        input: InputArgs,
     },
+}
+
+/// Options about where input files may come from.
+#[derive(clap::Args)]
+struct InputArgs {
+    /// A folder font files may also come from (fonts are otherwise read only from the
+    /// layout's folder and below it); may be given more than once.
+    #[arg(long, value_name = "DIR")]
+    fonts_from: Vec<PathBuf>,
+}
+
+impl InputArgs {
+    /// The input options, every folder checked to be one.
+    fn options(&self) -> segmask::Result<segmask::spec::InputOptions> {
+        for d in &self.fonts_from {
+            if !d.is_dir() {
+                return Err(command_line("--fonts-from", format!("`{}` is not a folder", d.display()), "an existing folder"));
+            }
+        }
+        Ok(segmask::spec::InputOptions { font_dirs: self.fonts_from.clone() })
+    }
+}
+
+fn command_line(key: &str, message: String, allowed: &str) -> segmask::Error {
+    segmask::Error::input(InputProblem::on_command_line(key, message, allowed))
+}
+
+/// `--out` must be a folder or not exist yet.
+fn check_out(out: &Path) -> segmask::Result<()> {
+    match std::fs::metadata(out) {
+        Ok(m) if !m.is_dir() => {
+            Err(command_line("--out", format!("`{}` exists and is not a folder", out.display()), "a folder, or a path to create one at"))
+        }
+        _ => Ok(()),
+    }
 }
 
 /// Intermediate forms `dump` can print.
@@ -88,53 +141,77 @@ enum DumpWhat {
 pub fn run() -> ExitCode {
     let cli = Cli::parse();
     let result = match cli.command {
-        Command::Build { layout, out, masks_despite_errors, date, timings, png_dpi } => {
-            build(&layout, &out, masks_despite_errors, date, timings, png_dpi)
+        Command::Build { layout, out, masks_despite_errors, date, timings, png_dpi, input, lock_wait } => {
+            build(&layout, &out, masks_despite_errors, date, timings, png_dpi, &input, lock_wait)
         }
-        Command::Check { layout } => check(&layout),
-        Command::Show { layout, text, on, out, dpi } => show(&layout, &text, &on, &out, dpi),
-        Command::Dump { what, layout } => dump(what, &layout),
+        Command::Check { layout, input } => check(&layout, &input),
+        Command::Show { layout, text, on, out, dpi, input, lock_wait } => {
+            show(&layout, &text, &on, &out, dpi, &input, lock_wait)
+        }
+        Command::Dump { what, layout, input } => dump(what, &layout, &input),
     };
     match result {
         Ok(code) => code,
         Err(e) => {
-            eprintln!("{e}");
+            console::err(&e.to_string());
             ExitCode::from(2)
         }
     }
 }
 
-fn build(layout: &Path, out: &Path, masks: bool, date: Option<String>, timings: bool, png_dpi: f32) -> segmask::Result<ExitCode> {
+#[allow(clippy::too_many_arguments)]
+fn build(
+    layout: &Path,
+    out: &Path,
+    masks: bool,
+    date: Option<String>,
+    timings: bool,
+    png_dpi: f32,
+    input: &InputArgs,
+    lock_wait: u64,
+) -> segmask::Result<ExitCode> {
     check_dpi("--png-dpi", png_dpi)?;
-    let built = segmask::pipeline::build_layout_file(layout)?;
+    let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
+    segmask::emit::check_date(&date)?;
+    check_out(out)?;
+    let built = segmask::pipeline::build_layout_file_with(layout, &input.options()?)?;
     if timings {
         for (stage, d) in &built.timings {
-            eprintln!("time {stage:>9}: {:8.3} s", d.as_secs_f64());
+            console::err(&format!("time {stage:>9}: {:8.3} s", d.as_secs_f64()));
         }
     }
     print_findings(layout, &built);
-    let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
     let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
     let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts)?;
-    segmask::emit::write_atomically(out, &files)?;
+    let write = segmask::emit::WriteOptions { lock_wait: std::time::Duration::from_secs(lock_wait) };
+    segmask::emit::write_build_set(out, &segmask::emit::file_stem(&built.artwork.name), &files, &write)?;
     for f in &files {
-        eprintln!("wrote {}", out.join(&f.name).display());
+        console::err(&format!("wrote {}", out.join(&f.name).display()));
     }
     if segmask::emit::masks_withheld(&built.findings, &opts) {
-        eprintln!("films and GDSII withheld while rule errors stand (pass --masks-despite-errors to write them anyway)");
+        console::err("films and GDSII withheld while rule errors stand (pass --masks-despite-errors to write them anyway)");
     }
     Ok(exit_for(&built.findings))
 }
 
-fn check(layout: &Path) -> segmask::Result<ExitCode> {
-    let built = segmask::pipeline::build_layout_file(layout)?;
+fn check(layout: &Path, input: &InputArgs) -> segmask::Result<ExitCode> {
+    let built = segmask::pipeline::build_layout_file_with(layout, &input.options()?)?;
     print_findings(layout, &built);
     Ok(exit_for(&built.findings))
 }
 
-fn show(layout: &Path, text: &str, on: &[String], out: &Path, dpi: f32) -> segmask::Result<ExitCode> {
+fn show(
+    layout: &Path,
+    text: &str,
+    on: &[String],
+    out: &Path,
+    dpi: f32,
+    input: &InputArgs,
+    lock_wait: u64,
+) -> segmask::Result<ExitCode> {
     check_dpi("--dpi", dpi)?;
-    let built = segmask::pipeline::build_layout_file(layout)?;
+    check_out(out)?;
+    let built = segmask::pipeline::build_layout_file_with(layout, &input.options()?)?;
     print_findings(layout, &built);
     let art = &built.artwork;
     let shown = segmask::show::show(art, text, on)?;
@@ -146,9 +223,10 @@ fn show(layout: &Path, text: &str, on: &[String], out: &Path, dpi: f32) -> segma
         segmask::emit::OutputFile { name: format!("{stem}.show.svg"), bytes: svg },
         segmask::emit::OutputFile { name: format!("{stem}.show.png"), bytes: png },
     ];
-    segmask::emit::write_atomically(out, &files)?;
+    let write = segmask::emit::WriteOptions { lock_wait: std::time::Duration::from_secs(lock_wait) };
+    segmask::emit::write_set(out, &files, &write)?;
     for f in &files {
-        eprintln!("wrote {}", out.join(&f.name).display());
+        console::err(&format!("wrote {}", out.join(&f.name).display()));
     }
     Ok(exit_for(&built.findings))
 }
@@ -158,28 +236,26 @@ fn check_dpi(flag: &str, dpi: f32) -> segmask::Result<()> {
     if dpi.is_finite() && (10.0..=4800.0).contains(&dpi) {
         return Ok(());
     }
-    Err(segmask::Error::input(segmask::error::InputProblem::on_command_line(
-        flag,
-        format!("{dpi} dots per inch is outside the range drawn"),
-        "10 to 4800",
-    )))
+    Err(command_line(flag, format!("{dpi} dots per inch is outside the range drawn"), "10 to 4800"))
 }
 
-fn dump(what: DumpWhat, layout: &Path) -> segmask::Result<ExitCode> {
-    match what {
-        DumpWhat::Layout => println!("{:#?}", segmask::spec::load_layout(layout)?),
-        DumpWhat::Artwork => println!("{:#?}", segmask::pipeline::build_layout_file(layout)?.artwork),
-    }
+fn dump(what: DumpWhat, layout: &Path, input: &InputArgs) -> segmask::Result<ExitCode> {
+    let opts = input.options()?;
+    let text = match what {
+        DumpWhat::Layout => format!("{:#?}", segmask::spec::load_layout_with(layout, &opts)?),
+        DumpWhat::Artwork => format!("{:#?}", segmask::pipeline::build_layout_file_with(layout, &opts)?.artwork),
+    };
+    console::out(&text).map_err(|e| segmask::Error::io("standard output", e))?;
     Ok(ExitCode::SUCCESS)
 }
 
 fn print_findings(layout: &Path, built: &Built) {
     for f in &built.findings {
-        eprintln!("{}", segmask::emit::diagnostic(layout, f));
+        console::err(&segmask::emit::diagnostic(layout, f));
     }
     let errors = segmask::finding::count(&built.findings, Severity::Error);
     let warnings = segmask::finding::count(&built.findings, Severity::Warning);
-    eprintln!("{}: {errors} error(s), {warnings} warning(s)", built.layout.name);
+    console::err(&format!("{}: {errors} error(s), {warnings} warning(s)", built.layout.name));
 }
 
 fn exit_for(findings: &[Finding]) -> ExitCode {

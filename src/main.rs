@@ -1,6 +1,7 @@
 //! The `segmask` command: a thin layer of argument parsing over the library.
 
 mod cli;
+mod console;
 
 fn main() -> std::process::ExitCode {
     cli::run()

@@ -24,8 +24,13 @@ pub struct Built {
 
 /// Reads, resolves, builds and checks a layout.
 pub fn build_layout_file(path: &Path) -> Result<Built> {
+    build_layout_file_with(path, &crate::spec::InputOptions::default())
+}
+
+/// [`build_layout_file`] with the given input options.
+pub fn build_layout_file_with(path: &Path, opts: &crate::spec::InputOptions) -> Result<Built> {
     let start = Instant::now();
-    let layout = crate::spec::load_layout(path)?;
+    let layout = crate::spec::load_layout_with(path, opts)?;
     let spec_time = start.elapsed();
     let mut built = build_layout(layout)?;
     built.timings.insert(0, ("spec", spec_time));

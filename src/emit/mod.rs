@@ -2,10 +2,11 @@
 //!
 //! Takes the artwork and the findings, gives the bytes of every output file (films as
 //! SVG, PDF and PNG, the print sheet, Gerber, preview, GDSII, the mask order, the panel's
-//! files and its cut lines as DXF, pin map, segment map, report) and writes them
-//! atomically. Every output is one row of [`OUTPUTS`]: its file suffix, whether it is a
-//! mask (withheld while rule errors stand, decided once in [`render_outputs`]), whether it
-//! belongs to a panel (written only when the layout has one) and its writer. What a mask carries — mirrored or not, compensated
+//! files and its cut lines as DXF, pin map, segment map, report) and writes them as one
+//! set (`files.rs`). Every output is one row of [`OUTPUTS`]: its file suffix, whether it
+//! is a mask (withheld while rule errors stand, decided once in [`render_outputs`]),
+//! whether it belongs to a panel (written only when the layout has one) and its writer.
+//! What a mask carries — mirrored or not, compensated
 //! or not — is decided once in [`mask`] for every mask writer. Writers never compute
 //! geometry; they transform coordinates (mirror, flip y, snap) and nothing else — the one
 //! exception is cutting polygons into hole-free pieces ([`split`]), which GDSII and Gerber
@@ -15,6 +16,7 @@ mod csv;
 pub mod drawing;
 mod drive_info;
 mod dxf;
+mod fault;
 mod files;
 pub mod film;
 pub mod firmware_c;
@@ -22,6 +24,7 @@ mod firmware_json;
 pub mod gds;
 mod gdsii;
 mod gerber;
+mod lock;
 pub mod mask;
 mod order;
 mod page;
@@ -203,11 +206,33 @@ pub fn masks_withheld(findings: &[Finding], opts: &EmitOptions) -> bool {
     !opts.masks_despite_errors && findings.iter().any(|f| f.severity == Severity::Error)
 }
 
-/// Writes files into `dir` (created if needed), each through a temporary file
-/// (`.NAME.tmp-PID`) renamed into place once all are written, so no half-written file
-/// is ever left; on failure the temporaries are removed and the error names the path.
+pub use files::WriteOptions;
+
+/// Writes files into `dir` (created if needed) as one set, replacing files of the same
+/// names and keeping every other file (`files.rs`: staged in a fresh folder beside
+/// `dir` and swapped in, so any failure or kill leaves the old folder or the new one).
 pub fn write_atomically(dir: &Path, files: &[OutputFile]) -> Result<()> {
-    files::write_files(dir, files)
+    files::write_set(dir, files, &|_| false, &WriteOptions::default())
+}
+
+/// Writes the outputs of one build of the layout whose file stem is `stem` into `dir`
+/// as one set: every file of an earlier build of that stem (any suffix of [`OUTPUTS`])
+/// goes, so that masks withheld this time do not stay behind from an older design;
+/// other files (`show` drawings, the user's) are kept.
+pub fn write_build_set(dir: &Path, stem: &str, files: &[OutputFile], opts: &WriteOptions) -> Result<()> {
+    let ours = |name: &str| OUTPUTS.iter().any(|o| name.strip_prefix(stem).and_then(|r| r.strip_prefix('.')) == Some(o.suffix));
+    files::write_set(dir, files, &ours, opts)
+}
+
+/// Writes `files` into `dir` as one set, replacing files of the same names and keeping
+/// every other file, with the given options.
+pub fn write_set(dir: &Path, files: &[OutputFile], opts: &WriteOptions) -> Result<()> {
+    files::write_set(dir, files, &|_| false, opts)
+}
+
+/// Checks a `--date` before any work: `YYYY-MM-DD`, a real calendar day.
+pub fn check_date(date: &str) -> Result<()> {
+    gds::parse_date(date).map(|_| ()).ok_or_else(|| bad_date(date))
 }
 
 /// The input problem of a date that is not `YYYY-MM-DD`.

@@ -31,7 +31,7 @@ impl Quantity {
         match value {
             Some(x) if x >= self.range.0 && x <= self.range.1 => x,
             Some(x) => {
-                p.bad(key, format!("{x} is outside the plausible range"), self.allowed);
+                p.bad(key, format!("{} is outside the plausible range", super::read::number(x)), self.allowed);
                 default
             }
             None => {

@@ -4,6 +4,7 @@
 
 use super::problems::Problems;
 use super::raw::*;
+use super::limits::MAX_NET_NAME_CHARS;
 use super::read::{Sign, mm};
 use super::scalar::{OneOrList, Scalar};
 use crate::geom::pt;
@@ -36,6 +37,7 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, drive:
     if !name.is_empty() && !group_name_ok(&name) {
         p.bad(&k("name"), format!("`{name}` is not a digit group name"), GROUP_NAME);
     }
+    name_length(p, &name, &k("name"));
     let style = p.word(d.style.as_ref(), &k("style"), &STYLES, None);
     let mut count = p.int(d.count.as_ref(), &k("count"), None, 1);
     if count > MAX_DIGITS {
@@ -185,10 +187,19 @@ pub fn legends(p: &mut Problems, raw: &[RawLegend]) -> Vec<Legend> {
     out
 }
 
+/// A name is at most [`MAX_NET_NAME_CHARS`] characters long; false (and noted) when longer.
+fn name_length(p: &mut Problems, name: &str, key: &str) -> bool {
+    let n = name.chars().count();
+    if n > MAX_NET_NAME_CHARS {
+        p.bad(key, format!("a name of {n} characters is longer than segmask takes"), &format!("at most {MAX_NET_NAME_CHARS} characters"));
+    }
+    n <= MAX_NET_NAME_CHARS
+}
+
 /// A legend, icon or bar graph name.
 pub fn element_name(p: &mut Problems, v: Option<&Scalar>, key: &str) -> String {
     let name = p.text(v, key, None, NET_NAME);
-    if !name.is_empty() && !net_name_ok(&name) {
+    if name_length(p, &name, key) && !name.is_empty() && !net_name_ok(&name) {
         let why = if is_common_name(&name) { "is reserved for a common electrode" } else { "is not a net name" };
         p.bad(key, format!("`{name}` {why}"), NET_NAME);
     }

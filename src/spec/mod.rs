@@ -16,6 +16,8 @@ mod cell;
 mod elements;
 mod fit;
 mod gauges;
+pub mod input;
+pub mod limits;
 mod locate;
 mod nets;
 mod panel;
@@ -41,14 +43,53 @@ use crate::{Error, Result};
 use problems::Problems;
 use std::path::Path;
 
-/// Reads and resolves a layout file.
+/// Where input files may come from.
+#[derive(Debug, Clone, Default)]
+pub struct InputOptions {
+    /// Folders font files may come from besides the layout's own folder (and the
+    /// folders below it).
+    pub font_dirs: Vec<std::path::PathBuf>,
+}
+
+/// Reads and resolves a layout file; fonts only from the layout's folder.
 pub fn load_layout(path: &Path) -> Result<Layout> {
-    let text = std::fs::read_to_string(path).map_err(|e| crate::Error::io(path, e))?;
-    parse_layout(&text, path)
+    load_layout_with(path, &InputOptions::default())
+}
+
+/// Reads and resolves a layout file with the given input options.
+pub fn load_layout_with(path: &Path, opts: &InputOptions) -> Result<Layout> {
+    let text = input::read_text(path, limits::MAX_LAYOUT_BYTES, "layout file").map_err(|e| match e {
+        input::ReadProblem::Io(e) => crate::Error::io(path, e),
+        input::ReadProblem::Bad { line, column, message, allowed } => Error::input(InputProblem {
+            file: path.to_path_buf(),
+            line,
+            column,
+            key: String::new(),
+            message: format!("the layout file {message}"),
+            allowed: Some(allowed),
+        }),
+    })?;
+    parse_layout_with(&text, path, opts)
 }
 
 /// Resolves layout text; `path` is used for messages and for relative font files.
 pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
+    parse_layout_with(text, path, &InputOptions::default())
+}
+
+/// [`parse_layout`] with the given input options.
+pub fn parse_layout_with(text: &str, path: &Path, opts: &InputOptions) -> Result<Layout> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    if text.len() as u64 > limits::MAX_LAYOUT_BYTES {
+        return Err(Error::input(InputProblem {
+            file: path.to_path_buf(),
+            line: None,
+            column: None,
+            key: String::new(),
+            message: format!("the layout is {} bytes, larger than a layout file may be", text.len()),
+            allowed: Some(format!("at most {} bytes", limits::MAX_LAYOUT_BYTES)),
+        }));
+    }
     if text.lines().all(|l| l.trim().is_empty() || l.trim_start().starts_with('#')) {
         return Err(Error::input(InputProblem {
             file: path.to_path_buf(),
@@ -59,11 +100,28 @@ pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
             allowed: Some("a layout mapping (see docs/layout-format.md)".into()),
         }));
     }
+    if let Some((line, column)) = limits::too_deep(text) {
+        return Err(Error::input(InputProblem {
+            file: path.to_path_buf(),
+            line: Some(line),
+            column: Some(column),
+            key: String::new(),
+            message: format!("lists and mappings nest deeper than {} levels here", limits::MAX_DEPTH),
+            allowed: Some(format!("at most {} levels (a layout needs five)", limits::MAX_DEPTH)),
+        }));
+    }
     let (lines, repeats) = locate::key_lines_and_repeats(text);
-    let raw: raw::RawLayout =
-        serde_yaml::from_str(text).map_err(|e| Error::input(problems::from_yaml_error(path, &e, &repeats)))?;
+    let raw: raw::RawLayout = serde_yaml::from_str(text)
+        .map_err(|e| Error::input(problems::from_yaml_error(path, text, &e, &repeats)))?;
     let mut p = Problems::new(path, lines, repeats);
-    let layout = resolve_all(&mut p, &raw, path);
+    if !limits::counts(&mut p, &raw) {
+        return Err(Error::Input(p.into_sorted()));
+    }
+    let layout = resolve_all(&mut p, &raw, path, opts);
+    limits::grid(&mut p, &layout);
+    if nets::nets_clean(&p, &layout) {
+        limits::pads(&mut p, &layout);
+    }
     if nets::nets_clean(&p, &layout) {
         nets::check_unique(&mut p, &layout);
         nets::check_fixed_pins(&mut p, &layout);
@@ -76,7 +134,7 @@ pub fn parse_layout(text: &str, path: &Path) -> Result<Layout> {
 }
 
 /// Reads every part of the raw layout, in the order their defaults depend on each other.
-fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
+fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path, opts: &InputOptions) -> Layout {
     let name = resolve::name(p, raw.name.as_ref());
     let glass = resolve::glass(p, raw.glass.as_ref());
     let window = resolve::window(p, raw.window.as_ref());
@@ -90,7 +148,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path) -> Layout {
     let drive = resolve::drive(p, raw.drive.as_ref());
     let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules, &drive);
     let legends = elements::legends(p, raw.legends.as_deref().unwrap_or(&[]));
-    let extra_fonts = resolve::fonts(p, raw.fonts.as_ref(), path);
+    let extra_fonts = resolve::fonts(p, raw.fonts.as_ref(), path, &opts.font_dirs);
     let icons = elements::icons(p, raw.icons.as_deref().unwrap_or(&[]), &gauges::icon_names(&extra_fonts));
     let bars = bars::bars(p, raw.bars.as_deref().unwrap_or(&[]), &rules);
     let buses = elements::buses(p, raw.buses.as_deref().unwrap_or(&[]), &rules);

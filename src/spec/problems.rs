@@ -53,6 +53,11 @@ impl Problems {
         !self.found.iter().any(|p| keys.iter().any(|k| is_under(&p.key, k)))
     }
 
+    /// How many problems were noted.
+    pub fn len(&self) -> usize {
+        self.found.len()
+    }
+
     /// True when nothing at all was noted.
     pub fn is_empty(&self) -> bool {
         self.found.is_empty()
@@ -91,9 +96,24 @@ pub fn is_under(key: &str, prefix: &str) -> bool {
 
 /// Turns a serde_yaml error into an input problem: line and column from its location,
 /// key path from its message, and plainer words for unknown and repeated keys.
-pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error, repeats: &BTreeMap<String, usize>) -> InputProblem {
+pub fn from_yaml_error(
+    file: &Path,
+    source: &str,
+    e: &serde_yaml::Error,
+    repeats: &BTreeMap<String, usize>,
+) -> InputProblem {
     let loc = e.location();
     let mut text = e.to_string();
+    if text.contains("more than one document") {
+        return InputProblem {
+            file: file.to_path_buf(),
+            line: second_document(source),
+            column: Some(1),
+            key: String::new(),
+            message: "a second YAML document starts here".into(),
+            allowed: Some("one layout per file: remove the second `---` and what follows, or split the file".into()),
+        };
+    }
     if let Some(l) = &loc {
         let suffix = format!(" at line {} column {}", l.line(), l.column());
         if let Some(cut) = text.find(&suffix) {
@@ -104,7 +124,11 @@ pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error, repeats: &BTreeMap<St
     let mut allowed = None;
     let mut line = loc.as_ref().map(|l| l.line());
     let mut column = loc.as_ref().map(|l| l.column());
-    if let Some(rest) = message.strip_prefix("unknown field ") {
+    if message.starts_with("unknown field `<<`") {
+        message = "YAML merge keys (`<<`) are not supported".into();
+        allowed = Some("the keys written out in full (anchors and aliases `&name`, `*name` of whole values work)".into());
+        key = join_key(&key, "<<");
+    } else if let Some(rest) = message.strip_prefix("unknown field ") {
         let (field, expected) = rest.split_once(", expected ").unwrap_or((rest, ""));
         let field = field.trim_matches('`').to_string();
         let names = expected.trim_start_matches("one of ").replace('`', "").replace(" or ", ", ");
@@ -125,6 +149,23 @@ pub fn from_yaml_error(file: &Path, e: &serde_yaml::Error, repeats: &BTreeMap<St
         }
     }
     InputProblem { file: file.to_path_buf(), line, column, key, message, allowed }
+}
+
+/// 1-based line of the marker that starts a second document in `text`: a `---` or
+/// `...` line after some content (a `---` before any content only opens the first).
+fn second_document(text: &str) -> Option<usize> {
+    let mut content = false;
+    for (i, line) in text.lines().enumerate() {
+        let marker = ["---", "..."].iter().any(|m| line.strip_prefix(m).is_some_and(|r| r.is_empty() || r.starts_with([' ', '\t', '#', '\r'])));
+        if marker && content {
+            return Some(i + 1 + usize::from(line.starts_with("...")));
+        }
+        let t = line.trim();
+        if !marker && !t.is_empty() && !t.starts_with('#') && !t.starts_with('%') {
+            content = true;
+        }
+    }
+    None
 }
 
 fn join_key(path: &str, field: &str) -> String {

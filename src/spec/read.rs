@@ -3,6 +3,7 @@
 //! missing, so resolution goes on and every problem is reported.
 
 use super::problems::Problems;
+use super::limits::{MAX_ANGLE_DEG, MAX_LENGTH_MM, MAX_WHOLE};
 use super::scalar::{RawPoint, Scalar, ScalarKind};
 use super::units::{LENGTH_UNITS, parse_angle, parse_length};
 use crate::geom::{Pt, pt};
@@ -47,6 +48,14 @@ impl Problems {
                 self.add(key, m, Some(a));
                 PLACEHOLDER
             }
+            Ok(x) if x.abs() > MAX_LENGTH_MM => {
+                self.add(
+                    key,
+                    format!("{} is beyond the largest length segmask takes", mm(x)),
+                    Some(format!("at most {MAX_LENGTH_MM} mm (1 m) either way")),
+                );
+                PLACEHOLDER
+            }
             Ok(x) => self.signed(x, key, sign),
         }
     }
@@ -74,10 +83,17 @@ impl Problems {
             ScalarKind::Text => parse_angle(&v.text).map_err(|e| (e.message, e.allowed)),
             _ => Err((format!("{} is not an angle", describe(v)), "a number of degrees".to_string())),
         };
-        value.unwrap_or_else(|(m, a)| {
-            self.add(key, m, Some(a));
-            default
-        })
+        match value {
+            Ok(x) if x.abs() > MAX_ANGLE_DEG => {
+                self.add(key, format!("{}° is more than two turns", number(x)), Some(format!("-{MAX_ANGLE_DEG} to {MAX_ANGLE_DEG} degrees")));
+                default
+            }
+            Ok(x) => x,
+            Err((m, a)) => {
+                self.add(key, m, Some(a));
+                default
+            }
+        }
     }
 
     /// A whole number at least `min`; `default` when absent (`None`: required).
@@ -89,12 +105,21 @@ impl Problems {
             });
         };
         let n = match v.kind {
-            ScalarKind::Integer(i) => i64::try_from(i).ok(),
+            ScalarKind::Integer(i) => Some(i64::try_from(i).unwrap_or(if i > 0 { i64::MAX } else { i64::MIN })),
             ScalarKind::Number(x) if x.fract() == 0.0 && x.abs() < 1e15 => Some(x as i64),
+            ScalarKind::Number(x) if x.is_finite() && x.fract() == 0.0 => Some(if x > 0.0 { i64::MAX } else { i64::MIN }),
             ScalarKind::Text => v.text.trim().parse::<i64>().ok(),
             _ => None,
         };
         match n {
+            Some(n) if n > MAX_WHOLE => {
+                self.add(
+                    key,
+                    format!("{n} is more than segmask counts to"),
+                    Some(format!("a whole number from {min} to {MAX_WHOLE}")),
+                );
+                min
+            }
             Some(n) if n >= min => n,
             Some(n) => {
                 self.add(
@@ -217,9 +242,17 @@ fn length_allowed(sign: Sign) -> String {
 
 /// A length for messages: mm with up to 4 decimals, trailing zeros dropped.
 pub fn mm(x: f64) -> String {
+    format!("{} mm", number(x))
+}
+
+/// A number for messages: up to 4 decimals, trailing zeros dropped; huge values (from a
+/// slip such as `1e300`) in exponent form rather than three hundred digits.
+pub fn number(x: f64) -> String {
+    if x.abs() >= 1e7 || !x.is_finite() {
+        return format!("{x:e}");
+    }
     let s = format!("{x:.4}");
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    format!("{s} mm")
+    s.trim_end_matches('0').trim_end_matches('.').to_string()
 }
 
 #[cfg(test)]
@@ -278,5 +311,6 @@ mod tests {
         assert_eq!(mm(1.5), "1.5 mm");
         assert_eq!(mm(2.0), "2 mm");
         assert_eq!(mm(0.00012), "0.0001 mm");
+        assert_eq!(mm(1e300), "1e300 mm");
     }
 }

@@ -22,7 +22,10 @@ const NO_RECT: Rect = Rect { x: 0.0, y: 0.0, width: 1.0, height: 1.0 };
 pub fn name(p: &mut Problems, v: Option<&Scalar>) -> String {
     let allowed = "letters, digits, `-` and `_`; it becomes the output file name";
     let n = p.text(v, "name", None, allowed);
-    if !n.is_empty() && !n.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_') {
+    let max = super::limits::MAX_NAME_CHARS;
+    if n.chars().count() > max {
+        p.bad("name", format!("{} characters are more than an output file name takes", n.chars().count()), &format!("at most {max} characters; {allowed}"));
+    } else if !n.is_empty() && !n.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_') {
         p.bad("name", format!("`{n}` has characters a file name should not have"), allowed);
     }
     n
@@ -235,6 +238,9 @@ pub fn pads(p: &mut Problems, r: Option<&RawPads>) -> Pads {
     let first_pin = p.int(get(|r| &r.first_pin), "pads.first_pin", Some(1), 0);
     let start = get(|r| &r.start).map(|v| p.length(Some(v), "pads.start", None, Sign::NonNegative));
     let count = get(|r| &r.count).map(|v| p.int(Some(v), "pads.count", None, 1));
+    if let Some(n) = count.filter(|n| *n > super::limits::MAX_PADS) {
+        p.bad("pads.count", format!("{n} pads are more than one pad row takes"), &format!("1 to {}", super::limits::MAX_PADS));
+    }
     let mut fixed = BTreeMap::new();
     for (net, pin) in r.and_then(|r| r.fixed.as_ref()).map(|e| e.0.as_slice()).unwrap_or(&[]) {
         let key = format!("pads.fixed.{}", net.text);
@@ -423,9 +429,16 @@ fn layer_pair(p: &mut Problems, v: &OneOrList, key: &str) -> Option<(i16, i16)> 
     p.clean(&[key]).then_some((out[0], out[1]))
 }
 
-/// `fonts:` read relative to the layout file.
-pub fn fonts(p: &mut Problems, f: Option<&Vec<Scalar>>, file: &Path) -> Vec<FontSource> {
+/// `fonts:` read relative to the layout file. A font must lie in the layout's folder
+/// (or below it) or in one of `font_dirs` (the command line's `--fonts-from`), after
+/// symbolic links are followed: a layout from elsewhere must not make segmask read any
+/// file it names (docs/layout-format.md, *Limits*).
+pub fn fonts(p: &mut Problems, f: Option<&Vec<Scalar>>, file: &Path, font_dirs: &[std::path::PathBuf]) -> Vec<FontSource> {
     let dir = file.parent().unwrap_or(Path::new(""));
+    let roots: Vec<std::path::PathBuf> = std::iter::once(if dir.as_os_str().is_empty() { Path::new(".") } else { dir })
+        .chain(font_dirs.iter().map(|d| d.as_path()))
+        .filter_map(|d| std::fs::canonicalize(d).ok())
+        .collect();
     let mut out = Vec::new();
     for (i, s) in f.map(|f| f.as_slice()).unwrap_or(&[]).iter().enumerate() {
         let key = format!("fonts[{i}]");
@@ -434,13 +447,30 @@ pub fn fonts(p: &mut Problems, f: Option<&Vec<Scalar>>, file: &Path) -> Vec<Font
             continue;
         }
         let path = dir.join(&name);
-        match std::fs::read_to_string(&path) {
+        let allowed = "a readable font file in the layout's folder (or below it), or in a folder given with --fonts-from";
+        let real = match std::fs::canonicalize(&path) {
+            Ok(r) => r,
+            Err(e) => {
+                p.bad(&key, format!("cannot read `{}`: {e}", path.display()), allowed);
+                continue;
+            }
+        };
+        if !roots.iter().any(|r| real.starts_with(r)) {
+            p.bad(&key, format!("`{name}` lies outside the layout's folder"), allowed);
+            continue;
+        }
+        match super::input::read_text(&real, super::limits::MAX_FONT_BYTES, "font file") {
             Ok(text) => out.push(FontSource { path, text }),
-            Err(e) => p.bad(
-                &key,
-                format!("cannot read `{}`: {e}", path.display()),
-                "a readable font file, relative to the layout file",
-            ),
+            Err(super::input::ReadProblem::Io(e)) => {
+                p.bad(&key, format!("cannot read `{}`: {e}", path.display()), allowed)
+            }
+            Err(super::input::ReadProblem::Bad { line, column, message, allowed }) => {
+                let at = match (line, column) {
+                    (Some(l), Some(c)) => format!(" (its line {l}, column {c})"),
+                    _ => String::new(),
+                };
+                p.bad(&key, format!("the font file `{name}` {message}{at}"), &allowed)
+            }
         }
     }
     out

@@ -63,6 +63,12 @@ impl<'de> Visitor<'de> for ScalarVisitor {
     fn visit_u64<E: de::Error>(self, v: u64) -> Result<Scalar, E> {
         Ok(Scalar { text: v.to_string(), kind: ScalarKind::Integer(v as i128) })
     }
+    fn visit_i128<E: de::Error>(self, v: i128) -> Result<Scalar, E> {
+        Ok(Scalar { text: v.to_string(), kind: ScalarKind::Integer(v) })
+    }
+    fn visit_u128<E: de::Error>(self, v: u128) -> Result<Scalar, E> {
+        Ok(Scalar { text: v.to_string(), kind: ScalarKind::Integer(i128::try_from(v).unwrap_or(i128::MAX)) })
+    }
     fn visit_f64<E: de::Error>(self, v: f64) -> Result<Scalar, E> {
         Ok(Scalar::number(v))
     }

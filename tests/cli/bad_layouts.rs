@@ -113,6 +113,69 @@ const CASES: &[Case] = &[
         27,
         "parts `battery-shell` and `battery-bar-1` of gauge `battery` touch",
     ),
+    // Limits (docs/layout-format.md, *Limits*), non-finite numbers and hostile files:
+    // each refused in the spec stage with its line, key and the limit.
+    Case("glass-1e20", "glass.front.width", 4, "1e20 mm is beyond the largest length segmask takes (allowed: at most 1000 mm"),
+    Case("glass-1e308", "glass.front.height", 4, "1e308 mm is beyond the largest length"),
+    Case("glass-over-a-metre", "glass.front.width", 4, "1001 mm is beyond the largest length"),
+    Case("glass-grid-too-big", "glass.front", 4, "needs 1296 million grid cells (allowed: at most 100 million cells"),
+    Case("glass-huge-integer", "glass.front.width", 4, "1e26 mm is beyond the largest length"),
+    Case("origin-1e300", "digits[0].origin[0]", 18, "1e300 mm is beyond the largest length"),
+    Case("ring-centre-1e300", "icons[1].ring.centre[1]", 28, "1e300 mm is beyond the largest length"),
+    Case("bus-point-1e300", "buses[0].points[0][0]", 30, "1e300 mm is beyond the largest length"),
+    Case("seal-width-nan", "seal.width", 8, "`NaN` is not a length"),
+    Case("window-x-minus-inf", "window.x", 6, "`-inf` is not a length"),
+    Case("pitch-inf-text", "pads.pitch", 11, "`inf mm` is not a length"),
+    Case("rectangle-width-inf", "icons[1].rectangle.width", 28, "`inf` is not a length"),
+    Case("cell-gap-nan", "cell_gap", 7, "`NaN` is not a length"),
+    Case("tolerance-inf", "tolerance", 8, "`inf` is not a length"),
+    Case("marks-size-5-m", "marks.size", 8, "5000 mm is beyond the largest length"),
+    Case("slant-1e300", "digits[0].slant", 22, "1e300° is more than two turns (allowed: -720 to 720 degrees)"),
+    Case("slant-nan", "digits[0].slant", 22, "`NaN` is not an angle"),
+    Case("voltage-nan", "electrical.voltage", 8, "`NaN` is not a number with a known unit"),
+    Case("birefringence-inf", "mixture.birefringence", 8, "`inf` is not a number with a known unit"),
+    Case("wavelength-1e308", "optics.wavelength", 8, "1e308 is outside the plausible range"),
+    Case("bar-arc-start-1e9", "bars[0].arc.start", 31, "1e9° is more than two turns"),
+    Case("bar-count-nan", "bars[0].count", 28, "`NaN` is not a whole number"),
+    Case("first-pin-near-2-32", "pads.first_pin", 13, "4294967290 is more than segmask counts to (allowed: a whole number from 0 to 1000000)"),
+    Case("fixed-pin-huge", "pads.fixed.COM1", 13, "99999999999 is more than segmask counts to"),
+    Case("pads-count-1e9", "pads.count", 13, "1000000000 is more than segmask counts to"),
+    Case("pads-count-1500", "pads.count", 13, "1500 pads are more than one pad row takes (allowed: 1 to 1000)"),
+    Case("first-pin-text-huge", "pads.first_pin", 13, "`99999999999999999999999` is not a whole number"),
+    Case("copies-1e12", "masks.copies", 8, "1000000000000 is more than segmask counts to"),
+    Case("gds-layer-1e12", "gds_layers.seal", 8, "1000000000000 is more than segmask counts to"),
+    Case("fixed-seg-huge", "drive.fixed.D1.a.seg", 15, "10000000000 is more than segmask counts to"),
+    Case("digit-count-1e9", "digits", 14, "1000000000 digits over all groups are more than segmask lays out (allowed: at most 200 digits in all)"),
+    Case("digits-over-200", "digits", 14, "304 digits over all groups"),
+    Case("digit-groups-21", "digits", 14, "22 digit groups are more than segmask takes here (allowed: at most 20 digit groups)"),
+    Case("legends-201", "legends", 24, "202 legends are more than segmask takes here (allowed: at most 200 legends)"),
+    Case("legend-65-chars", "legends[0].text", 25, "65 characters are more than one legend holds (allowed: at most 64 characters"),
+    Case("legend-5000-chars", "legends[0].text", 25, "5000 characters are more than one legend holds"),
+    Case("legend-wider-than-window", "legends[0].text", 25, "legend `UNIT_MV` of 40 characters is at least 56 mm wide (one stroke a character), wider than the window"),
+    Case("icons-401", "icons", 26, "403 icons are more than segmask takes here (allowed: at most 400 icons)"),
+    Case("polygon-1001-points", "icons[1].polygon", 29, "1001 points are more than segmask takes here (allowed: at most 1000 points)"),
+    Case("path-10001-chars", "icons[1].path.d", 29, "characters are more than one icon's path data takes (allowed: at most 10000 characters)"),
+    Case("bus-1001-points", "buses[0].points", 30, "1001 points are more than segmask takes here"),
+    Case("buses-201", "buses", 29, "202 buses are more than segmask takes here"),
+    Case("bars-51", "bars", 31, "51 bar graphs are more than segmask takes here"),
+    Case("fonts-17", "fonts", 31, "17 font files are more than segmask takes here"),
+    Case("name-231-chars", "name", 2, "231 characters are more than an output file name takes (allowed: at most 64 characters"),
+    Case("name-255-chars", "name", 2, "255 characters are more than an output file name takes"),
+    Case("net-name-too-long", "legends[0].name", 25, "a name of 70 characters is longer than segmask takes (allowed: at most 64 characters)"),
+    Case("group-name-too-long", "digits[0].name", 15, "a name of 70 characters is longer than segmask takes"),
+    Case("nesting-flow-40", "", 31, "lists and mappings nest deeper than 32 levels here"),
+    Case("nesting-block-40", "", 32, "lists and mappings nest deeper than 32 levels here"),
+    Case("merge-key", "glass.back.<<", 5, "YAML merge keys (`<<`) are not supported"),
+    Case("second-document", "", 31, "a second YAML document starts here"),
+    Case("invalid-utf8", "", 25, "the layout file is not valid UTF-8 (the first bad byte is byte 537 of the file)"),
+    Case("tab-indentation", "", 10, "found character that cannot start any token"),
+    Case("font-outside-folder", "fonts[0]", 31, "`/etc/hostname` lies outside the layout's folder"),
+    Case("font-climbs-out", "fonts[0]", 31, "`../../../Cargo.toml` lies outside the layout's folder"),
+    Case("font-dev-zero", "fonts[0]", 31, "`/dev/zero` lies outside the layout's folder"),
+    Case("font-is-folder", "fonts[0]", 31, "the font file `.` is a folder, not a regular file"),
+    Case("pads-needed-over-1000", "pads", 9, "1398 pads are needed, more than one pad row takes (allowed: at most 1000 pads)"),
+    Case("alias-bomb", "legends[0].text", 25, "a list is not a single value"),
+
 ];
 
 fn fixture(stem: &str) -> PathBuf {
@@ -173,7 +236,7 @@ fn every_fixture_is_in_the_table() {
     let mut table: Vec<String> = CASES.iter().map(|c| c.0.to_string()).collect();
     table.sort();
     assert_eq!(stems, table);
-    assert!(table.len() >= 24);
+    assert!(table.len() >= 100);
 }
 
 #[test]

@@ -10,6 +10,8 @@ mod emit_fixture;
 mod layout_gen;
 #[path = "../../examples/benchmark/presets.rs"]
 mod presets;
+#[path = "../../examples/fuzz/mutate.rs"]
+mod mutate;
 
 mod bad_layouts;
 mod bar_graph;
@@ -22,11 +24,14 @@ mod emit_gds;
 mod emit_segmap;
 mod findings;
 mod firmware_tables;
+mod fuzz_bounded;
 mod laser_rules;
 mod multiplex;
+mod output_set;
 mod panel;
 mod png_films;
 mod position_sweep;
 mod reference;
 mod registration_demo;
+mod robust;
 mod show_display;
