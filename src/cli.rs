@@ -175,18 +175,25 @@ fn build(
     segmask::emit::check_date(&date)?;
     check_out(out)?;
     let built = segmask::pipeline::build_layout_file_with(layout, &input.options()?)?;
-    if timings {
-        for (stage, d) in &built.timings {
-            console::err(&format!("time {stage:>9}: {:8.3} s", d.as_secs_f64()));
-        }
-    }
+    let mut stages = built.timings.clone();
     print_findings(layout, &built);
     let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
+    let t = std::time::Instant::now();
     let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts)?;
+    stages.push(("emit", t.elapsed()));
+    let t = std::time::Instant::now();
     let write = segmask::emit::WriteOptions { lock_wait: std::time::Duration::from_secs(lock_wait) };
     segmask::emit::write_build_set(out, &segmask::emit::file_stem(&built.artwork.name), &files, &write)?;
+    stages.push(("write", t.elapsed()));
     for f in &files {
         console::err(&format!("wrote {}", out.join(&f.name).display()));
+    }
+    if timings {
+        // Every stage, the writers and the writing of the set included, after the files
+        // they timed.
+        for (stage, d) in &stages {
+            console::err(&format!("time {stage:>9}: {:8.3} s", d.as_secs_f64()));
+        }
     }
     if segmask::emit::masks_withheld(&built.findings, &opts) {
         console::err("films and GDSII withheld while rule errors stand (pass --masks-despite-errors to write them anyway)");

@@ -169,3 +169,26 @@ fn kills_failures_locks_and_planted_links_never_leave_a_mixed_set() {
     assert!(contains(&last["minimal.front.gbr"], dated[0]) && contains(&last["minimal.masks.json"], dated[0]));
     assert!(siblings(tmp.path()).is_empty(), "{:?}", siblings(tmp.path()));
 }
+
+/// `--timings` lists every stage in pipeline order, the writers (`emit`) and the writing
+/// of the set (`write`) last, each once with a time in seconds.
+#[test]
+fn timings_name_every_stage_including_emit_and_write() {
+    let tmp = tempfile::tempdir().unwrap();
+    let o = Command::new(env!("CARGO_BIN_EXE_segmask"))
+        .arg("build")
+        .arg(minimal())
+        .arg("--out")
+        .arg(tmp.path().join("out"))
+        .args(["--date", "2026-12-01", "--timings"])
+        .output()
+        .unwrap();
+    let err = String::from_utf8_lossy(&o.stderr);
+    let stages: Vec<&str> = err
+        .lines()
+        .filter_map(|l| l.strip_prefix("time "))
+        .map(|l| l.split(':').next().unwrap().trim())
+        .collect();
+    assert_eq!(stages, ["spec", "glyph", "assign", "electrode", "route", "plate", "check", "plan", "emit", "write"], "{err}");
+    assert!(err.lines().filter(|l| l.starts_with("time ")).all(|l| l.ends_with(" s")), "{err}");
+}
