@@ -19,8 +19,8 @@
 //!   others are mitred among themselves as if it were not there;
 //! * a segment end with no neighbour is cut square at its node.
 //!
-//! With `gap = 0` the same construction gives the segment *bodies*, which tile the digit
-//! without gaps.
+//! The segment *bodies*, which tile the digit without gaps, are built from the same cuts
+//! in `body.rs`.
 
 use super::font::{DotShape, SegmentDef, SkeletonDef};
 use crate::geom::{Polygon, Pt, pt};
@@ -63,9 +63,17 @@ impl Cell {
 
 /// A half-plane `n·p ≥ c`.
 #[derive(Debug, Clone, Copy)]
-struct Half {
-    n: Pt,
-    c: f64,
+pub(super) struct Half {
+    pub(super) n: Pt,
+    pub(super) c: f64,
+}
+
+/// One cut at a segment's end, and the segment it gives way to when the cut runs
+/// parallel to that segment's edge (a T junction, or a minor segment meeting a major).
+#[derive(Debug, Clone, Copy)]
+pub(super) struct Cut {
+    pub(super) half: Half,
+    pub(super) gives_way_to: Option<usize>,
 }
 
 /// A direction leaving a node along a segment.
@@ -85,7 +93,7 @@ const EPS: f64 = 1e-9;
 fn sub(a: Pt, b: Pt) -> Pt {
     pt(a.x - b.x, a.y - b.y)
 }
-fn dot(a: Pt, b: Pt) -> f64 {
+pub(super) fn dot(a: Pt, b: Pt) -> f64 {
     a.x * b.x + a.y * b.y
 }
 fn unit(a: Pt) -> Pt {
@@ -109,7 +117,8 @@ pub fn build_segments(skel: &SkeletonDef, cell: &Cell, gap: f64) -> Result<Vec<(
         let (p0, p1) = (cell.map(*from), cell.map(*to));
         let mut cuts = end_cuts(segs, cell, i, *from, gap)?;
         cuts.extend(end_cuts(segs, cell, i, *to, gap)?);
-        let poly = clip_band(p0, p1, cell, &cuts);
+        let halves: Vec<Half> = cuts.iter().map(|c| c.half).collect();
+        let poly = clip_band(p0, p1, cell, &halves);
         if poly.len() < 3 || ring_area(&poly) < 1e-12 {
             return Err(format!("segment `{name}` vanishes: the stroke is too wide for the cell"));
         }
@@ -154,7 +163,7 @@ fn ccw_gap(a: f64, b: f64) -> f64 {
 }
 
 /// The cuts at segment `seg`'s end lying at unit-cell point `at`.
-fn end_cuts(segs: &[SegmentDef], cell: &Cell, seg: usize, at: Pt, gap: f64) -> Result<Vec<Half>, String> {
+pub(super) fn end_cuts(segs: &[SegmentDef], cell: &Cell, seg: usize, at: Pt, gap: f64) -> Result<Vec<Cut>, String> {
     let node = cell.map(at);
     let mut rays = rays_at(segs, cell, at);
     let minor = segs[seg].minor;
@@ -165,7 +174,7 @@ fn end_cuts(segs: &[SegmentDef], cell: &Cell, seg: usize, at: Pt, gap: f64) -> R
     let k = rays.iter().position(|r| r.seg == seg && !r.through).ok_or("skeleton node lookup failed")?;
     let me = rays[k];
     if rays.len() == 1 {
-        return Ok(vec![Half { n: me.dir, c: dot(me.dir, node) }]);
+        return Ok(vec![Cut { half: Half { n: me.dir, c: dot(me.dir, node) }, gives_way_to: None }]);
     }
     let next = rays[(k + 1) % rays.len()];
     let prev = rays[(k + rays.len() - 1) % rays.len()];
@@ -177,7 +186,7 @@ fn end_cuts(segs: &[SegmentDef], cell: &Cell, seg: usize, at: Pt, gap: f64) -> R
             if dot(m, me.dir) < 0.0 {
                 m = pt(-m.x, -m.y);
             }
-            cuts.push(Half { n: m, c: dot(m, node) + cell.stroke / 2.0 + gap });
+            cuts.push(Cut { half: Half { n: m, c: dot(m, node) + cell.stroke / 2.0 + gap }, gives_way_to: Some(other.seg) });
             continue;
         }
         let delta = if is_next { ccw_gap(me.angle, other.angle) } else { ccw_gap(other.angle, me.angle) };
@@ -192,14 +201,14 @@ fn end_cuts(segs: &[SegmentDef], cell: &Cell, seg: usize, at: Pt, gap: f64) -> R
             let b = rotate(me.dir, -delta / 2.0);
             pt(-b.y, b.x)
         };
-        cuts.push(Half { n, c: dot(n, node) + gap / 2.0 });
+        cuts.push(Cut { half: Half { n, c: dot(n, node) + gap / 2.0 }, gives_way_to: None });
     }
     Ok(cuts)
 }
 
 /// The band of width `stroke` around p0–p1, long enough to be bounded only by the cuts,
 /// clipped by every cut (Sutherland–Hodgman; the band is convex, so is the result).
-fn clip_band(p0: Pt, p1: Pt, cell: &Cell, cuts: &[Half]) -> Vec<Pt> {
+pub(super) fn clip_band(p0: Pt, p1: Pt, cell: &Cell, cuts: &[Half]) -> Vec<Pt> {
     let d = unit(sub(p1, p0));
     let nn = pt(-d.y, d.x);
     let h = cell.stroke / 2.0;
@@ -212,7 +221,7 @@ fn clip_band(p0: Pt, p1: Pt, cell: &Cell, cuts: &[Half]) -> Vec<Pt> {
     poly
 }
 
-fn clip(poly: &[Pt], h: Half) -> Vec<Pt> {
+pub(super) fn clip(poly: &[Pt], h: Half) -> Vec<Pt> {
     let f = |p: Pt| dot(h.n, p) - h.c;
     let mut out = Vec::with_capacity(poly.len() + 1);
     for i in 0..poly.len() {
@@ -233,7 +242,7 @@ fn clip(poly: &[Pt], h: Half) -> Vec<Pt> {
     out
 }
 
-fn ring_area(p: &[Pt]) -> f64 {
+pub(super) fn ring_area(p: &[Pt]) -> f64 {
     let mut a = 0.0;
     for i in 0..p.len() {
         let (u, v) = (p[i], p[(i + 1) % p.len()]);
@@ -242,7 +251,7 @@ fn ring_area(p: &[Pt]) -> f64 {
     a / 2.0
 }
 
-fn ring_to_polygon(mut v: Vec<Pt>) -> Polygon {
+pub(super) fn ring_to_polygon(mut v: Vec<Pt>) -> Polygon {
     v.push(v[0]);
     Polygon::new(LineString::from(v), vec![])
 }

@@ -4,6 +4,7 @@
 //! (segments in the style's order, then `dp`, then `col`), or the input problems found
 //! (a cell too small for its stroke, dots that do not fit between the digits).
 
+use super::body::build_bodies;
 use super::digit::{Cell, build_segments, colon, decimal_point};
 use super::fonts::Fonts;
 use super::outline::finish;
@@ -57,7 +58,7 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
     let mut problems = Vec::new();
     for i in 1..=g.count {
         let cell = cell_of(i);
-        let (outlines, bodies) = match (segs_of(i, g.gap), segs_of(i, 0.0)) {
+        let (outlines, bodies) = match (segs_of(i, g.gap), build_bodies(skel, &cell_of(i), g.gap)) {
             (Ok(o), Ok(b)) => (o, b),
             (Err(e), _) | (_, Err(e)) => return Err(bad("stroke", e, None)),
         };
@@ -67,7 +68,7 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
                 continue;
             }
             let drives = format!("digit {i} segment {name}");
-            out.push(element(g, i, name, vec![outline.clone()], Some(vec![body.clone()]), drives)?);
+            out.push(element(g, i, name, vec![outline.clone()], Some(body.clone()), drives)?);
         }
         // Dots must keep the gap from this digit, the next one and each other.
         let (has_dp, has_colon) = (g.decimal_points.contains(&i), g.colons.contains(&i));

@@ -8,6 +8,7 @@
 //! `fonts-strokes/README.md`, the constructions in `docs/glyphs.md`.
 
 pub mod bar;
+pub mod body;
 pub mod charset;
 pub mod digit;
 pub mod font;
