@@ -235,7 +235,13 @@ fn claim_lead(grid: &mut Grid, layout: &Layout, pts: &[Pt], owner: u32, k: f64) 
 fn stuck(grid: &Grid, nets: &[NetPieces], i: usize, b: &super::search::Blocked, why: &str) -> Finding {
     let mut names = vec![nets[i].name.clone()];
     names.extend(b.blockers.iter().take(2).filter_map(|&o| nets.get(o as usize - 1)).map(|n| n.name.clone()));
-    let by = if names.len() > 1 { format!("; blocked by {}", names[1..].join(" and ")) } else { "; the way out is closed".to_string() };
+    let by = if b.over_budget {
+        "; the search reached its memory budget before finding a way (a way this long is a sign of a layout far too crowded)".to_string()
+    } else if names.len() > 1 {
+        format!("; blocked by {}", names[1..].join(" and "))
+    } else {
+        "; the way out is closed".to_string()
+    };
     Finding {
         rule: Rule::Unroutable,
         severity: Severity::Error,

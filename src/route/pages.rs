@@ -146,6 +146,12 @@ impl<T: Copy + PartialEq> PagedCells<T> {
     }
 }
 
+/// Most pages one search may be lent (8 M cells): the bound that keeps a search's state
+/// within a fixed budget whatever the size of the glass (docs/performance.md, *Memory
+/// bound*). Searches run inside corridors and reach far fewer; one that would need more
+/// stops, as if blocked.
+pub const MAX_PAGES_LENT: usize = 2048;
+
 /// Per-cell state of one search, lent by page from a pool and valid only in the search
 /// that stamped it: a page touched in an earlier search reads as untouched.
 pub struct Scratch<T: Copy> {
@@ -196,14 +202,19 @@ impl<T: Copy> Scratch<T> {
         self.get(x, y).unwrap_or(self.fill)
     }
 
-    /// Sets cell `(x, y)` for this search.
+    /// Sets cell `(x, y)` for this search; false (and nothing set) when that would lend
+    /// the search more than [`MAX_PAGES_LENT`] pages.
     #[inline]
-    pub fn set(&mut self, x: usize, y: usize, v: T) {
+    #[must_use]
+    pub fn set(&mut self, x: usize, y: usize, v: T) -> bool {
         let (p, o) = self.geom.locate_xy(x, y);
         let (s, slot) = self.table[p];
         let slot = if s == self.search {
             slot as usize
         } else {
+            if self.lent == MAX_PAGES_LENT {
+                return false;
+            }
             if self.lent == self.slots.len() {
                 self.slots.push((vec![self.fill; CELLS].into_boxed_slice(), vec![0; CELLS].into_boxed_slice()));
             }
@@ -214,6 +225,7 @@ impl<T: Copy> Scratch<T> {
         let (vals, stamps) = &mut self.slots[slot];
         vals[o] = v;
         stamps[o] = self.search;
+        true
     }
 
     /// Pages held in the pool (the most one search has needed).
@@ -271,8 +283,7 @@ mod tests {
     fn scratch_forgets_earlier_searches_and_reuses_its_pages() {
         let g = PageGeom::of(1000, 1000);
         let mut s = Scratch::new(g, 0.0f32);
-        s.set(10, 10, 1.0);
-        s.set(900, 900, 2.0);
+        assert!(s.set(10, 10, 1.0) && s.set(900, 900, 2.0));
         assert_eq!(s.get(10, 10), Some(1.0));
         assert_eq!(s.get(11, 10), None);
         assert_eq!(s.value(11, 10), 0.0);
@@ -280,8 +291,28 @@ mod tests {
         s.next_search();
         assert_eq!(s.get(10, 10), None);
         assert_eq!(s.get(900, 900), None);
-        s.set(500, 500, 3.0);
+        assert!(s.set(500, 500, 3.0));
         assert_eq!(s.get(500, 500), Some(3.0));
         assert_eq!(s.pages_held(), 2, "pages of the last search are lent again");
+    }
+
+    /// A search is lent at most MAX_PAGES_LENT pages: the next page is refused and
+    /// nothing is set; pages already lent still take values; the next search starts over.
+    #[test]
+    fn a_search_is_lent_at_most_its_budget_of_pages() {
+        let side = SIDE * 64;
+        let g = PageGeom::of(side, side);
+        assert!(g.pages() > MAX_PAGES_LENT);
+        let mut s = Scratch::new(g, 0u8);
+        for p in 0..MAX_PAGES_LENT {
+            assert!(s.set((p % 64) * SIDE, (p / 64) * SIDE, 1), "page {p}");
+        }
+        let beyond = (MAX_PAGES_LENT % 64 * SIDE, MAX_PAGES_LENT / 64 * SIDE);
+        assert!(!s.set(beyond.0, beyond.1, 1));
+        assert_eq!(s.get(beyond.0, beyond.1), None);
+        assert!(s.set(1, 0, 2), "a page already lent takes more values");
+        assert_eq!(s.pages_held(), MAX_PAGES_LENT);
+        s.next_search();
+        assert!(s.set(beyond.0, beyond.1, 1));
     }
 }

@@ -51,7 +51,15 @@ pub struct Blocked {
     pub blockers: Vec<u32>,
     /// The explored cell nearest the goal.
     pub nearest: usize,
+    /// The search stopped at its memory budget ([`MAX_OPEN`] entries or
+    /// [`super::pages::MAX_PAGES_LENT`] pages), not because it ran out of cells.
+    pub over_budget: bool,
 }
+
+/// Most entries one search keeps in its open list (16 M entries of 8 bytes): with the
+/// page budget of the search state, this bounds the memory of any search whatever the
+/// size of the glass (docs/performance.md, *Memory bound*).
+pub const MAX_OPEN: usize = 16 << 20;
 
 /// An entry of a search's open list: a node (cell or tile) and its estimated total cost;
 /// the heap pops the lowest `f` first, the lowest node on ties, so searches are
@@ -120,10 +128,13 @@ impl Search {
             let (x, y) = (s % grid.nx, s / grid.nx);
             if self.nodes.get(x, y).is_none() {
                 let h = heuristic(s);
-                self.nodes.set(x, y, Node { g: 0.0, h, parent: s as u32, dir: 8 });
+                if !self.nodes.set(x, y, Node { g: 0.0, h, parent: s as u32, dir: 8 }) {
+                    return Err(Blocked { blockers: Vec::new(), nearest: s, over_budget: true });
+                }
                 open.push(Open { f: h, cell: s as u32 });
             }
         }
+        let mut over_budget = false;
         while let Some(Open { f, cell }) = open.pop() {
             let c = cell as usize;
             let (cx, cy) = (c % grid.nx, c / grid.nx);
@@ -171,14 +182,20 @@ impl Search {
                         Some(s) => s.h,
                         None => heuristic(n),
                     };
-                    self.nodes.set(x, y, Node { g: ng, h, parent: c as u32, dir: d as u8 });
+                    if open.len() >= MAX_OPEN || !self.nodes.set(x, y, Node { g: ng, h, parent: c as u32, dir: d as u8 }) {
+                        over_budget = true;
+                        break;
+                    }
                     open.push(Open { f: ng + h, cell: n as u32 });
                 }
+            }
+            if over_budget {
+                break;
             }
         }
         let mut b: Vec<(u32, usize)> = blockers.into_iter().collect();
         b.sort_by(|x, y| y.1.cmp(&x.1).then(x.0.cmp(&y.0)));
-        Err(Blocked { blockers: b.into_iter().map(|x| x.0).collect(), nearest: nearest.1 })
+        Err(Blocked { blockers: b.into_iter().map(|x| x.0).collect(), nearest: nearest.1, over_budget })
     }
 
     fn path_to(&self, mut c: usize) -> Vec<usize> {

@@ -74,7 +74,11 @@ impl Targets {
         if self.mark.get(x, y).is_some() {
             return;
         }
-        self.mark.set(x, y, ());
+        if !self.mark.set(x, y, ()) {
+            // Over the page budget (a tree spread over more than 8 M cells' pages):
+            // the cell stays out of the set, and searches for the tree end short of it.
+            return;
+        }
         let (tx, ty) = (x / TILE, y / TILE);
         if self.tiles.insert((tx, ty)) {
             let (x0, y0) = ((tx * TILE) as f64, (ty * TILE) as f64);

@@ -53,10 +53,13 @@ pub const MAX_FONTS: usize = 16;
 pub const MAX_NAME_CHARS: usize = 64;
 /// Most characters in an element, group or net name.
 pub const MAX_NET_NAME_CHARS: usize = 64;
-/// Most cells of the routing grid over the front glass (glass area / grid step²). The
-/// 40-digit benchmark (docs/performance.md) routes 25 M cells in 132 MiB; this is four
-/// times that.
-pub const MAX_GRID_CELLS: f64 = 100e6;
+/// Most cells of the routing grid over the front glass (glass area / grid step²). A
+/// cell costs at most 16 bytes in the router's grids (owner and cost, 4 bytes each, in
+/// the base grid and the copy one attempt writes), so 64 M cells bound them to 1 GiB;
+/// with the search budgets (`route::pages::MAX_PAGES_LENT`, `route::search::MAX_OPEN`)
+/// a build stays under 2 GB whatever the layout (docs/performance.md, *Memory bound*).
+/// The 40-digit benchmark routes 25 M cells in 132 MiB.
+pub const MAX_GRID_CELLS: f64 = 64e6;
 /// Largest layout file, bytes.
 pub const MAX_LAYOUT_BYTES: u64 = 1 << 20;
 /// Largest font file, bytes.
