@@ -92,9 +92,10 @@ pub fn build_electrodes(layout: &Layout, elements: &[Element], assignment: &Assi
         });
     }
     let n = layout.drive.commons.max(1);
+    // Not united here: the split unites each common's bodies cluster by cluster.
     let bodies: Vec<Region> = (0..n)
         .map(|k| {
-            union_all(
+            crate::geom::region_of(
                 elements.iter().zip(&assignment.com).filter(|(_, c)| **c == k).flat_map(|(e, _)| e.body.0.iter().cloned()),
             )
         })
@@ -120,7 +121,9 @@ fn coverage(elements: &[Element], a: &Assignment, coms: &[ComElectrode]) -> Vec<
     for (i, e) in elements.iter().enumerate() {
         let Some(c) = coms.get(a.com[i] as usize) else { continue };
         let whole = area(&e.outline);
-        let covered = area(&intersection(&e.outline, &c.outline));
+        // Only the common's pieces near the pixel: a whole common spans the glass.
+        let near = near_pieces(&c.outline, &e.outline);
+        let covered = area(&intersection(&e.outline, &near));
         if whole > 0.0 && covered < whole * (1.0 - 1e-4) {
             use geo::Centroid;
             out.push(Finding {
@@ -141,6 +144,20 @@ fn coverage(elements: &[Element], a: &Assignment, coms: &[ComElectrode]) -> Vec<
         }
     }
     out
+}
+
+/// The polygons of `r` whose bounding boxes meet that of `of`.
+fn near_pieces(r: &Region, of: &Region) -> Region {
+    use geo::BoundingRect;
+    let Some(b) = of.bounding_rect() else { return Region::new(vec![]) };
+    Region::new(
+        r.0.iter()
+            .filter(|p| {
+                p.bounding_rect().is_some_and(|q| q.min().x <= b.max().x && b.min().x <= q.max().x && q.min().y <= b.max().y && b.min().y <= q.max().y)
+            })
+            .cloned()
+            .collect(),
+    )
 }
 
 #[cfg(test)]
