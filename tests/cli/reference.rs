@@ -49,7 +49,7 @@ struct Build {
 fn builds() -> &'static [Build] {
     static BUILDS: OnceLock<Vec<Build>> = OnceLock::new();
     BUILDS.get_or_init(|| {
-        let mut v: Vec<Build> = demos()
+        let mut v: Vec<Build> = demo_build::demo_names()
             .into_iter()
             .map(|d| {
                 let (dir, out) = demo_build::build_demo(&d);
@@ -67,19 +67,6 @@ fn run_py(script: &str, args: &[&Path]) {
     let text = String::from_utf8_lossy(&o.stdout);
     println!("{text}{}", String::from_utf8_lossy(&o.stderr));
     assert!(o.status.success(), "{script} failed:\n{text}{}", String::from_utf8_lossy(&o.stderr));
-}
-
-fn demos() -> Vec<String> {
-    let mut v: Vec<String> = std::fs::read_dir(root().join("demo-layouts"))
-        .unwrap()
-        .filter_map(|e| {
-            let p = e.ok()?.path();
-            (p.extension()? == "yaml").then(|| p.file_stem().unwrap().to_string_lossy().into_owned())
-        })
-        .collect();
-    v.sort();
-    assert!(v.len() >= 3, "the demo layouts are missing");
-    v
 }
 
 /// gdstk reads every demo's GDSII with the expected units, layers, polygon counts and
