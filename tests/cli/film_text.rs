@@ -1,5 +1,6 @@
-//! Nothing on a film overprints anything else: on every demo's films (and on a coupon
-//! with a name far longer than its 24 mm glass), the boxes of the plate label, the title,
+//! Nothing on a film overprints anything else: on every demo's films, the negative-resist
+//! fixture's, the coupons panel's, and a coupon's with a name far longer than its 24 mm
+//! glass, the boxes of the plate label, the title,
 //! the notes, the rulers, the calibration square and each corner mark line, read back
 //! from the SVG, neither overlap one another nor reach onto the glass or off the page.
 //!
@@ -103,16 +104,27 @@ fn glass_size(layout: &std::path::Path, plate: &str) -> (f64, f64) {
 #[test]
 fn film_labels_marks_rulers_and_notes_never_overprint() {
     let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
-    for name in demo_names() {
-        let (_dir, out) = build_demo(&name);
-        let layout = root.join("demo-layouts").join(format!("{name}.yaml"));
+    let mut layouts: Vec<(String, std::path::PathBuf)> =
+        demo_names().into_iter().map(|n| (n.clone(), root.join("demo-layouts").join(format!("{n}.yaml")))).collect();
+    layouts.push(("etch-negative".into(), root.join("tests/fixtures/masks/etch-negative.yaml")));
+    for (name, layout) in &layouts {
+        let (_dir, out) = build_layout(layout, name);
         for plate in ["front", "back"] {
             let svg = std::fs::read_to_string(out.join(format!("{name}.{plate}.svg"))).unwrap();
             // Title (2 lines), label, 2 rulers of ticks and numbers, 4 note lines, the
             // square and its 2 lines: 14 paths; and 8 corner mark lines (two a corner).
-            let n = check_film(&svg, glass_size(&layout, plate), &format!("{name} {plate} film"));
+            let n = check_film(&svg, glass_size(layout, plate), &format!("{name} {plate} film"));
             assert!(n >= 22, "{name} {plate}: only {n} things found on the film");
         }
+    }
+    // The panel films: the substrate takes the glass's place (docs/outputs.md, *Panels*),
+    // and the cut-line ticks are drawn like the corner marks.
+    let (_dir, out) = build_demo("coupons");
+    let y: serde_yaml::Value = serde_yaml::from_str(&std::fs::read_to_string(root.join("demo-layouts/coupons.yaml")).unwrap()).unwrap();
+    let substrate = (y["panel"]["substrate"]["width"].as_f64().unwrap(), y["panel"]["substrate"]["height"].as_f64().unwrap());
+    for plate in ["front", "back"] {
+        let svg = std::fs::read_to_string(out.join(format!("coupons.panel.{plate}.svg"))).unwrap();
+        check_film(&svg, substrate, &format!("coupons panel {plate} film"));
     }
     // A name of 40 characters: its label (about 68 mm at 1.5 mm) is far wider than the
     // 24 mm glass, so a label beside the corner marks would run into them.
