@@ -10,7 +10,8 @@
 //! its own plate or the other) and the edge clearance from both glass edges.
 //!
 //! Search: from each corner of the liquid-crystal region, candidate centres on a grid of
-//! a quarter mark inside that corner's quarter of the region, nearest the corner first;
+//! a quarter mark (at most 512 steps a side) inside that corner's quarter of the region,
+//! nearest the corner first;
 //! each candidate asks an R-tree of obstacle boxes for its neighbours and measures only
 //! those, so the work per candidate does not grow with the glass.
 
@@ -25,6 +26,9 @@ use rstar::{RTree, AABB};
 /// names: two diagonal pairs, (bottom-left, top-right) and (bottom-right, top-left).
 const CORNERS: [(f64, f64, &str); 4] =
     [(-1.0, -1.0, "bottom-left"), (1.0, 1.0, "top-right"), (1.0, -1.0, "bottom-right"), (-1.0, 1.0, "top-left")];
+
+/// Most candidate steps along each axis of a corner's quarter.
+const MAX_STEPS: f64 = 512.0;
 
 /// Where the marks go, and what could not be placed.
 #[derive(Debug, Clone, PartialEq)]
@@ -112,31 +116,37 @@ pub fn place_marks(layout: &Layout, shapes: &[Shape]) -> MarkPlaces {
     let room = (l.0.max(f.0).max(b.0), l.1.max(f.1).max(b.1), l.2.min(f.2).min(b.2), l.3.min(f.3).min(b.3));
     let window = corners(&layout.window);
     let obstacles = Obstacles::new(shapes);
-    let step = layout.marks.size / 4.0;
     let mid = ((room.0 + room.2) / 2.0, (room.1 + room.3) / 2.0);
+    // A quarter mark, coarser only where a corner's quarter would hold more than
+    // MAX_STEPS² candidates (tiny marks on large glass), to bound the work and memory.
+    let quarter = ((room.2 - room.0) / 2.0).max((room.3 - room.1) / 2.0);
+    let step = (layout.marks.size / 4.0).max(quarter / MAX_STEPS);
+    let fits = room.2 - room.0 >= 2.0 * half && room.3 - room.1 >= 2.0 * half;
     let mut centres = Vec::new();
     let mut missing = Vec::new();
     for (sx, sy, name) in CORNERS {
         // The first centre: the mark in the very corner of the room.
         let start = pt(if sx < 0.0 { room.0 + half } else { room.2 - half }, if sy < 0.0 { room.1 + half } else { room.3 - half });
         // Candidates reach to the middle of the room less a mark and a gap, so that marks
-        // of two corners never meet.
-        let reach_x = ((start.x - mid.0).abs() - half - gap).max(-1.0);
-        let reach_y = ((start.y - mid.1).abs() - half - gap).max(-1.0);
-        let (nx, ny) = ((reach_x / step).floor() as i64, (reach_y / step).floor() as i64);
+        // of two corners never meet; none when the room is too small for that.
+        let steps = |from: f64, to: f64| {
+            let reach = (from - to).abs() - half - gap;
+            if reach < 0.0 { None } else { Some((reach / step).floor() as usize) }
+        };
         let mut cands: Vec<(f64, Pt)> = Vec::new();
-        for i in 0..=nx.max(-1) {
-            for j in 0..=ny.max(-1) {
-                let (dx, dy) = (i as f64 * step, j as f64 * step);
-                let c = pt(start.x - sx * dx, start.y - sy * dy);
-                if !near(mark_box(c, half), window, gap) {
-                    cands.push((dx * dx + dy * dy, c));
+        if let (true, Some(nx), Some(ny)) = (fits, steps(start.x, mid.0), steps(start.y, mid.1)) {
+            for i in 0..=nx {
+                for j in 0..=ny {
+                    let (dx, dy) = (i as f64 * step, j as f64 * step);
+                    let c = pt(start.x - sx * dx, start.y - sy * dy);
+                    if !near(mark_box(c, half), window, gap) {
+                        cands.push((dx * dx + dy * dy, c));
+                    }
                 }
             }
         }
         cands.sort_by(|a, b| a.0.total_cmp(&b.0));
-        let fits = room.2 - room.0 >= 2.0 * half && room.3 - room.1 >= 2.0 * half;
-        match cands.into_iter().map(|(_, c)| c).find(|&c| fits && obstacles.free(mark_box(c, half), gap)) {
+        match cands.into_iter().map(|(_, c)| c).find(|&c| obstacles.free(mark_box(c, half), gap)) {
             Some(c) => centres.push(c),
             None => missing.push((name, start)),
         }
