@@ -31,6 +31,16 @@ pub fn demo_names() -> Vec<String> {
     v
 }
 
+/// Every demo layout and the negative-resist mask fixture (the other tone of every film
+/// and mask writer), as (name, path), the demos first.
+pub fn demos_and_negative() -> Vec<(String, PathBuf)> {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let mut v: Vec<(String, PathBuf)> =
+        demo_names().into_iter().map(|n| (n.clone(), root.join("demo-layouts").join(format!("{n}.yaml")))).collect();
+    v.push(("etch-negative".into(), root.join("tests/fixtures/masks/etch-negative.yaml")));
+    v
+}
+
 /// Builds any layout file like [`build_demo`], once per path; `name` is for messages.
 pub fn build_layout(layout: &Path, name: &str) -> (tempfile::TempDir, PathBuf) {
     // One slot per layout: the first test to ask builds, the others wait for that build

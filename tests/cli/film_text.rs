@@ -12,7 +12,7 @@
 //! are left out. The glass is where docs/outputs.md (*Page layout*) puts it: centred
 //! across the page, its top 16 mm below the page top.
 
-use crate::demo_build::{build_demo, build_layout, demo_names};
+use crate::demo_build::{build_demo, build_layout, demos_and_negative};
 
 /// A box (x0, y0, x1, y1) on the page, mm, y down.
 type Bbox = (f64, f64, f64, f64);
@@ -104,9 +104,7 @@ fn glass_size(layout: &std::path::Path, plate: &str) -> (f64, f64) {
 #[test]
 fn film_labels_marks_rulers_and_notes_never_overprint() {
     let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
-    let mut layouts: Vec<(String, std::path::PathBuf)> =
-        demo_names().into_iter().map(|n| (n.clone(), root.join("demo-layouts").join(format!("{n}.yaml")))).collect();
-    layouts.push(("etch-negative".into(), root.join("tests/fixtures/masks/etch-negative.yaml")));
+    let layouts = demos_and_negative();
     for (name, layout) in &layouts {
         let (_dir, out) = build_layout(layout, name);
         for plate in ["front", "back"] {

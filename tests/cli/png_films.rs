@@ -11,7 +11,7 @@
 //! with its top edge 16 mm below the page top. Units: W3C CSS Values and Units,
 //! 1 in = 25.4 mm = 96 px.
 
-use crate::demo_build::{build_demo, build_layout, demo_names};
+use crate::demo_build::{build_demo, build_layout, demos_and_negative};
 use resvg::{tiny_skia, usvg};
 
 const NAME: &str = "coupons";
@@ -124,10 +124,7 @@ fn lines_from_inside(rows: Vec<Vec<u8>>, side: &str) -> Vec<Vec<u8>> {
 /// every other line has ITO only inside those runs. The alignment marks are not exempt.
 #[test]
 fn films_have_no_ito_within_the_edge_clearance_but_pads() {
-    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
-    let mut layouts: Vec<(String, std::path::PathBuf)> =
-        demo_names().into_iter().map(|n| (n.clone(), root.join("demo-layouts").join(format!("{n}.yaml")))).collect();
-    layouts.push(("etch-negative".into(), root.join("tests/fixtures/masks/etch-negative.yaml")));
+    let layouts = demos_and_negative();
     let px = 25.4 / DPI;
     let mut negative = 0;
     for (name, layout) in layouts {

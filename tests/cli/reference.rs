@@ -49,16 +49,13 @@ struct Build {
 fn builds() -> &'static [Build] {
     static BUILDS: OnceLock<Vec<Build>> = OnceLock::new();
     BUILDS.get_or_init(|| {
-        let mut v: Vec<Build> = demo_build::demo_names()
+        demo_build::demos_and_negative()
             .into_iter()
-            .map(|d| {
-                let (dir, out) = demo_build::build_demo(&d);
-                Build { _dir: dir, out, name: d }
+            .map(|(name, layout)| {
+                let (dir, out) = demo_build::build_layout(&layout, &name);
+                Build { _dir: dir, out, name }
             })
-            .collect();
-        let (dir, out) = demo_build::build_layout(&root().join("tests/fixtures/masks/etch-negative.yaml"), "etch-negative");
-        v.push(Build { _dir: dir, out, name: "etch-negative".into() });
-        v
+            .collect()
     })
 }
 
