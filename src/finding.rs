@@ -62,6 +62,8 @@ pub enum Rule {
     /// Plates misaligned by the registration the process holds to light stray area or
     /// uncover part of a pixel.
     Registration,
+    /// No room for an alignment mark in a corner of the liquid crystal.
+    MarkRoom,
 }
 
 impl Rule {
@@ -83,6 +85,7 @@ impl Rule {
             Rule::LineRc => "line-rc",
             Rule::DriveMargin => "drive-margin",
             Rule::Registration => "registration",
+            Rule::MarkRoom => "mark-room",
         }
     }
 }

@@ -1,53 +1,55 @@
 //! Rule `edge-clearance`: ITO too close to its own plate's glass edge.
 //!
-//! Takes the artwork and its [`Extraction`]. The rule protects the electrodes in the
-//! liquid crystal from chipping at the cut edge and keeps ITO off the cut line, while
-//! pads and the leads running onto the ledge, the transfer pads in the seal and the marks
-//! outside it must come nearer the edge than the clearance. So, per component of each
-//! plate (marks included):
+//! Takes the artwork and its [`Extraction`]. The rule protects the electrodes from
+//! chipping at the cut edge and keeps ITO off the cut line; only the pads, which the
+//! connector must reach at the ledge's edge, may come nearer than the clearance. So, per
+//! component of each plate (marks included):
 //!
 //! * (a) no ITO may cross, touch or lie outside the glass outline (required: more than
 //!   0 mm inside; measured 0 when crossing or touching, minus the distance when outside);
-//! * (b) the part of the ITO inside the liquid-crystal region must keep
+//! * (b) otherwise, the ITO less the pads (each pin's pad outline) must keep
 //!   `rules.edge_clearance` from the glass edge.
 //!
-//! Distances are between outlines, through an R-tree of the glass edges.
+//! Distances are between outlines, through an R-tree of the glass edges; the pads a
+//! component may hold come from an R-tree of pad boxes.
 
 use super::connectivity::{Component, Extraction};
-use super::index::EdgeIndex;
+use super::index::{bbox_of_polygon, bbox_of_region, BoxIndex, EdgeIndex};
 use super::shorts::list;
 use super::width::SLACK_MM;
 use crate::artwork::Artwork;
 use crate::finding::{Finding, Rule, Severity};
-use crate::geom::{self, Pt};
+use crate::geom::{self, Pt, Region};
 use crate::layout::PlateId;
 use geo::Intersects;
 
 /// Reports every piece of ITO too near its glass edge.
 pub fn check_edge(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
-    let lc = geom::region_of([art.lc_region.clone()]);
     let glass_edges = [PlateId::Front, PlateId::Back].map(|p| EdgeIndex::of_region(&geom::region_of([art.glass(p).clone()])));
+    let pads = BoxIndex::new(art.pins.iter().enumerate().filter_map(|(i, p)| bbox_of_polygon(&p.pad).map(|b| (b, i))));
     let mut out = Vec::new();
     for c in &ex.components {
         let glass = &glass_edges[if c.plate == PlateId::Front { 0 } else { 1 }];
         let ito = EdgeIndex::of_region(&c.region);
         if let Some(x) = ito.meeting_point(glass) {
             out.push(finding(c, x, 0.0, 0.0, format!("{} crosses or touches the {} glass edge", what(c), c.plate.name())));
+            continue;
         } else if let Some(first) = ito.edges.first().map(|e| e.a)
             && !art.glass(c.plate).intersects(&geo::Point(first))
         {
             let d = ito.closest(glass).map(|cl| cl.distance).unwrap_or(0.0);
             out.push(finding(c, first, -d, 0.0, format!("{} lies outside the {} glass", what(c), c.plate.name())));
-        }
-        let inside = geom::snap(&geom::intersection(&c.region, &lc));
-        if inside.0.is_empty() {
             continue;
         }
-        let Some(cl) = EdgeIndex::of_region(&inside).closest(glass) else { continue };
+        let rest = off_pads(art, &pads, c);
+        if rest.0.is_empty() {
+            continue;
+        }
+        let Some(cl) = EdgeIndex::of_region(&rest).closest(glass) else { continue };
         let need = art.rules.edge_clearance;
         if cl.distance > 0.0 && cl.distance < need - SLACK_MM {
             let m = format!(
-                "{} in the liquid crystal is {:.4} mm from the {} glass edge, below the edge clearance of {need:.4} mm",
+                "{} is {:.4} mm from the {} glass edge, below the edge clearance of {need:.4} mm (only pads may come nearer)",
                 what(c),
                 cl.distance,
                 c.plate.name()
@@ -56,6 +58,22 @@ pub fn check_edge(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
         }
     }
     out
+}
+
+/// The component's ITO less the pads it holds. Each pad is grown by [`SLACK_MM`] first, so
+/// that the boolean engine's slivers along a pad's sides (nm wide, reaching down to the
+/// glass edge with the pad) do not count as ITO beside the pad.
+fn off_pads(art: &Artwork, pads: &BoxIndex<usize>, c: &Component) -> Region {
+    if c.plate != PlateId::Front {
+        return c.region.clone();
+    }
+    let Some(b) = bbox_of_region(&c.region) else { return c.region.clone() };
+    let held: Vec<_> = pads.near(&b).map(|&i| art.pins[i].pad.clone()).collect();
+    if held.is_empty() {
+        return c.region.clone();
+    }
+    let grown = geom::offset_mitre(&geom::union_all(held), SLACK_MM);
+    geom::snap(&geom::difference(&c.region, &grown))
 }
 
 fn what(c: &Component) -> String {
@@ -109,6 +127,20 @@ mod tests {
         assert_eq!((f[0].rule, f[0].plate), (Rule::EdgeClearance, Some(PlateId::Back)));
         assert!((f[0].measured.unwrap() - 1.3).abs() < 1e-9, "{:?}", f[0].measured);
         assert!((f[0].location.x - 38.7).abs() < 1e-9, "{:?}", f[0].location);
+    }
+
+    /// A mark cross outside the seal, 0.35 mm from the front glass's left edge: marks
+    /// are ITO like any other and only pads may come nearer than the clearance, inside
+    /// the liquid crystal or not.
+    #[test]
+    fn a_mark_outside_the_seal_is_too_near_the_edge() {
+        let mut art = fixture::clean();
+        crate::check::fixture::add(&mut art, Layer::FrontMarks, Role::Mark, None, rect(0.35, 29.175, 1.15, 29.325));
+        let f = check_artwork(&art);
+        assert_eq!(f.len(), 1, "{}", show(&f));
+        assert_eq!((f[0].rule, f[0].plate), (Rule::EdgeClearance, Some(PlateId::Front)));
+        assert!((f[0].measured.unwrap() - 0.35).abs() < 1e-9, "{:?}", f[0].measured);
+        assert!((f[0].location.x - 0.35).abs() < 1e-9, "{:?}", f[0].location);
     }
 
     /// Pads 1 mm from the edge on the ledge, and transfer pads under the seal, are

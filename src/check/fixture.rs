@@ -13,7 +13,8 @@
 //! COM1 back: backplane 9.5..20.5 × 15..20.5, lead y 17..17.2 to x 30.1, lead x 29.9..30.1
 //!   down to y 8.25, transfer pad 29.6..30.4 × 7.85..8.65 on both plates, dot r 0.3 at
 //!   (30, 8.25); front lead x 29.9..30.1 from y 2 to 8.25, pad 29..31 × 1..4  (pin 3)
-//! marks: a 0.15 mm cross on the front and four 0.3 mm squares on the back near (0.75, 29.25)
+//! marks: a 0.15 mm cross on the front and four 0.3 mm squares on the back around (4.25, 25.75),
+//!   in the liquid crystal outside the window
 //! ```
 
 use crate::artwork::{Artwork, Layer, Net, NetKind, Pin, Pixel, Role, Shape, TransferDot};
@@ -92,9 +93,9 @@ pub fn clean() -> Artwork {
     push(FrontIto, Role::TransferPad, com, rect(29.6, 7.85, 30.4, 8.65));
     push(FrontIto, Role::Lead, com, rect(29.9, 2.0, 30.1, 8.25));
     push(FrontIto, Role::Pad, com, rect(29.0, 1.0, 31.0, 4.0));
-    push(FrontMarks, Role::Mark, None, rect(0.35, 29.175, 1.15, 29.325));
-    push(FrontMarks, Role::Mark, None, rect(0.675, 28.85, 0.825, 29.65));
-    for (x, y) in [(0.25, 28.75), (0.95, 28.75), (0.25, 29.45), (0.95, 29.45)] {
+    push(FrontMarks, Role::Mark, None, rect(3.85, 25.675, 4.65, 25.825));
+    push(FrontMarks, Role::Mark, None, rect(4.175, 25.35, 4.325, 26.15));
+    for (x, y) in [(3.75, 25.25), (4.45, 25.25), (3.75, 25.95), (4.45, 25.95)] {
         push(BackMarks, Role::Mark, None, rect(x, y, x + 0.3, y + 0.3));
     }
     let dot = circle(pt(30.0, 8.25), 0.3, 1e-3);

@@ -11,7 +11,7 @@
 //! (one path, field rectangle plus ITO rings, even-odd fill).
 
 use super::drawing::{Drawing, Item, Paint, PagePt};
-use super::mask::{MaskPlate, bbox, contact_mirrored, mask_plate};
+use super::mask::{MaskLabel, MaskPlate, bbox, contact_mirrored, mask_plate};
 use super::page::{TextPlace, text_lines};
 use super::report::resist_name;
 use super::ruler::{self, Axis};
@@ -22,6 +22,10 @@ use crate::geom::{Polygon, Pt, pt};
 use crate::layout::{PlateId, Resist};
 use crate::{Error, Result};
 
+/// Baselines of the title lines, mm below the page top: the third (errors standing) ends
+/// above 10.5 mm, where a dark field grown around a plate label 3 mm above the glass may
+/// begin (the label's top 4.5 mm and 1 mm around it, below [`TOP`]).
+const TITLE_BASELINES: [f64; 3] = [4.0, 7.0, 10.0];
 /// Clear margin on the left and right of the content, mm.
 pub const MARGIN: f64 = 12.0;
 /// Space above the glass for the title (and the dark field's margin), mm.
@@ -54,6 +58,8 @@ fn plate_words(plate: PlateId) -> &'static str {
 /// Where the page puts things.
 struct Frame {
     map: PageMap,
+    /// The content's span across the page (inside the margins), in mask-frame x.
+    span: (f64, f64),
     width: f64,
     height: f64,
     glass_bottom: f64,
@@ -74,7 +80,8 @@ fn frame(glass: &Polygon) -> Result<Frame> {
     let left = MARGIN + (content - gw) / 2.0;
     let map = PageMap::upright(x0, y1, left, TOP);
     let height = TOP + (gh + BOTTOM).max(vruler + 4.0);
-    Ok(Frame { map, width, height, glass_bottom: TOP + gh, ruler, vruler })
+    let span = (x0 - (left - MARGIN), x0 - (left - MARGIN) + content);
+    Ok(Frame { map, span, width, height, glass_bottom: TOP + gh, ruler, vruler })
 }
 
 /// Page rings of polygons (outer rings counter-clockwise, holes clockwise in the mask
@@ -100,6 +107,30 @@ pub fn dark_field(m: &MaskPlate) -> (f64, f64, f64, f64) {
         f = (f.0.min(l.at.x - 1.0), f.1.min(l.at.y - 1.0), f.2.max(l.at.x + w + 1.0), f.3.max(l.at.y + l.height + 1.0));
     }
     f
+}
+
+/// The mask with every label that would run past the content's span (`span`, mask-frame
+/// x) made smaller to fit it, its anchored end kept (the left end of an upright label,
+/// the right end of a mirrored one, as [`super::mask::mask_plate`] anchors them at the
+/// glass edges) and its baseline too, so it stays clear of the corner marks; `None` when
+/// every label fits as it is.
+fn fit_labels(m: &MaskPlate, span: (f64, f64)) -> Option<MaskPlate> {
+    let fits = |l: &MaskLabel| l.at.x >= span.0 - 1e-9 && l.at.x + text_width(&l.text, l.height) <= span.1 + 1e-9;
+    if m.labels.iter().all(fits) {
+        return None;
+    }
+    let labels = m
+        .labels
+        .iter()
+        .map(|l| {
+            let end = l.at.x + text_width(&l.text, l.height);
+            let room = if l.mirrored { end - span.0 } else { span.1 - l.at.x };
+            let height = fit_height(&l.text, l.height, room);
+            let x = if l.mirrored { end - text_width(&l.text, height) } else { l.at.x };
+            MaskLabel { at: pt(x, l.at.y), height, ..l.clone() }
+        })
+        .collect();
+    Some(MaskPlate { labels, ..m.clone() })
 }
 
 /// The corner marks: at each glass corner, two short lines continuing the glass edges
@@ -190,13 +221,15 @@ pub fn film_drawing(art: &Artwork, plate: PlateId, date: &str, errors: usize) ->
 pub fn film_page(art: &Artwork, m: &MaskPlate, ticks: &[[Pt; 2]], name: &str, date: &str, errors: usize) -> Result<Drawing> {
     let plate = m.plate;
     let f = frame(&m.glass)?;
+    let fitted = fit_labels(m, f.span);
+    let m = fitted.as_ref().unwrap_or(m);
     let mut items = content(art, m, ticks, &f.map);
 
     let avail = f.width - 2.0 * MARGIN;
     let heights = [2.5, 1.8, 1.8];
     for (i, line) in title_lines(art, m, name, date, errors).iter().enumerate() {
         let h = fit_height(line, heights[i], avail);
-        items.push(words(line, TextPlace { left: MARGIN, baseline: 4.5 + 3.2 * i as f64, height: h, mirrored: false }));
+        items.push(words(line, TextPlace { left: MARGIN, baseline: TITLE_BASELINES[i], height: h, mirrored: false }));
     }
     let ruler_top = f.glass_bottom + RULER_GAP;
     items.extend(ruler::ruler(MARGIN, ruler_top, f.ruler, Axis::Across));

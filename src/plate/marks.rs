@@ -1,23 +1,21 @@
 //! Alignment marks: a cross on the front plate and four squares around a clear cross on
-//! the back plate, in each corner of the back glass outside the seal, where both plates
-//! overlap. When the plates are aligned the front cross sits centred in the back's clear
-//! channel, so any offset shows as an uneven channel.
+//! the back plate, at the centres [`super::mark_place`] finds (in the corners of the
+//! liquid crystal, inside the seal and outside the window, where both plates overlap and
+//! the edge clearance holds). When the plates are aligned the front cross sits centred in
+//! the back's clear channel, so any offset shows as an uneven channel.
 
 use crate::artwork::Layer;
-use crate::geom::{pt, rect, Polygon, Pt};
+use crate::geom::{rect, Polygon, Pt};
 use crate::layout::Layout;
 
 /// Clear space on each side of the front cross inside the back mark's channel, as a share
 /// of the mark's line width.
 const CHANNEL_CLEARANCE: f64 = 0.5;
 
-/// Every alignment mark polygon with its layer.
-pub fn alignment_marks(layout: &Layout) -> Vec<(Layer, Polygon)> {
-    let b = layout.glass.back;
-    let d = layout.seal.inset / 2.0;
-    let centres = [pt(b.x + d, b.y + d), pt(b.x1() - d, b.y + d), pt(b.x + d, b.y1() - d), pt(b.x1() - d, b.y1() - d)];
+/// Every alignment mark polygon with its layer, a mark at each of `centres`.
+pub fn alignment_marks(layout: &Layout, centres: &[Pt]) -> Vec<(Layer, Polygon)> {
     let mut out = Vec::new();
-    for c in centres {
+    for &c in centres {
         out.extend(front_cross(c, layout.marks.size, layout.marks.line).into_iter().map(|p| (Layer::FrontMarks, p)));
         out.extend(back_squares(c, layout.marks.size, layout.marks.line).into_iter().map(|p| (Layer::BackMarks, p)));
     }

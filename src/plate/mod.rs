@@ -1,10 +1,12 @@
 //! Stage `plate`: electrodes + routes → `Artwork`.
 //!
 //! Takes the electrodes, the leads, pads and transfer dots; adds the glass outlines, the
-//! seal ring with its fill port, the alignment marks and the plate labels; unites each
+//! seal ring with its fill port, the alignment marks (placed where the routed ITO leaves
+//! room) and the plate labels; unites each
 //! net's ITO into non-overlapping polygons; gives the `Artwork` every check and writer
 //! reads.
 
+mod mark_place;
 mod marks;
 mod panel;
 mod seal;
@@ -46,7 +48,8 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
     for p in seal::seal_ring(layout) {
         shapes.push(Shape { layer: Layer::Seal, role: Role::Outline, net: None, polygon: p });
     }
-    for (layer, p) in marks::alignment_marks(layout) {
+    let places = mark_place::place_marks(layout, &shapes);
+    for (layer, p) in marks::alignment_marks(layout, &places.centres) {
         shapes.push(Shape { layer, role: Role::Mark, net: None, polygon: p });
     }
     let front_glass = layout.glass.front.polygon();
@@ -78,7 +81,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         drive: layout.drive,
         layers: layout.layers.clone(),
         film_shapes: film_shapes(layout, &shapes_for_film),
-        generation_findings: el.findings.iter().chain(&routes.findings).cloned().collect(),
+        generation_findings: el.findings.iter().chain(&routes.findings).chain(&places.findings).cloned().collect(),
         panel: panel::panel_art(layout),
     })
 }
@@ -164,14 +167,16 @@ fn pixels(el: &Electrodes) -> Vec<Pixel> {
         .collect()
 }
 
-/// How far a plate label starts right of the glass's left edge, mm: clear of the film's
-/// corner mark that continues that edge upward (docs/outputs.md, *Films*).
+/// How far a plate label starts right of the glass's left edge, mm (mirrored on the back
+/// film, where it ends as far left of the right edge).
 const LABEL_INSET: f64 = 1.0;
 
 /// How far a plate label's baseline lies above the glass's top edge, mm: outside the
-/// glass, so a label never becomes ITO on the plate, and far enough that a film laid a
-/// little off does not print it onto the glass edge.
-const LABEL_ABOVE: f64 = 1.0;
+/// glass, so a label never becomes ITO on the plate, and above the ends of the film's
+/// corner marks, which run from 1 to 2.5 mm beyond each corner (docs/outputs.md,
+/// *Films*), so that the label never meets them however narrow the glass — the panel's
+/// label sits the same way above its cut-line ticks.
+const LABEL_ABOVE: f64 = 3.0;
 
 /// The plate labels: the layout name and plate, above each glass.
 fn labels(layout: &Layout) -> Vec<Label> {

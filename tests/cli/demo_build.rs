@@ -16,6 +16,31 @@ pub fn build_demo(name: &str) -> (tempfile::TempDir, PathBuf) {
     build_layout(&layout, name)
 }
 
+/// The names of every demo layout (`demo-layouts/*.yaml`), sorted.
+pub fn demo_names() -> Vec<String> {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("demo-layouts");
+    let mut v: Vec<String> = std::fs::read_dir(dir)
+        .unwrap()
+        .filter_map(|e| {
+            let p = e.ok()?.path();
+            (p.extension()? == "yaml").then(|| p.file_stem().unwrap().to_string_lossy().into_owned())
+        })
+        .collect();
+    v.sort();
+    assert!(v.len() >= 3, "the demo layouts are missing");
+    v
+}
+
+/// Every demo layout and the negative-resist mask fixture (the other tone of every film
+/// and mask writer), as (name, path), the demos first.
+pub fn demos_and_negative() -> Vec<(String, PathBuf)> {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let mut v: Vec<(String, PathBuf)> =
+        demo_names().into_iter().map(|n| (n.clone(), root.join("demo-layouts").join(format!("{n}.yaml")))).collect();
+    v.push(("etch-negative".into(), root.join("tests/fixtures/masks/etch-negative.yaml")));
+    v
+}
+
 /// Builds any layout file like [`build_demo`], once per path; `name` is for messages.
 pub fn build_layout(layout: &Path, name: &str) -> (tempfile::TempDir, PathBuf) {
     // One slot per layout: the first test to ask builds, the others wait for that build

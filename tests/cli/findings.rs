@@ -61,3 +61,19 @@ fn common_bus_over_a_front_lead_in_the_window_is_a_ghost() {
     assert!(line.contains("LEFT") && line.contains("COM1"), "{line}");
     assert!(err.contains("at: (13.0"), "the place is the crossing:\n{err}");
 }
+
+/// The band between the seal's inner edge (2.5 mm in from the back glass) and the window
+/// (4 mm in) is 1.5 mm wide all round: a 1.5 mm mark plus the 0.05 mm gap on each side
+/// fits in no corner, so each corner is an error naming the `marks` key (no diagonal pair
+/// of marks is left to align by); the base layout's 1 mm marks fit (base_layout_checks_clean).
+#[test]
+fn no_room_for_alignment_marks_is_an_error_per_corner() {
+    let (_d, p) = layout(16.0, "marks: {size: 1.5}");
+    let (code, err) = check(&p);
+    assert_eq!(code, Some(1), "{err}");
+    let lines: Vec<&str> = err.lines().filter(|l| l.contains("error[mark-room]")).collect();
+    assert_eq!(lines.len(), 4, "{err}");
+    for corner in ["bottom-left", "bottom-right", "top-left", "top-right"] {
+        assert!(lines.iter().any(|l| l.contains(corner) && l.contains("`marks`")), "{corner}:\n{err}");
+    }
+}

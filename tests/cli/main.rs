@@ -22,6 +22,7 @@ mod emit_files;
 mod emit_film;
 mod emit_gds;
 mod emit_segmap;
+mod film_text;
 mod findings;
 mod firmware_tables;
 mod fuzz_bounded;

@@ -1,27 +1,20 @@
 //! PNG films: the shared build of the panel demo (`coupons`, positive resist,
 //! compensated) writes each plate's film as an 8-bit greyscale PNG at the default
-//! resolution, sized and tagged by the PNG specification; and the film, rasterised at
-//! 2400 dpi by resvg, has no ink within the edge clearance of the glass edge except the
-//! pads and the alignment marks (which sit in the glass corners by design, outside the
-//! seal: src/plate/marks.rs; the edge rule only keeps them off the edge). Only the four edge strips are rasterised at 2400 dpi (a whole film would be
-//! about 7000 × 8000 pixels).
+//! resolution, sized and tagged by the PNG specification; and every demo's films (and
+//! the negative-resist mask fixture's), front and back, rasterised at 2400 dpi by resvg,
+//! have no ITO within the edge clearance of the glass edge except the pads — the
+//! alignment marks included, which lie inside the seal (src/plate/mark_place.rs). Only
+//! the four edge strips are rasterised at 2400 dpi (a whole film would be about
+//! 7000 × 8000 pixels).
 //!
 //! Page layout from docs/outputs.md (*Page layout*): the glass is centred across the page
 //! with its top edge 16 mm below the page top. Units: W3C CSS Values and Units,
 //! 1 in = 25.4 mm = 96 px.
 
-use crate::demo_build::build_demo;
+use crate::demo_build::{build_demo, build_layout, demos_and_negative};
 use resvg::{tiny_skia, usvg};
 
 const NAME: &str = "coupons";
-/// The demo's glass, mm (demo-layouts/coupons.yaml): front 24 × 18, back 24 × 15.
-const GLASS: [(&str, f64, f64); 2] = [("front", 24.0, 18.0), ("back", 24.0, 15.0)];
-/// Its pads, mm wide (same file), and the film bias: grown 5 µm per edge.
-const PAD_WIDTH: f64 = 0.8 + 2.0 * 0.005;
-/// Its alignment marks: centred `seal.inset / 2` = 0.75 mm in from each corner of the
-/// back glass (0, 3)–(24, 18), `marks.size` 0.8 mm across, grown 5 µm (same file).
-const MARK_CENTRES: [(f64, f64); 4] = [(0.75, 3.75), (23.25, 3.75), (0.75, 17.25), (23.25, 17.25)];
-const MARK_HALF: f64 = 0.4 + 0.005;
 const DPI: f64 = 2400.0;
 
 /// The page size in mm from the SVG film's `width="…mm" height="…mm"`.
@@ -32,15 +25,14 @@ fn page_mm(svg: &str) -> (f64, f64) {
 
 /// The film's SVG rasterised by resvg at `DPI` over the page rectangle (x, y, w, h) in
 /// mm: rows of grey values, 0 = ink, 255 = clear.
-fn strip(svg: &[u8], (x, y, w, h): (f64, f64, f64, f64)) -> Vec<Vec<u8>> {
-    let tree = usvg::Tree::from_data(svg, &usvg::Options::default()).unwrap();
+fn strip(tree: &usvg::Tree, (x, y, w, h): (f64, f64, f64, f64)) -> Vec<Vec<u8>> {
     let k = (DPI / 25.4) as f32; // pixels per mm
     let s = k * 25.4 / 96.0; // pixels per SVG px
     let (pw, ph) = ((w * k as f64).floor() as u32, (h * k as f64).floor() as u32);
     let mut pm = tiny_skia::Pixmap::new(pw, ph).unwrap();
     pm.fill(tiny_skia::Color::WHITE);
     let t = tiny_skia::Transform::from_row(s, 0.0, 0.0, s, -(x as f32) * k, -(y as f32) * k);
-    resvg::render(&tree, t, &mut pm.as_mut());
+    resvg::render(tree, t, &mut pm.as_mut());
     (0..ph).map(|r| (0..pw).map(|c| pm.pixel(c, r).unwrap().red()).collect()).collect()
 }
 
@@ -79,20 +71,15 @@ fn png_dpi_out_of_range_is_refused() {
     assert!(!out.exists());
 }
 
+/// The default PNG of each coupons film, decoded by the png crate: 8-bit greyscale,
+/// ceil(mm × dpi / 25.4) pixels, and pHYs = dpi / 0.0254 pixels per metre (PNG
+/// specification, 11.3.5.3), so that it prints at size.
 #[test]
-fn png_films_are_sized_and_the_glass_edge_is_clear_but_pads() {
+fn png_films_are_sized_and_tagged() {
     let (_dir, out) = build_demo(NAME);
-    let report = std::fs::read_to_string(out.join(format!("{NAME}.report.json"))).unwrap();
-    let clearance: f64 = report.split("\"edge_clearance_mm\": ").nth(1).unwrap().split([',', '\n']).next().unwrap().parse().unwrap();
-    let pins = std::fs::read_to_string(out.join(format!("{NAME}.pins.csv"))).unwrap().lines().count() - 1;
-    let px = 25.4 / DPI;
-    for (plate, gw, gh) in GLASS {
+    for plate in ["front", "back"] {
         let svg = std::fs::read(out.join(format!("{NAME}.{plate}.svg"))).unwrap();
         let (w, h) = page_mm(&String::from_utf8_lossy(&svg));
-
-        // The PNG at the default 600 dpi, decoded by the png crate: 8-bit greyscale,
-        // ceil(mm × dpi / 25.4) pixels, and pHYs = dpi / 0.0254 pixels per metre (PNG
-        // specification, 11.3.5.3), so that it prints at size.
         let png = std::fs::File::open(out.join(format!("{NAME}.{plate}.png"))).unwrap();
         let reader = png::Decoder::new(std::io::BufReader::new(png)).read_info().unwrap();
         let info = reader.info();
@@ -100,59 +87,96 @@ fn png_films_are_sized_and_the_glass_edge_is_clear_but_pads() {
         assert_eq!((info.width, info.height), ((w * 600.0 / 25.4).ceil() as u32, (h * 600.0 / 25.4).ceil() as u32), "{plate}");
         let dims = info.pixel_dims.unwrap();
         assert_eq!((dims.xppu, dims.yppu, dims.unit), (23622, 23622, png::Unit::Meter));
+    }
+}
 
-        // 2400 dpi: the strips inside the glass within the edge clearance, less two
-        // pixels (anti-aliasing touches one pixel past an edge; the film grows ITO 5 µm).
-        let (gx, gy) = ((w - gw) / 2.0, 16.0);
-        let d = clearance - 2.0 * px;
-        let sides = [
-            ("top", (gx, gy, gw, d)),
-            ("left", (gx, gy, d, gh)),
-            ("right", (gx + gw - d, gy, d, gh)),
-            ("bottom", (gx, gy + gh - d, gw, d)),
-        ];
-        // Glass frame → page: the front film is upright, the back film mirrored about
-        // the glass centre, which leaves these symmetric mark positions where they are;
-        // y flips from the glass top (front y1 = 18, back y1 = 18).
-        let on_mark = |x: f64, y: f64| {
-            MARK_CENTRES.iter().any(|&(cx, cy)| {
-                let (mx, my) = (gx + cx, gy + (18.0 - cy));
-                (x - mx).abs() <= MARK_HALF + 2.0 * px && (y - my).abs() <= MARK_HALF + 2.0 * px
-            })
-        };
-        for (side, rect) in sides {
-            let rows = strip(&svg, rect);
-            let mut stray = 0;
-            for (r, row) in rows.iter().enumerate() {
-                for (c, &v) in row.iter().enumerate() {
-                    let (x, y) = (rect.0 + (c as f64 + 0.5) * px, rect.1 + (r as f64 + 0.5) * px);
-                    if v < 255 && !on_mark(x, y) && !(plate == "front" && side == "bottom") {
-                        stray += 1;
+/// What the edge test needs of a layout, read from its YAML (not from segmask's
+/// outputs): each plate's glass size, the pad side and the pad width.
+struct Glass {
+    size: [(f64, f64); 2],
+    pad_side: String,
+    pad_width: f64,
+}
+
+fn glass_of(layout: &std::path::Path) -> Glass {
+    let y: serde_yaml::Value = serde_yaml::from_str(&std::fs::read_to_string(layout).unwrap()).unwrap();
+    let num = |v: &serde_yaml::Value| v.as_f64().unwrap_or_else(|| panic!("{}: a plain number in mm expected, not {v:?}", layout.display()));
+    let size = ["front", "back"].map(|p| (num(&y["glass"][p]["width"]), num(&y["glass"][p]["height"])));
+    Glass { size, pad_side: y["pads"]["side"].as_str().unwrap().to_string(), pad_width: num(&y["pads"]["width"]) }
+}
+
+/// A strip's pixels as lines parallel to the glass edge, the innermost line first.
+fn lines_from_inside(rows: Vec<Vec<u8>>, side: &str) -> Vec<Vec<u8>> {
+    let cols = |rows: &Vec<Vec<u8>>| (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c]).collect()).collect::<Vec<Vec<u8>>>();
+    match side {
+        "bottom" => rows,
+        "top" => rows.into_iter().rev().collect(),
+        "left" => cols(&rows).into_iter().rev().collect(),
+        _ => cols(&rows),
+    }
+}
+
+/// Every demo's films and the negative-resist fixture's, at 2400 dpi: within the edge
+/// clearance of each glass edge (the report's `edge_clearance_mm`) there is no ITO —
+/// ink on a clear-field film, clear on a dark-field one — except on the front film's pad
+/// side, where the ITO is the pads and nothing else: on the line nearest the inside, one
+/// run per pin, each a pad wide (`pads.width`, grown by the undercut when compensating);
+/// every other line has ITO only inside those runs. The alignment marks are not exempt.
+#[test]
+fn films_have_no_ito_within_the_edge_clearance_but_pads() {
+    let layouts = demos_and_negative();
+    let px = 25.4 / DPI;
+    let mut negative = 0;
+    for (name, layout) in layouts {
+        let (_dir, out) = build_layout(&layout, &name);
+        let g = glass_of(&layout);
+        let report: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(out.join(format!("{name}.report.json"))).unwrap()).unwrap();
+        let rules = &report["rules"];
+        let clearance = rules["edge_clearance_mm"].as_f64().unwrap();
+        let bias = if rules["compensate"].as_bool().unwrap() { rules["undercut_mm"].as_f64().unwrap() } else { 0.0 };
+        let dark = report["resist"] == "negative";
+        negative += dark as usize;
+        let pins = std::fs::read_to_string(out.join(format!("{name}.pins.csv"))).unwrap().lines().count() - 1;
+        for (plate, (gw, gh)) in ["front", "back"].into_iter().zip(g.size) {
+            let svg = std::fs::read(out.join(format!("{name}.{plate}.svg"))).unwrap();
+            let (w, _) = page_mm(&String::from_utf8_lossy(&svg));
+            let tree = usvg::Tree::from_data(&svg, &usvg::Options::default()).unwrap();
+            // The strips inside the glass within the edge clearance, less two pixels
+            // (anti-aliasing touches one pixel past an edge; the film grows ITO by the bias).
+            let (gx, gy) = ((w - gw) / 2.0, 16.0);
+            let d = clearance - 2.0 * px;
+            let sides = [
+                ("top", (gx, gy, gw, d)),
+                ("left", (gx, gy, d, gh)),
+                ("right", (gx + gw - d, gy, d, gh)),
+                ("bottom", (gx, gy + gh - d, gw, d)),
+            ];
+            for (side, rect) in sides {
+                // ITO: ink on a clear-field film; on a dark-field film, any pixel not
+                // fully dark (a clear ITO edge anti-aliases to grey).
+                let ito: Vec<Vec<u8>> =
+                    strip(&tree, rect).into_iter().map(|r| r.into_iter().map(|v| if (v < 255) != dark { 0 } else { 255 }).collect()).collect();
+                let lines = lines_from_inside(ito, side);
+                let here = format!("{name} {plate} film, {side} edge");
+                if plate == "back" || side != g.pad_side {
+                    let stray: usize = lines.iter().map(|l| l.iter().filter(|&&v| v < 255).count()).sum();
+                    assert_eq!(stray, 0, "{here}: {stray} pixels of ITO within {clearance} mm of the glass edge");
+                    continue;
+                }
+                let pads = runs(&lines[0]);
+                assert_eq!(pads.len(), pins, "{here}: runs on the inner line {pads:?}");
+                let pad_width = g.pad_width + 2.0 * bias;
+                for &(a, b) in &pads {
+                    let wide = (b - a + 1) as f64 * px;
+                    assert!((wide - pad_width).abs() <= 3.0 * px, "{here}: a run of {wide:.4} mm is not a {pad_width} mm pad");
+                }
+                for (i, line) in lines.iter().enumerate() {
+                    for (a, b) in runs(line) {
+                        assert!(pads.iter().any(|&(p, q)| p <= a && b <= q), "{here}: line {i}: ITO at {a}..{b} off the pads");
                     }
                 }
             }
-            assert_eq!(stray, 0, "{plate} film: {stray} inked pixels within {clearance} mm of the {side} glass edge, off the marks");
-            if plate == "back" || side != "bottom" {
-                continue;
-            }
-            let inked: usize = rows.iter().map(|r| r.iter().filter(|&&v| v < 255).count()).sum();
-            // The front plate's pad side: the ink is the pads and nothing else. On the
-            // strip's innermost row there is one run per pad, each a pad wide; every other
-            // row inks only columns inside those runs.
-            let pads = runs(&rows[0]);
-            assert_eq!(pads.len(), pins, "front pad side: {pads:?}");
-            for &(a, b) in &pads {
-                let wide = (b - a + 1) as f64 * px;
-                assert!((wide - PAD_WIDTH).abs() <= 3.0 * px, "a run of {wide:.4} mm is not a {PAD_WIDTH} mm pad");
-            }
-            for (i, row) in rows.iter().enumerate() {
-                for (a, b) in runs(row) {
-                    let y = rect.1 + (i as f64 + 0.5) * px;
-                    let mark = (a..=b).all(|c| on_mark(rect.0 + (c as f64 + 0.5) * px, y));
-                    assert!(mark || pads.iter().any(|&(p, q)| p <= a && b <= q), "row {i}: ink at columns {a}..{b} off the pads and marks");
-                }
-            }
-            assert!(inked > 0, "the pads must reach the strip");
         }
     }
+    assert_eq!(negative, 1, "the dark-field branch must be exercised by the negative-resist fixture");
 }

@@ -49,16 +49,13 @@ struct Build {
 fn builds() -> &'static [Build] {
     static BUILDS: OnceLock<Vec<Build>> = OnceLock::new();
     BUILDS.get_or_init(|| {
-        let mut v: Vec<Build> = demos()
+        demo_build::demos_and_negative()
             .into_iter()
-            .map(|d| {
-                let (dir, out) = demo_build::build_demo(&d);
-                Build { _dir: dir, out, name: d }
+            .map(|(name, layout)| {
+                let (dir, out) = demo_build::build_layout(&layout, &name);
+                Build { _dir: dir, out, name }
             })
-            .collect();
-        let (dir, out) = demo_build::build_layout(&root().join("tests/fixtures/masks/etch-negative.yaml"), "etch-negative");
-        v.push(Build { _dir: dir, out, name: "etch-negative".into() });
-        v
+            .collect()
     })
 }
 
@@ -67,19 +64,6 @@ fn run_py(script: &str, args: &[&Path]) {
     let text = String::from_utf8_lossy(&o.stdout);
     println!("{text}{}", String::from_utf8_lossy(&o.stderr));
     assert!(o.status.success(), "{script} failed:\n{text}{}", String::from_utf8_lossy(&o.stderr));
-}
-
-fn demos() -> Vec<String> {
-    let mut v: Vec<String> = std::fs::read_dir(root().join("demo-layouts"))
-        .unwrap()
-        .filter_map(|e| {
-            let p = e.ok()?.path();
-            (p.extension()? == "yaml").then(|| p.file_stem().unwrap().to_string_lossy().into_owned())
-        })
-        .collect();
-    v.sort();
-    assert!(v.len() >= 3, "the demo layouts are missing");
-    v
 }
 
 /// gdstk reads every demo's GDSII with the expected units, layers, polygon counts and
