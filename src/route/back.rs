@@ -309,7 +309,10 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
     let h = super::grid_step(layout);
     let tol = layout.tolerance.max(h / 4.0);
     let mut g = Grid::new(b.x, b.y, b.x1(), b.y1(), h);
-    g.block_outside(&region_of([b.inset(layout.rules.lead_width / 2.0 + h).polygon()]));
+    // Back leads keep the edge clearance from the back glass edge, like all ITO but pads
+    // (the check's `edge-clearance`): a lead run outside the seal would otherwise sit on
+    // the strip that scribing and breaking the glass may chip.
+    g.block_outside(&region_of([b.inset(layout.rules.edge_clearance + layout.rules.lead_width / 2.0 + h).polygon()]));
     let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
     let w = layout.window;
     let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + h;
