@@ -92,6 +92,15 @@ pub struct Ctx<'a> {
     pub plan: &'a crate::plan::Plan,
     /// Resolution of the PNG films, dots per inch.
     pub png_dpi: f32,
+    /// The segment map's rows, measured once for the segment map and the report.
+    pub rows: std::sync::OnceLock<Vec<segmap::SegmentRow>>,
+}
+
+impl Ctx<'_> {
+    /// The segment map's rows ([`segmap::segment_rows`], made on first use).
+    pub fn segment_rows(&self) -> Vec<segmap::SegmentRow> {
+        self.rows.get_or_init(|| segmap::segment_rows(self.art)).clone()
+    }
 }
 
 /// One output file: its suffix after `NAME.`, whether it is a mask (something a plate is
@@ -146,8 +155,8 @@ pub const OUTPUTS: &[Output] = &[
     Output { suffix: "masks.json", mask: true, panel: false, render: |c| order::render_order_json(c.art, c.date) },
     Output { suffix: "masks.txt", mask: true, panel: false, render: |c| Ok(order::render_order_text(c.art, c.date)) },
     Output { suffix: "pins.csv", mask: false, panel: false, render: |c| Ok(pins::render_pins(c.art)) },
-    Output { suffix: "segmap.csv", mask: false, panel: false, render: |c| Ok(segmap::csv_of(&segmap::segment_rows(c.art))) },
-    Output { suffix: "segmap.json", mask: false, panel: false, render: |c| segmap::json_of(c.art, segmap::segment_rows(c.art)) },
+    Output { suffix: "segmap.csv", mask: false, panel: false, render: |c| Ok(segmap::csv_of(&c.segment_rows())) },
+    Output { suffix: "segmap.json", mask: false, panel: false, render: |c| segmap::json_of(c.art, c.segment_rows()) },
     Output { suffix: "firmware.h", mask: false, panel: false, render: |c| Ok(firmware_c::render_firmware_header(c.art)) },
     Output { suffix: "firmware.json", mask: false, panel: false, render: |c| firmware_json::render_firmware_json(c.art) },
     Output { suffix: "panel.front.svg", mask: true, panel: true, render: |c| Ok(drawing::svg_bytes(&panel::panel_film(c.art, PlateId::Front, c.date, c.errors)?)) },
@@ -166,7 +175,7 @@ pub const OUTPUTS: &[Output] = &[
         suffix: "report.json",
         mask: false,
         panel: false,
-        render: |c| report::render_report(c.art, c.findings, segmap::segment_rows(c.art), c.plan),
+        render: |c| report::render_report(c.art, c.findings, c.segment_rows(), c.plan),
     },
 ];
 
@@ -193,7 +202,7 @@ pub fn render_outputs_planned(
     let errors = crate::finding::count(findings, Severity::Error);
     let masks = errors == 0 || opts.masks_despite_errors;
     let name = file_stem(&art.name);
-    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan, png_dpi: opts.png_dpi };
+    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan, png_dpi: opts.png_dpi, rows: Default::default() };
     OUTPUTS
         .iter()
         .filter(|o| (masks || !o.mask) && (!o.panel || art.panel.is_some()))

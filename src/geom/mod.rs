@@ -7,10 +7,12 @@
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
 mod centroid;
+mod clip;
 mod interior;
 mod segment;
 mod shapes;
 pub mod path;
+pub use clip::clip_to_rect;
 pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
 
 pub use centroid::centroid;
