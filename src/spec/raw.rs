@@ -1,6 +1,8 @@
 //! The layout file as serde reads it: one struct per YAML mapping, unknown keys refused,
 //! every key optional (missing required keys are reported by the resolver, all at once),
 //! every leaf a lenient [`Scalar`] so that bad values are reported with their key path.
+//! The JSON Schema of the layout format (`segmask schema`) is derived from these structs
+//! (`schema.rs` gives the leaves' schemas).
 
 use super::scalar::{Entries, OneOrList, RawPoint, Scalar};
 use serde::Deserialize as DeriveDeserialize;
@@ -8,7 +10,7 @@ use serde::de::{self, Deserialize, Deserializer, MapAccess, Visitor};
 use std::fmt;
 
 /// The whole file.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a layout: a mapping with keys such as name, glass, window, pads")]
 pub struct RawLayout {
     pub name: Option<Scalar>,
@@ -38,7 +40,7 @@ pub struct RawLayout {
 }
 
 /// `mixture:` — the liquid crystal's data-sheet values.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys birefringence, permittivity_parallel, permittivity_perpendicular, threshold and saturation")]
 pub struct RawMixture {
     pub birefringence: Option<Scalar>,
@@ -49,7 +51,7 @@ pub struct RawMixture {
 }
 
 /// `electrical:` — ITO and drive.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys sheet_resistance, frame_rate, rc_limit and voltage")]
 pub struct RawElectrical {
     pub sheet_resistance: Option<Scalar>,
@@ -59,7 +61,7 @@ pub struct RawElectrical {
 }
 
 /// `optics:` — wavelength and viewing side.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys wavelength and viewing")]
 pub struct RawOptics {
     pub wavelength: Option<Scalar>,
@@ -67,7 +69,7 @@ pub struct RawOptics {
 }
 
 /// `glass:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys front and back")]
 pub struct RawGlass {
     pub front: Option<RawSize>,
@@ -75,7 +77,7 @@ pub struct RawGlass {
 }
 
 /// `{width, height}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys width and height")]
 pub struct RawSize {
     pub width: Option<Scalar>,
@@ -83,7 +85,7 @@ pub struct RawSize {
 }
 
 /// `{x, y, width, height}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys x, y, width and height")]
 pub struct RawRect {
     pub x: Option<Scalar>,
@@ -93,7 +95,7 @@ pub struct RawRect {
 }
 
 /// `rules:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping of design rules")]
 pub struct RawRules {
     pub min_width: Option<Scalar>,
@@ -108,7 +110,7 @@ pub struct RawRules {
 }
 
 /// `masks:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys process, mirror, sheet and copies")]
 pub struct RawMasks {
     pub process: Option<Scalar>,
@@ -118,7 +120,7 @@ pub struct RawMasks {
 }
 
 /// `panel:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys rows, columns, spacing, scribe_lane and substrate")]
 pub struct RawPanel {
     pub rows: Option<Scalar>,
@@ -129,7 +131,7 @@ pub struct RawPanel {
 }
 
 /// `seal:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys width, inset and fill_port")]
 pub struct RawSeal {
     pub width: Option<Scalar>,
@@ -138,7 +140,7 @@ pub struct RawSeal {
 }
 
 /// `seal.fill_port:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys side, at and width")]
 pub struct RawFillPort {
     pub side: Option<Scalar>,
@@ -147,7 +149,7 @@ pub struct RawFillPort {
 }
 
 /// `transfer_dots:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys diameter and pad")]
 pub struct RawTransfer {
     pub diameter: Option<Scalar>,
@@ -155,7 +157,7 @@ pub struct RawTransfer {
 }
 
 /// `pads:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping describing the pad row")]
 pub struct RawPads {
     pub side: Option<Scalar>,
@@ -179,7 +181,7 @@ pub enum RawDrive {
 }
 
 /// `drive: {duty, bias}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys duty, bias and fixed")]
 pub struct RawMultiplex {
     pub duty: Option<Scalar>,
@@ -188,7 +190,7 @@ pub struct RawMultiplex {
 }
 
 /// `drive.fixed.ELEMENT: {com, seg}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys com and seg")]
 pub struct RawFixedLine {
     pub com: Option<Scalar>,
@@ -227,7 +229,7 @@ impl<'de> Deserialize<'de> for RawDrive {
 }
 
 /// `marks:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys size and line")]
 pub struct RawMarks {
     pub size: Option<Scalar>,
@@ -235,7 +237,7 @@ pub struct RawMarks {
 }
 
 /// One item of `digits:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a digit group: a mapping with keys such as name, style, count, origin")]
 pub struct RawDigits {
     pub name: Option<Scalar>,
@@ -254,7 +256,7 @@ pub struct RawDigits {
 }
 
 /// One item of `legends:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a legend: a mapping with keys name, text, at, height")]
 pub struct RawLegend {
     pub name: Option<Scalar>,
@@ -266,7 +268,7 @@ pub struct RawLegend {
 }
 
 /// One item of `icons:`: a name and exactly one shape.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "an icon: a mapping with a name and one shape")]
 pub struct RawIcon {
     pub name: Option<Scalar>,
@@ -283,7 +285,7 @@ pub struct RawIcon {
 }
 
 /// `rectangle:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys at, width, height and corner")]
 pub struct RawRectangle {
     pub at: Option<RawPoint>,
@@ -293,7 +295,7 @@ pub struct RawRectangle {
 }
 
 /// `circle:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys centre and radius")]
 pub struct RawCircle {
     pub centre: Option<RawPoint>,
@@ -301,7 +303,7 @@ pub struct RawCircle {
 }
 
 /// `ring:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys centre, outer and inner")]
 pub struct RawRing {
     pub centre: Option<RawPoint>,
@@ -310,7 +312,7 @@ pub struct RawRing {
 }
 
 /// `path:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys d and at")]
 pub struct RawPath {
     pub d: Option<Scalar>,
@@ -318,7 +320,7 @@ pub struct RawPath {
 }
 
 /// One item of `bars:`: a name, a count, exactly one of `line` and `arc`, step sizes.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a bar graph: a mapping with keys such as name, count, line or arc, length")]
 pub struct RawBar {
     pub name: Option<Scalar>,
@@ -334,7 +336,7 @@ pub struct RawBar {
 }
 
 /// `bars[i].line:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys from and angle or to")]
 pub struct RawBarLine {
     pub from: Option<RawPoint>,
@@ -343,7 +345,7 @@ pub struct RawBarLine {
 }
 
 /// `bars[i].arc:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys centre, radius, start and end")]
 pub struct RawBarArc {
     pub centre: Option<RawPoint>,
@@ -353,7 +355,7 @@ pub struct RawBarArc {
 }
 
 /// One item of `buses:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a bus: a mapping with keys net, plate, width and points")]
 pub struct RawBus {
     pub net: Option<Scalar>,
