@@ -30,3 +30,20 @@ const TEMPLATE: &str = include_str!("starter.yaml");
 pub fn starter_layout(name: &str, drive: StarterDrive) -> String {
     TEMPLATE.replace("{{NAME}}", name).replace("{{DRIVE}}", &drive.yaml())
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Every drive's starter reads and resolves (the full build is in the CLI tests).
+    #[test]
+    fn starter_resolves_at_every_drive() {
+        for d in [StarterDrive::Static, StarterDrive::Duty(2), StarterDrive::Duty(3), StarterDrive::Duty(4)] {
+            let text = starter_layout("my-panel", d);
+            assert!(!text.contains("{{"), "{text}");
+            let l = crate::spec::parse_layout(&text, std::path::Path::new("my-panel.yaml")).unwrap_or_else(|e| panic!("{d:?}: {e}"));
+            assert_eq!(l.name, "my-panel");
+            assert_eq!(l.digits[0].count, 4);
+        }
+    }
+}
