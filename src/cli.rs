@@ -227,8 +227,20 @@ fn build(
     segmask::emit::check_date(&date)?;
     check_out(out)?;
     let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
-    let built = build_and_write(layout, out, &opts, &input.options()?, lock_wait, timings)?;
+    let built = build_and_write(layout, out, &opts, &input.options()?, lock_wait, Verbosity::Build { timings })?;
     Ok(exit_for(&built.findings))
+}
+
+/// What a build prints besides the findings.
+#[derive(Clone, Copy)]
+enum Verbosity {
+    /// `build`: the counts, every file written, the stage times if asked for.
+    Build {
+        /// Print the time each stage took.
+        timings: bool,
+    },
+    /// `watch`: nothing more (it prints its own line per build).
+    Watch,
 }
 
 /// Builds `layout`, prints its findings, writes its files into `out` as one set and says
@@ -239,11 +251,15 @@ fn build_and_write(
     opts: &segmask::emit::EmitOptions,
     input: &segmask::spec::InputOptions,
     lock_wait: u64,
-    timings: bool,
+    verbosity: Verbosity,
 ) -> segmask::Result<Built> {
     let built = segmask::pipeline::build_layout_file_with(layout, input)?;
     let mut stages = built.timings.clone();
-    print_findings(layout, &built);
+    print_diagnostics(layout, &built);
+    let watching = matches!(verbosity, Verbosity::Watch);
+    if !watching {
+        print_counts(&built);
+    }
     let t = std::time::Instant::now();
     let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, opts)?;
     stages.push(("emit", t.elapsed()));
@@ -251,10 +267,13 @@ fn build_and_write(
     let write = segmask::emit::WriteOptions { lock_wait: std::time::Duration::from_secs(lock_wait) };
     segmask::emit::write_build_set(out, &segmask::emit::file_stem(&built.artwork.name), &files, &write)?;
     stages.push(("write", t.elapsed()));
+    if watching {
+        return Ok(built);
+    }
     for f in &files {
         console::err(&format!("wrote {}", out.join(&f.name).display()));
     }
-    if timings {
+    if let Verbosity::Build { timings: true } = verbosity {
         // Every stage, the writers and the writing of the set included, after the files
         // they timed.
         for (stage, d) in &stages {
@@ -281,7 +300,7 @@ fn watch(layout: &Path, out: &Path, masks: bool, png_dpi: f32, input: &InputArgs
         let date = chrono::Local::now().format("%Y-%m-%d").to_string();
         let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
         let clock = chrono::Local::now().format("%H:%M:%S");
-        match build_and_write(layout, out, &opts, &input, 60, false) {
+        match build_and_write(layout, out, &opts, &input, 60, Verbosity::Watch) {
             Ok(built) => {
                 *fonts.borrow_mut() = built.layout.extra_fonts.iter().map(|f| f.path.clone()).collect();
                 let errors = segmask::finding::count(&built.findings, Severity::Error);
@@ -408,9 +427,17 @@ fn dump(what: DumpWhat, layout: &Path, input: &InputArgs) -> segmask::Result<Exi
 }
 
 fn print_findings(layout: &Path, built: &Built) {
+    print_diagnostics(layout, built);
+    print_counts(built);
+}
+
+fn print_diagnostics(layout: &Path, built: &Built) {
     for f in &built.findings {
         console::err(&segmask::emit::diagnostic(layout, f));
     }
+}
+
+fn print_counts(built: &Built) {
     let errors = segmask::finding::count(&built.findings, Severity::Error);
     let warnings = segmask::finding::count(&built.findings, Severity::Warning);
     console::err(&format!("{}: {errors} error(s), {warnings} warning(s)", built.layout.name));
