@@ -52,6 +52,10 @@ enum Command {
     Check {
         /// Layout file (YAML).
         layout: PathBuf,
+        /// How to print the findings: `text` like compiler diagnostics on standard
+        /// error, or `json`, one document on standard output (docs/commands.md).
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
         #[command(flatten)]
         input: InputArgs,
     },
@@ -80,6 +84,37 @@ enum Command {
         #[arg(long, default_value_t = 60, value_parser = clap::value_parser!(u64).range(0..=3600))]
         lock_wait: u64,
     },
+    /// Build, then build again each time the layout (or a font file it reads) is saved,
+    /// printing one line per build; Ctrl-C ends it.
+    Watch {
+        /// Layout file (YAML).
+        layout: PathBuf,
+        /// Output folder (created if missing).
+        #[arg(long, default_value = "out")]
+        out: PathBuf,
+        /// Write films and GDSII even while rule errors stand (the report is always written).
+        #[arg(long)]
+        masks_despite_errors: bool,
+        /// Resolution of the PNG films, dots per inch.
+        #[arg(long, default_value_t = segmask::emit::DEFAULT_PNG_DPI)]
+        png_dpi: f32,
+        #[command(flatten)]
+        input: InputArgs,
+    },
+    /// Write a commented starter layout NAME.yaml that builds clean.
+    New {
+        /// Name of the display: the layout's `name` and the file's stem (letters, digits,
+        /// `-` and `_`).
+        name: String,
+        /// Folder to write NAME.yaml into.
+        #[arg(long, default_value = ".")]
+        out: PathBuf,
+        /// Drive: `static`, or the duty `1/2`, `1/3` or `1/4`.
+        #[arg(long, default_value = "static")]
+        drive: String,
+    },
+    /// Print the JSON Schema of the layout format (docs/layout.schema.json).
+    Schema,
     /// Print an intermediate form (for debugging and reviews): the resolved layout or
     /// the artwork, as Rust debug text.
     Dump {
@@ -128,6 +163,15 @@ fn check_out(out: &Path) -> segmask::Result<()> {
     }
 }
 
+/// How `check` prints.
+#[derive(Clone, Copy, PartialEq, clap::ValueEnum)]
+enum Format {
+    /// Compiler-style diagnostics on standard error.
+    Text,
+    /// One JSON document on standard output.
+    Json,
+}
+
 /// Intermediate forms `dump` can print.
 #[derive(Clone, Copy, clap::ValueEnum)]
 enum DumpWhat {
@@ -144,11 +188,19 @@ pub fn run() -> ExitCode {
         Command::Build { layout, out, masks_despite_errors, date, timings, png_dpi, input, lock_wait } => {
             build(&layout, &out, masks_despite_errors, date, timings, png_dpi, &input, lock_wait)
         }
-        Command::Check { layout, input } => check(&layout, &input),
+        Command::Check { layout, format: Format::Text, input } => check(&layout, &input),
+        Command::Check { layout, format: Format::Json, input } => check_json(&layout, &input),
         Command::Show { layout, text, on, out, dpi, input, lock_wait } => {
             show(&layout, &text, &on, &out, dpi, &input, lock_wait)
         }
         Command::Dump { what, layout, input } => dump(what, &layout, &input),
+        Command::Watch { layout, out, masks_despite_errors, png_dpi, input } => {
+            watch(&layout, &out, masks_despite_errors, png_dpi, &input)
+        }
+        Command::New { name, out, drive } => new(&name, &out, &drive),
+        Command::Schema => console::out(segmask::spec::layout_schema().trim_end())
+            .map(|_| ExitCode::SUCCESS)
+            .map_err(|e| segmask::Error::io("standard output", e)),
     };
     match result {
         Ok(code) => code,
@@ -174,37 +226,155 @@ fn build(
     let date = date.unwrap_or_else(|| chrono::Local::now().format("%Y-%m-%d").to_string());
     segmask::emit::check_date(&date)?;
     check_out(out)?;
-    let built = segmask::pipeline::build_layout_file_with(layout, &input.options()?)?;
-    let mut stages = built.timings.clone();
-    print_findings(layout, &built);
     let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
+    let built = build_and_write(layout, out, &opts, &input.options()?, lock_wait, Verbosity::Build { timings })?;
+    Ok(exit_for(&built.findings))
+}
+
+/// What a build prints besides the findings.
+#[derive(Clone, Copy)]
+enum Verbosity {
+    /// `build`: the counts, every file written, the stage times if asked for.
+    Build {
+        /// Print the time each stage took.
+        timings: bool,
+    },
+    /// `watch`: nothing more (it prints its own line per build).
+    Watch,
+}
+
+/// Builds `layout`, prints its findings, writes its files into `out` as one set and says
+/// what was written; used by `build` and by every build of `watch`.
+fn build_and_write(
+    layout: &Path,
+    out: &Path,
+    opts: &segmask::emit::EmitOptions,
+    input: &segmask::spec::InputOptions,
+    lock_wait: u64,
+    verbosity: Verbosity,
+) -> segmask::Result<Built> {
+    let built = segmask::pipeline::build_layout_file_with(layout, input)?;
+    let mut stages = built.timings.clone();
+    print_diagnostics(layout, &built);
+    let watching = matches!(verbosity, Verbosity::Watch);
+    if !watching {
+        print_counts(&built);
+    }
     let t = std::time::Instant::now();
-    let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts)?;
+    let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, opts)?;
     stages.push(("emit", t.elapsed()));
     let t = std::time::Instant::now();
     let write = segmask::emit::WriteOptions { lock_wait: std::time::Duration::from_secs(lock_wait) };
     segmask::emit::write_build_set(out, &segmask::emit::file_stem(&built.artwork.name), &files, &write)?;
     stages.push(("write", t.elapsed()));
+    if watching {
+        return Ok(built);
+    }
     for f in &files {
         console::err(&format!("wrote {}", out.join(&f.name).display()));
     }
-    if timings {
+    if let Verbosity::Build { timings: true } = verbosity {
         // Every stage, the writers and the writing of the set included, after the files
         // they timed.
         for (stage, d) in &stages {
             console::err(&format!("time {stage:>9}: {:8.3} s", d.as_secs_f64()));
         }
     }
-    if segmask::emit::masks_withheld(&built.findings, &opts) {
+    if segmask::emit::masks_withheld(&built.findings, opts) {
         console::err("films and GDSII withheld while rule errors stand (pass --masks-despite-errors to write them anyway)");
     }
-    Ok(exit_for(&built.findings))
+    Ok(built)
+}
+
+/// `watch`: a build now and after every save, each ending in one line with the counts;
+/// a save that does not read prints its problems and writes nothing.
+fn watch(layout: &Path, out: &Path, masks: bool, png_dpi: f32, input: &InputArgs) -> segmask::Result<ExitCode> {
+    check_dpi("--png-dpi", png_dpi)?;
+    check_out(out)?;
+    let input = input.options()?;
+    let dir = layout.parent().unwrap_or(Path::new(".")).to_path_buf();
+    let fonts = std::cell::RefCell::new(Vec::<PathBuf>::new());
+    let watched = || std::iter::once(layout.to_path_buf()).chain(fonts.borrow().iter().map(|f| dir.join(f))).collect();
+    let build = || {
+        let t = std::time::Instant::now();
+        let date = chrono::Local::now().format("%Y-%m-%d").to_string();
+        let opts = segmask::emit::EmitOptions { date, masks_despite_errors: masks, png_dpi };
+        let clock = chrono::Local::now().format("%H:%M:%S");
+        match build_and_write(layout, out, &opts, &input, 60, Verbosity::Watch) {
+            Ok(built) => {
+                *fonts.borrow_mut() = built.layout.extra_fonts.iter().map(|f| f.path.clone()).collect();
+                let errors = segmask::finding::count(&built.findings, Severity::Error);
+                let warnings = segmask::finding::count(&built.findings, Severity::Warning);
+                console::err(&format!(
+                    "[{clock}] built {}: {errors} error(s), {warnings} warning(s) in {:.2} s; watching {} for changes",
+                    built.layout.name,
+                    t.elapsed().as_secs_f64(),
+                    layout.display()
+                ));
+            }
+            Err(e) => {
+                console::err(&e.to_string());
+                console::err(&format!("[{clock}] not built: {} left as it was; watching {} for changes", out.display(), layout.display()));
+            }
+        }
+    };
+    crate::watch::watch(watched, build)
+}
+
+/// `new`: writes the starter layout, refusing to replace a file.
+fn new(name: &str, out: &Path, drive: &str) -> segmask::Result<ExitCode> {
+    let drive = match drive {
+        "static" => segmask::spec::StarterDrive::Static,
+        "1/2" => segmask::spec::StarterDrive::Duty(2),
+        "1/3" => segmask::spec::StarterDrive::Duty(3),
+        "1/4" => segmask::spec::StarterDrive::Duty(4),
+        other => return Err(command_line("--drive", format!("`{other}` is not a drive the starter is written for"), "static, 1/2, 1/3, 1/4")),
+    };
+    if name.is_empty() || name.len() > segmask::spec::limits::MAX_NAME_CHARS || !name.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_') {
+        return Err(command_line("NAME", format!("`{name}` is not a layout name"), "1 to 64 letters, digits, `-` and `_`"));
+    }
+    if !out.is_dir() {
+        return Err(command_line("--out", format!("`{}` is not a folder", out.display()), "an existing folder"));
+    }
+    let path = out.join(format!("{name}.yaml"));
+    let text = segmask::spec::starter_layout(name, drive);
+    // create_new: never replaces a file, even one that appears between a check and the write.
+    let mut file = match std::fs::OpenOptions::new().write(true).create_new(true).open(&path) {
+        Ok(f) => f,
+        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
+            return Err(command_line(
+                "NAME",
+                format!("`{}` already exists; segmask new does not replace a file", path.display()),
+                "a name whose .yaml file is not there yet, or another --out folder",
+            ));
+        }
+        Err(e) => return Err(segmask::Error::io(&path, e)),
+    };
+    std::io::Write::write_all(&mut file, text.as_bytes()).map_err(|e| segmask::Error::io(&path, e))?;
+    console::err(&format!("wrote {}; build it with: segmask build {} --out out", path.display(), path.display()));
+    Ok(ExitCode::SUCCESS)
 }
 
 fn check(layout: &Path, input: &InputArgs) -> segmask::Result<ExitCode> {
     let built = segmask::pipeline::build_layout_file_with(layout, &input.options()?)?;
     print_findings(layout, &built);
     Ok(exit_for(&built.findings))
+}
+
+/// `check --format json`: one document on standard output whatever happens, input
+/// problems included (exit 2 for them, as in text).
+fn check_json(layout: &Path, input: &InputArgs) -> segmask::Result<ExitCode> {
+    let built = input.options().and_then(|o| segmask::pipeline::build_layout_file_with(layout, &o));
+    let (doc, code) = match &built {
+        Ok(b) => {
+            let elements: Vec<_> = b.findings.iter().map(|f| segmask::finding_lines::elements_of(b, f)).collect();
+            (segmask::emit::check_json::render_check(layout, &b.layout.name, &b.findings, &elements)?, exit_for(&b.findings))
+        }
+        Err(e) => (segmask::emit::check_json::render_failure(layout, e)?, ExitCode::from(2)),
+    };
+    let text = String::from_utf8(doc).map_err(|e| segmask::Error::Bug(format!("check JSON: {e}")))?;
+    console::out(text.trim_end()).map_err(|e| segmask::Error::io("standard output", e))?;
+    Ok(code)
 }
 
 fn show(
@@ -257,9 +427,17 @@ fn dump(what: DumpWhat, layout: &Path, input: &InputArgs) -> segmask::Result<Exi
 }
 
 fn print_findings(layout: &Path, built: &Built) {
+    print_diagnostics(layout, built);
+    print_counts(built);
+}
+
+fn print_diagnostics(layout: &Path, built: &Built) {
     for f in &built.findings {
         console::err(&segmask::emit::diagnostic(layout, f));
     }
+}
+
+fn print_counts(built: &Built) {
     let errors = segmask::finding::count(&built.findings, Severity::Error);
     let warnings = segmask::finding::count(&built.findings, Severity::Warning);
     console::err(&format!("{}: {errors} error(s), {warnings} warning(s)", built.layout.name));

@@ -111,6 +111,17 @@ pub struct Finding {
     pub message: String,
 }
 
+/// One layout entry a finding concerns.
+#[derive(Debug, Clone, PartialEq, Eq, serde::Serialize)]
+pub struct ElementLine {
+    /// Element (`D1.a`, `HOLD`) or, for a bus trace, its net.
+    pub element: String,
+    /// Key path of the layout entry (`digits[0]`, `buses[1]`).
+    pub key: String,
+    /// 1-based line of that entry in the layout file, when the locator found it.
+    pub line: Option<usize>,
+}
+
 /// Counts of errors and warnings in a list of findings.
 pub fn count(findings: &[Finding], severity: Severity) -> usize {
     findings.iter().filter(|f| f.severity == severity).count()

@@ -20,6 +20,7 @@ pub mod electrode;
 pub mod emit;
 pub mod error;
 pub mod finding;
+pub mod finding_lines;
 pub mod firmware;
 pub mod geom;
 pub mod glyph;

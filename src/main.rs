@@ -2,6 +2,7 @@
 
 mod cli;
 mod console;
+mod watch;
 
 fn main() -> std::process::ExitCode {
     cli::run()

@@ -20,6 +20,9 @@ pub struct Built {
     pub plan: crate::plan::Plan,
     /// Wall-clock time of each stage, in pipeline order.
     pub timings: Vec<(&'static str, std::time::Duration)>,
+    /// Key path of the layout entry each element comes from, by element name (`D1.a` →
+    /// `digits[0]`), so a finding can name the layout lines it concerns.
+    pub element_keys: std::collections::BTreeMap<String, String>,
 }
 
 /// Reads, resolves, builds and checks a layout.
@@ -46,6 +49,7 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
         *t = Instant::now();
     };
     let elements = crate::glyph::build_elements(&layout)?;
+    let element_keys = elements.iter().map(|e| (e.name.clone(), e.key.clone())).collect();
     lap("glyph", &mut t);
     let assignment = crate::assign::assign(&layout, &elements)?;
     lap("assign", &mut t);
@@ -63,5 +67,5 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     let plan = crate::plan::plan(&artwork, &ex);
     findings.extend(crate::plan::findings(&artwork, &plan));
     lap("plan", &mut t);
-    Ok(Built { layout, artwork, findings, plan, timings })
+    Ok(Built { layout, artwork, findings, plan, timings, element_keys })
 }

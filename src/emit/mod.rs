@@ -12,6 +12,7 @@
 //! exception is cutting polygons into hole-free pieces ([`split`]), which GDSII and Gerber
 //! regions demand. docs/outputs.md describes every file.
 
+pub mod check_json;
 mod csv;
 pub mod drawing;
 mod drive_info;

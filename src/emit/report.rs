@@ -57,8 +57,9 @@ struct NetRow<'a> {
     area_mm2: f64,
 }
 
+/// A finding as the report (and `check --format json`) writes it.
 #[derive(Serialize)]
-struct FindingRow<'a> {
+pub(super) struct FindingRow<'a> {
     rule: &'static str,
     severity: &'static str,
     plate: Option<&'static str>,
@@ -108,7 +109,8 @@ fn rules(art: &Artwork) -> Rules {
     }
 }
 
-fn finding_row(f: &Finding) -> FindingRow<'_> {
+/// The row of one finding.
+pub(super) fn finding_row(f: &Finding) -> FindingRow<'_> {
     FindingRow {
         rule: f.rule.code(),
         severity: f.severity.name(),

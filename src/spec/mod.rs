@@ -27,6 +27,8 @@ mod raw;
 mod read;
 mod resolve;
 mod scalar;
+mod schema;
+mod starter;
 pub mod units;
 
 #[cfg(test)]
@@ -34,6 +36,8 @@ mod tests;
 
 pub use fit::{ledge_depth, liquid_crystal_region};
 pub use locate::{key_lines, line_of};
+pub use schema::layout_schema;
+pub use starter::{StarterDrive, starter_layout};
 pub use nets::{NetSource, common_nets, digit_segments, element_nets, pads_needed};
 pub use placement::{POINT_ROOM_STROKES, digit_cell};
 

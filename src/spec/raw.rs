@@ -1,6 +1,8 @@
 //! The layout file as serde reads it: one struct per YAML mapping, unknown keys refused,
 //! every key optional (missing required keys are reported by the resolver, all at once),
 //! every leaf a lenient [`Scalar`] so that bad values are reported with their key path.
+//! The JSON Schema of the layout format (`segmask schema`) is derived from these structs
+//! (`schema.rs` gives the leaves' schemas).
 
 use super::scalar::{Entries, OneOrList, RawPoint, Scalar};
 use serde::Deserialize as DeriveDeserialize;
@@ -8,8 +10,9 @@ use serde::de::{self, Deserialize, Deserializer, MapAccess, Visitor};
 use std::fmt;
 
 /// The whole file.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a layout: a mapping with keys such as name, glass, window, pads")]
+#[schemars(rename = "Layout")]
 pub struct RawLayout {
     pub name: Option<Scalar>,
     pub glass: Option<RawGlass>,
@@ -38,8 +41,9 @@ pub struct RawLayout {
 }
 
 /// `mixture:` — the liquid crystal's data-sheet values.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys birefringence, permittivity_parallel, permittivity_perpendicular, threshold and saturation")]
+#[schemars(rename = "Mixture")]
 pub struct RawMixture {
     pub birefringence: Option<Scalar>,
     pub permittivity_parallel: Option<Scalar>,
@@ -49,8 +53,9 @@ pub struct RawMixture {
 }
 
 /// `electrical:` — ITO and drive.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys sheet_resistance, frame_rate, rc_limit and voltage")]
+#[schemars(rename = "Electrical")]
 pub struct RawElectrical {
     pub sheet_resistance: Option<Scalar>,
     pub frame_rate: Option<Scalar>,
@@ -59,32 +64,36 @@ pub struct RawElectrical {
 }
 
 /// `optics:` — wavelength and viewing side.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys wavelength and viewing")]
+#[schemars(rename = "Optics")]
 pub struct RawOptics {
     pub wavelength: Option<Scalar>,
     pub viewing: Option<Scalar>,
 }
 
 /// `glass:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys front and back")]
+#[schemars(rename = "Glass")]
 pub struct RawGlass {
     pub front: Option<RawSize>,
     pub back: Option<RawRect>,
 }
 
 /// `{width, height}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys width and height")]
+#[schemars(rename = "Size")]
 pub struct RawSize {
     pub width: Option<Scalar>,
     pub height: Option<Scalar>,
 }
 
 /// `{x, y, width, height}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys x, y, width and height")]
+#[schemars(rename = "Rect")]
 pub struct RawRect {
     pub x: Option<Scalar>,
     pub y: Option<Scalar>,
@@ -93,8 +102,9 @@ pub struct RawRect {
 }
 
 /// `rules:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping of design rules")]
+#[schemars(rename = "Rules")]
 pub struct RawRules {
     pub min_width: Option<Scalar>,
     pub min_gap: Option<Scalar>,
@@ -108,8 +118,9 @@ pub struct RawRules {
 }
 
 /// `masks:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys process, mirror, sheet and copies")]
+#[schemars(rename = "Masks")]
 pub struct RawMasks {
     pub process: Option<Scalar>,
     pub mirror: Option<Scalar>,
@@ -118,8 +129,9 @@ pub struct RawMasks {
 }
 
 /// `panel:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys rows, columns, spacing, scribe_lane and substrate")]
+#[schemars(rename = "Panel")]
 pub struct RawPanel {
     pub rows: Option<Scalar>,
     pub columns: Option<Scalar>,
@@ -129,8 +141,9 @@ pub struct RawPanel {
 }
 
 /// `seal:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys width, inset and fill_port")]
+#[schemars(rename = "Seal")]
 pub struct RawSeal {
     pub width: Option<Scalar>,
     pub inset: Option<Scalar>,
@@ -138,8 +151,9 @@ pub struct RawSeal {
 }
 
 /// `seal.fill_port:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys side, at and width")]
+#[schemars(rename = "FillPort")]
 pub struct RawFillPort {
     pub side: Option<Scalar>,
     pub at: Option<Scalar>,
@@ -147,16 +161,18 @@ pub struct RawFillPort {
 }
 
 /// `transfer_dots:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys diameter and pad")]
+#[schemars(rename = "Transfer")]
 pub struct RawTransfer {
     pub diameter: Option<Scalar>,
     pub pad: Option<Scalar>,
 }
 
 /// `pads:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping describing the pad row")]
+#[schemars(rename = "Pads")]
 pub struct RawPads {
     pub side: Option<Scalar>,
     pub pitch: Option<Scalar>,
@@ -179,8 +195,9 @@ pub enum RawDrive {
 }
 
 /// `drive: {duty, bias}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys duty, bias and fixed")]
+#[schemars(rename = "Multiplex")]
 pub struct RawMultiplex {
     pub duty: Option<Scalar>,
     pub bias: Option<Scalar>,
@@ -188,8 +205,9 @@ pub struct RawMultiplex {
 }
 
 /// `drive.fixed.ELEMENT: {com, seg}`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys com and seg")]
+#[schemars(rename = "FixedLine")]
 pub struct RawFixedLine {
     pub com: Option<Scalar>,
     pub seg: Option<Scalar>,
@@ -227,16 +245,18 @@ impl<'de> Deserialize<'de> for RawDrive {
 }
 
 /// `marks:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys size and line")]
+#[schemars(rename = "Marks")]
 pub struct RawMarks {
     pub size: Option<Scalar>,
     pub line: Option<Scalar>,
 }
 
 /// One item of `digits:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a digit group: a mapping with keys such as name, style, count, origin")]
+#[schemars(rename = "Digits")]
 pub struct RawDigits {
     pub name: Option<Scalar>,
     pub style: Option<Scalar>,
@@ -254,8 +274,9 @@ pub struct RawDigits {
 }
 
 /// One item of `legends:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a legend: a mapping with keys name, text, at, height")]
+#[schemars(rename = "Legend")]
 pub struct RawLegend {
     pub name: Option<Scalar>,
     pub text: Option<Scalar>,
@@ -266,8 +287,9 @@ pub struct RawLegend {
 }
 
 /// One item of `icons:`: a name and exactly one shape.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "an icon: a mapping with a name and one shape")]
+#[schemars(rename = "Icon")]
 pub struct RawIcon {
     pub name: Option<Scalar>,
     pub icon: Option<Scalar>,
@@ -283,8 +305,9 @@ pub struct RawIcon {
 }
 
 /// `rectangle:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys at, width, height and corner")]
+#[schemars(rename = "Rectangle")]
 pub struct RawRectangle {
     pub at: Option<RawPoint>,
     pub width: Option<Scalar>,
@@ -293,16 +316,18 @@ pub struct RawRectangle {
 }
 
 /// `circle:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys centre and radius")]
+#[schemars(rename = "Circle")]
 pub struct RawCircle {
     pub centre: Option<RawPoint>,
     pub radius: Option<Scalar>,
 }
 
 /// `ring:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys centre, outer and inner")]
+#[schemars(rename = "Ring")]
 pub struct RawRing {
     pub centre: Option<RawPoint>,
     pub outer: Option<Scalar>,
@@ -310,16 +335,18 @@ pub struct RawRing {
 }
 
 /// `path:` icon.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys d and at")]
+#[schemars(rename = "Path")]
 pub struct RawPath {
     pub d: Option<Scalar>,
     pub at: Option<RawPoint>,
 }
 
 /// One item of `bars:`: a name, a count, exactly one of `line` and `arc`, step sizes.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a bar graph: a mapping with keys such as name, count, line or arc, length")]
+#[schemars(rename = "Bar")]
 pub struct RawBar {
     pub name: Option<Scalar>,
     pub count: Option<Scalar>,
@@ -334,8 +361,9 @@ pub struct RawBar {
 }
 
 /// `bars[i].line:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys from and angle or to")]
+#[schemars(rename = "BarLine")]
 pub struct RawBarLine {
     pub from: Option<RawPoint>,
     pub angle: Option<Scalar>,
@@ -343,8 +371,9 @@ pub struct RawBarLine {
 }
 
 /// `bars[i].arc:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a mapping with keys centre, radius, start and end")]
+#[schemars(rename = "BarArc")]
 pub struct RawBarArc {
     pub centre: Option<RawPoint>,
     pub radius: Option<Scalar>,
@@ -353,8 +382,9 @@ pub struct RawBarArc {
 }
 
 /// One item of `buses:`.
-#[derive(Debug, DeriveDeserialize)]
+#[derive(Debug, DeriveDeserialize, schemars::JsonSchema)]
 #[serde(deny_unknown_fields, expecting = "a bus: a mapping with keys net, plate, width and points")]
+#[schemars(rename = "Bus")]
 pub struct RawBus {
     pub net: Option<Scalar>,
     pub plate: Option<Scalar>,

@@ -207,12 +207,12 @@ fn the_documented_example_resolves() {
     assert_eq!(l.name, "pump-panel");
     assert_eq!(l.icons.len(), 7);
     assert_eq!((l.bars[0].count, l.bars[0].last_length, l.bars[0].side), (8, 4.0, StepSide::Right));
-    assert_eq!(l.pads.fixed["D2.a"], 2);
+    assert_eq!(l.pads.fixed["BATT"], 2);
     assert_eq!(l.layers.entries["seal"], (30, 0));
     assert_eq!(l.digits[0].half_digits, [1]);
     // The locator finds keys in flow mappings that span two lines and in list items.
     let line = |needle: &str| text.lines().position(|t| t.contains(needle)).unwrap() + 1;
-    assert_eq!(l.key_lines["pads.fixed.D2.a"], line("fixed: {COM1"));
+    assert_eq!(l.key_lines["pads.fixed.BATT"], line("fixed: {COM1"));
     assert_eq!(l.key_lines["pads.first_pin"], line("first_pin"));
     assert_eq!(l.key_lines["icons[3].ring.inner"], line("RING1"));
     assert_eq!(l.key_lines["digits[0].half_digits"], line("half_digits"));

@@ -15,7 +15,10 @@ mod mutate;
 
 mod bad_layouts;
 mod bar_graph;
+mod check_json;
+mod citations;
 mod benchmark_layout;
+mod daily_loop;
 mod default_gap;
 mod demo_films;
 mod emit_files;
@@ -35,4 +38,5 @@ mod position_sweep;
 mod reference;
 mod registration_demo;
 mod robust;
+mod schema;
 mod show_display;

@@ -15,7 +15,7 @@ fn root() -> PathBuf {
 }
 
 /// The venv's python, created on first use (shared by every test in this binary).
-fn python() -> &'static Path {
+pub(crate) fn python() -> &'static Path {
     static PY: OnceLock<PathBuf> = OnceLock::new();
     PY.get_or_init(|| {
         let venv = PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("reference-venv");
