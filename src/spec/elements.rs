@@ -25,13 +25,12 @@ const GROUP_NAME: &str = "a letter, then letters, digits or `_`, not ending in a
 /// Characters allowed in a legend or icon name.
 pub const NET_NAME: &str = "a letter, then letters, digits, `_`, `-` or `.`; not COM followed by a number";
 
-/// `digits:`; the rules and the drive give the default segment gap
-/// ([`Rules::passing_gap`]).
-pub fn digit_groups(p: &mut Problems, raw: &[RawDigits], rules: &Rules, drive: &Drive) -> Vec<DigitGroup> {
-    raw.iter().enumerate().map(|(i, d)| digit_group(p, d, &format!("digits[{i}]"), rules, drive)).collect()
+/// `digits:`; the rules give the default segment gap ([`Rules::passing_gap`]).
+pub fn digit_groups(p: &mut Problems, raw: &[RawDigits], rules: &Rules) -> Vec<DigitGroup> {
+    raw.iter().enumerate().map(|(i, d)| digit_group(p, d, &format!("digits[{i}]"), rules)).collect()
 }
 
-fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, drive: &Drive) -> DigitGroup {
+fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules) -> DigitGroup {
     let k = |f: &str| format!("{key}.{f}");
     let name = p.text(d.name.as_ref(), &k("name"), None, GROUP_NAME);
     if !name.is_empty() && !group_name_ok(&name) {
@@ -57,7 +56,7 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, drive:
         p.bad(&k("slant"), format!("{slant}° is too steep"), &format!("-{MAX_SLANT} to {MAX_SLANT} degrees"));
     }
     let stroke = p.length(d.stroke.as_ref(), &k("stroke"), Some(height / 10.0), Sign::Positive);
-    let gap_default = rules.passing_gap(drive.commons > 1);
+    let gap_default = rules.passing_gap();
     let gap = p.length(d.gap.as_ref(), &k("gap"), Some(gap_default), Sign::NonNegative);
     let count_u = super::resolve::clamp_u32(count);
     let decimal_points = indices(p, d.decimal_points.as_ref(), &k("decimal_points"), count_u);

@@ -56,7 +56,8 @@ fn minimal_layout_resolves_with_documented_defaults() {
     assert_eq!((d.style, d.count, d.origin), (DigitStyle::Seven, 1, crate::geom::pt(10.0, 12.0)));
     assert!(close(d.pitch, 9.8));
     assert!(close(d.stroke, 1.2));
-    assert!(close(d.gap, 0.11 + 2.0 * 0.05));
+    // Lead plus a gap each side, plus four 25 µm routing-grid cells (docs/layout-format.md).
+    assert!(close(d.gap, 0.11 + 2.0 * 0.05 + 4.0 * 0.025));
     assert_eq!(d.slant, 0.0);
     assert_eq!(d.key, "digits[0]");
     assert!(l.legends.is_empty() && l.icons.is_empty() && l.buses.is_empty() && l.extra_fonts.is_empty());

@@ -86,9 +86,9 @@ fn kills_failures_locks_and_planted_links_never_leave_a_mixed_set() {
 
     // The old set, plus a file of the user's and a link the user made.
     let first = run(&out, "2025-01-01", "");
-    assert_eq!(first.status.code(), Some(1), "{}", String::from_utf8_lossy(&first.stderr));
+    assert_eq!(first.status.code(), Some(0), "{}", String::from_utf8_lossy(&first.stderr));
     let outputs = snapshot(&out).len();
-    // Every output (masks written despite the errors), the two PNG films among them.
+    // Every output (the minimal layout now builds clean), the two PNG films among them.
     assert_eq!(outputs, 18, "{:?}", snapshot(&out).keys());
     std::fs::write(out.join("notes.txt"), b"mine").unwrap();
     std::os::unix::fs::symlink(&victim, out.join("link")).unwrap();
@@ -140,7 +140,7 @@ fn kills_failures_locks_and_planted_links_never_leave_a_mixed_set() {
     std::os::unix::fs::symlink(&victim, out.join("minimal.pins.csv")).unwrap();
     std::os::unix::fs::symlink(tmp.path(), tmp.path().join(".out.new-1-0")).unwrap();
     let done = run(&out, "2025-06-06", "");
-    assert_eq!(done.status.code(), Some(1), "{}", String::from_utf8_lossy(&done.stderr));
+    assert_eq!(done.status.code(), Some(0), "{}", String::from_utf8_lossy(&done.stderr));
     let new = snapshot(&out);
     assert_eq!(new.len(), outputs + 2);
     assert!(contains(&new["minimal.masks.txt"], "2025-06-06"));
@@ -156,7 +156,7 @@ fn kills_failures_locks_and_planted_links_never_leave_a_mixed_set() {
     let children: Vec<Child> = dates.iter().map(|d| build(&out, d, "").spawn().unwrap()).collect();
     for c in children {
         let o = c.wait_with_output().unwrap();
-        assert_eq!(o.status.code(), Some(1), "{}", String::from_utf8_lossy(&o.stderr));
+        assert_eq!(o.status.code(), Some(0), "{}", String::from_utf8_lossy(&o.stderr));
     }
     let last = snapshot(&out);
     let dated: Vec<&str> = dates.iter().copied().filter(|d| contains(&last["minimal.masks.txt"], d)).collect();
