@@ -1,20 +1,42 @@
 //! Every position of a digit group routes: the multiplexed demos with all their elements
-//! (digit groups, legends, icons) moved across the window in 0.5 mm steps either check
-//! clean through the real binary or are refused as bad input with a located message
-//! (`file:LINE: error in `key``, exit 2) — never an `unroutable` or `open` finding. Before
-//! the pad row followed the leads, moving the rain-gauge demo's digits 0.5 mm sideways
-//! made its fan-out one level too deep; earlier still, 1 mm gave 10–14 routing errors.
+//! (digit groups, legends, icons, bar graphs) moved across the window in 0.5 mm steps, 25
+//! positions along x and 25 along y (-6 mm to +6 mm), either check clean through the real
+//! binary or are refused as bad input with a located message (`file:LINE: error in
+//! `key``, exit 2) — never an `unroutable` or `open` finding. Before the pad row followed
+//! the leads, moving the rain-gauge demo's digits 0.5 mm sideways made its fan-out one
+//! level too deep; earlier still, 1 mm gave 10–14 routing errors.
 
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
-/// The layout text with every `origin: [x, y]` and `at: [x, y]` moved by (dx, dy).
+/// The keys whose value is a point `[x, y]` placing something in the layout.
+const POINT_KEYS: [&str; 5] = ["origin", "at", "from", "to", "centre"];
+
+/// Steps of 0.5 mm on each side of the drawn position along one axis: 12 each way, so 25
+/// positions per axis with the drawn one.
+const STEPS: i32 = 12;
+const _: () = assert!(2 * STEPS + 1 >= 25, "the routing issue asks for at least 25 positions per axis");
+
+/// Where the next point key starts in `rest`: the index just past its `[`.
+fn next_point(rest: &str) -> Option<usize> {
+    POINT_KEYS
+        .iter()
+        .filter_map(|k| {
+            let pat = format!("{k}: [");
+            rest.match_indices(&pat)
+                .find(|(i, _)| rest[..*i].chars().next_back().is_none_or(|c| !(c.is_alphanumeric() || c == '_')))
+                .map(|(i, _)| i + pat.len())
+        })
+        .min()
+}
+
+/// The layout text with every point (see `POINT_KEYS`) moved by (dx, dy).
 fn moved(text: &str, dx: f64, dy: f64) -> String {
     let mut out = String::new();
     for line in text.lines() {
         let mut rest = line;
         let mut new = String::new();
-        while let Some(i) = ["origin: [", "at: ["].iter().filter_map(|k| rest.find(k).map(|i| i + k.len())).min() {
+        while let Some(i) = next_point(rest) {
             let close = rest[i..].find(']').expect("a point closes") + i;
             let xy: Vec<f64> = rest[i..close].split(',').map(|v| v.trim().parse().expect("a number")).collect();
             new.push_str(&rest[..i]);
@@ -46,9 +68,9 @@ fn check_at(dir: &Path, demo: &str, dx: f64, dy: f64) -> Result<(), String> {
 fn sweep(demo: &str) {
     let dir = tempfile::tempdir().unwrap();
     let steps = |lo: i32, hi: i32| (lo..=hi).map(|k| k as f64 * 0.5);
-    let failures: Vec<String> = steps(-4, 4)
+    let failures: Vec<String> = steps(-STEPS, STEPS)
         .map(|dx| (dx, 0.0))
-        .chain(steps(-3, 3).filter(|dy| *dy != 0.0).map(|dy| (0.0, dy)))
+        .chain(steps(-STEPS, STEPS).filter(|dy| *dy != 0.0).map(|dy| (0.0, dy)))
         .filter_map(|(dx, dy)| check_at(dir.path(), demo, dx, dy).err())
         .collect();
     assert!(failures.is_empty(), "{} position(s) failed:\n{}", failures.len(), failures.join("\n"));
@@ -70,7 +92,34 @@ fn darkroom_timer_with_its_colon_routes_at_every_position() {
 }
 
 #[test]
+fn greenhouse_bar_graph_and_gauge_route_at_every_position() {
+    sweep("greenhouse-humidity");
+}
+
+#[test]
 fn moving_shifts_only_points() {
     let t = moved("  origin: [6, 14.5]\n  - {name: A, at: [1, 2], size: 3}\n", 0.5, -1.0);
     assert_eq!(t, "  origin: [6.500, 13.500]\n  - {name: A, at: [1.500, 1.000], size: 3}\n");
+    let bar = moved("    line: {from: [8, 14], to: [20, 14]}\n    arc: {centre: [1, 1], radius: 3}\n    auto: [4, 4]\n", 1.0, 1.0);
+    assert_eq!(bar, "    line: {from: [9.000, 15.000], to: [21.000, 15.000]}\n    arc: {centre: [2.000, 2.000], radius: 3}\n    auto: [4, 4]\n");
+}
+
+/// The demos swept above.
+const SWEPT: [&str; 4] = ["kiln-controller", "rain-gauge", "darkroom-timer", "greenhouse-humidity"];
+
+/// Every multiplexed demo (a `duty:` in its drive) is swept: a new one must join the list.
+#[test]
+fn every_multiplexed_demo_is_swept() {
+    let dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo-layouts");
+    let mut multiplexed: Vec<String> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|x| x == "yaml"))
+        .filter(|p| std::fs::read_to_string(p).unwrap().lines().any(|l| l.starts_with("drive:") && l.contains("duty")))
+        .map(|p| p.file_stem().unwrap().to_string_lossy().into_owned())
+        .collect();
+    multiplexed.sort();
+    let mut swept: Vec<String> = SWEPT.iter().map(|s| s.to_string()).collect();
+    swept.sort();
+    assert_eq!(multiplexed, swept);
 }
