@@ -9,6 +9,7 @@
 mod centroid;
 mod clip;
 mod interior;
+mod overlap;
 mod segment;
 mod shapes;
 pub mod path;
@@ -17,6 +18,7 @@ pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_
 
 pub use centroid::centroid;
 pub use interior::interior_point;
+pub use overlap::overlap_area;
 pub use segment::{cross3, dist, dist2, point_segment_closest, segment_closest_points, segment_intersection};
 pub use shapes::{circle, rect, regular_arc_step, ring, stroke_lead, stroke_polyline};
 

@@ -199,7 +199,8 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
             // The common's way on to its pad runs on the front plate.
             squares += lead_squares(art, &net_ito(ex, PlateId::Front, &net.name), &net.name);
         }
-        let facing = geom::area(&geom::intersection(&geom::intersection(&ito, &lc), other));
+        // Measured near each piece of the line: the other plate spans the glass.
+        let facing = geom::overlap_area(&geom::intersection(&ito, &lc), other);
         let c_off = plate_capacitance(facing, cell.gap, cell.permittivity_perpendicular);
         let c_on = plate_capacitance(facing, cell.gap, cell.permittivity_parallel);
         let r = cell.sheet_resistance * squares;

@@ -1,0 +1,83 @@
+//! The area two regions share, measured piece by piece near where they meet.
+//!
+//! A common electrode spans the glass; the area a SEG line's ITO faces of it was the
+//! area of a boolean of the line with the whole back plate, once per line. Here each
+//! pair of polygons whose boxes meet is intersected after the larger of the two has been
+//! cut to the smaller one's box (`clip_to_rect`), so the work follows the size of the
+//! small shapes, not of the glass.
+
+use super::{area, clip_to_rect, intersection, region_of, Polygon, Region};
+use geo::BoundingRect;
+
+/// How far past the smaller polygon's box the larger one is cut (mm): far enough that
+/// no edge of the cut lies on an edge of the smaller one.
+const MARGIN: f64 = 0.01;
+
+/// The area `a` and `b` share. The polygons of each region must not overlap one another
+/// (as the pieces of a region do); then each shared part is counted once.
+pub fn overlap_area(a: &Region, b: &Region) -> f64 {
+    let boxes = |r: &Region| -> Vec<Option<geo::Rect<f64>>> { r.0.iter().map(|p| p.bounding_rect()).collect() };
+    let (ba, bb) = (boxes(a), boxes(b));
+    let mut total = 0.0;
+    for (pa, ra) in a.0.iter().zip(&ba) {
+        let Some(ra) = ra else { continue };
+        for (pb, rb) in b.0.iter().zip(&bb) {
+            let Some(rb) = rb else { continue };
+            let meet = ra.min().x <= rb.max().x && rb.min().x <= ra.max().x && ra.min().y <= rb.max().y && rb.min().y <= ra.max().y;
+            if !meet {
+                continue;
+            }
+            let (small, small_box, large) = if vertices(pa) <= vertices(pb) { (pa, ra, pb) } else { (pb, rb, pa) };
+            let (lo, hi) = (small_box.min(), small_box.max());
+            let Some(cut) = clip_to_rect(large, lo.x - MARGIN, lo.y - MARGIN, hi.x + MARGIN, hi.y + MARGIN) else { continue };
+            total += area(&intersection(&region_of([small.clone()]), &region_of([cut])));
+        }
+    }
+    total
+}
+
+fn vertices(p: &Polygon) -> usize {
+    p.exterior().0.len() + p.interiors().iter().map(|r| r.0.len()).sum::<usize>()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::{rect, ring};
+
+    /// Against the full boolean (i_overlay through `geom::intersection`): a long comb with
+    /// a hole, met by small squares, some inside, some across its edges, one in the hole.
+    #[test]
+    fn agrees_with_the_full_boolean() {
+        let mut teeth = vec![rect(0.0, 0.0, 100.0, 2.0)];
+        teeth.extend((0..40).map(|i| rect(i as f64 * 2.5, 2.0, i as f64 * 2.5 + 1.2, 6.0)));
+        let comb = difference_hole(crate::geom::union_all(teeth), rect(50.0, 0.5, 60.0, 1.5));
+        let small = region_of(
+            [rect(1.0, 1.0, 3.0, 5.0), rect(49.5, 1.0, 51.0, 3.0), rect(55.0, 0.8, 56.0, 1.2), rect(98.0, -1.0, 101.0, 7.0)]
+                .into_iter()
+                .chain([ring(crate::geom::pt(30.0, 3.0), 0.8, 0.4, 0.01)]),
+        );
+        let full = area(&intersection(&small, &comb));
+        let local = overlap_area(&small, &comb);
+        assert!(full > 1.0);
+        // Both sides snap to the booleans' 1 nm grid, each along its own edges: over
+        // edges some tens of mm long that moves the area by well under 1e-5 mm².
+        assert!((full - local).abs() < 1e-5, "full {full} local {local}");
+        assert!((overlap_area(&comb, &small) - local).abs() < 1e-5, "either order");
+    }
+
+    /// Nothing shared, nothing counted; boxes that meet but shapes that do not: zero.
+    #[test]
+    fn disjoint_regions_share_nothing() {
+        let a = region_of([rect(0.0, 0.0, 1.0, 1.0)]);
+        let b = region_of([rect(2.0, 2.0, 3.0, 3.0)]);
+        assert_eq!(overlap_area(&a, &b), 0.0);
+        let l = crate::geom::difference(&region_of([rect(0.0, 0.0, 4.0, 4.0)]), &region_of([rect(1.0, 1.0, 4.0, 4.0)]));
+        let inside_box = region_of([rect(2.0, 2.0, 3.0, 3.0)]);
+        assert_eq!(overlap_area(&l, &inside_box), 0.0);
+    }
+
+    fn difference_hole(r: Region, hole: Polygon) -> Region {
+        crate::geom::difference(&r, &region_of([hole]))
+    }
+}
