@@ -2,8 +2,9 @@
 //! median over the runs) and what was built (elements, nets, pins, findings).
 //!
 //! Each run is `segmask::pipeline::build_layout_file` (spec, glyph, electrode, route,
-//! plate, check, timed by the pipeline itself) followed by
-//! `segmask::emit::render_outputs` into memory (timed here as `emit`); nothing is written.
+//! plate, check, plan, timed by the pipeline itself) followed by
+//! `segmask::emit::render_outputs_planned` with the build's plan, as `segmask build` does,
+//! into memory (timed here as `emit`); nothing is written.
 
 use segmask::finding::Severity;
 use std::path::Path;
@@ -82,7 +83,7 @@ pub fn measure(layout: &Path, repeat: u32) -> segmask::Result<Measured> {
     for _ in 0..repeat.max(1) {
         let built = segmask::pipeline::build_layout_file(layout)?;
         let t = Instant::now();
-        let files = segmask::emit::render_outputs(&built.artwork, &built.findings, &opts)?;
+        let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts)?;
         let emit = t.elapsed();
         std::hint::black_box(&files);
         let mut run = built.timings.clone();

@@ -14,7 +14,7 @@ const TAG: &str = "peak-kib ";
 pub fn report_child(layout: &Path) -> Result<(), String> {
     let opts = segmask::emit::EmitOptions { date: "2000-01-01".into(), masks_despite_errors: true, png_dpi: segmask::emit::DEFAULT_PNG_DPI };
     let built = segmask::pipeline::build_layout_file(layout).map_err(|e| e.to_string())?;
-    let files = segmask::emit::render_outputs(&built.artwork, &built.findings, &opts).map_err(|e| e.to_string())?;
+    let files = segmask::emit::render_outputs_planned(&built.artwork, &built.findings, &built.plan, &opts).map_err(|e| e.to_string())?;
     std::hint::black_box(&files);
     let status = std::fs::read_to_string("/proc/self/status").map_err(|e| format!("/proc/self/status: {e}"))?;
     let kib = status

@@ -11,7 +11,10 @@ Checks, each against an outside reference:
   within 1e-6 relative (areas computed by gdstk, independently of segmask; a common's
   area in the report includes its front-plate pad and lead);
 - no boundary has a hole-free violation (gdstk polygons are simple rings) and no more
-  than 8191 points (the format's XY record limit).
+  than 8191 points (the format's XY record limit);
+- every net's name stands on its plate's ITO layer once, as a text whose position lies
+  on a polygon of that layer (shapely, within 1 nm), so a viewer shows each name on
+  the net's own ITO.
 The net checks read the design structures FRONT, BACK and CELL; the mask structures
 (FRONT_MASK, BACK_MASK) hold the same ITO again, possibly mirrored and compensated, and
 are compared with these by check_masks.py.
@@ -21,6 +24,7 @@ import json
 import sys
 
 import gdstk
+from shapely.geometry import Point, Polygon
 
 
 def fail(msg):
@@ -70,6 +74,25 @@ def main(gds_path, report_path):
     if rel > 1e-6:
         fail(f"ITO area {total_gds:.9f} mm2 in GDSII vs report {rep_area:.9f} mm2 (rel {rel:.2e})")
     print(f"ok ITO area {total_gds:.6f} mm2 = report (rel {rel:.1e})")
+    check_net_names(lib, report, polys)
+
+
+def check_net_names(lib, report, polys):
+    cells = {c.name: c for c in lib.cells}
+    for plate, cell in (("front", "FRONT"), ("back", "BACK")):
+        entry = next(l for l in report["layers"] if l["name"] == f"{plate}_ito")
+        key = (entry["gds_layer"], entry["gds_datatype"])
+        shapes = [Polygon(p.points) for p in polys.get(key, [])]
+        texts = [t for t in cells[cell].labels if (t.layer, t.texttype) == key]
+        want = sorted(n["name"] for n in report["nets"] if n["plate"] == plate)
+        got = sorted(t.text for t in texts)
+        if got != want:
+            fail(f"{plate}_ito names {got}, report's nets on that plate {want}")
+        for t in texts:
+            at = Point(t.origin)
+            if not any(s.distance(at) <= 1e-3 for s in shapes):
+                fail(f"name {t.text} at {t.origin} lies on no {plate}_ito polygon")
+        print(f"ok {len(texts)} net names on {plate}_ito polygons")
 
 
 if __name__ == "__main__":
