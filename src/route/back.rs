@@ -264,8 +264,7 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
             let tol = layout.tolerance;
             let outline = stroke_lead(&pts, layout.rules.lead_width, tol);
             let h = grid.h;
-            let keep = offset_round(&outline, layout.rules.min_gap + layout.rules.lead_width / 2.0 + h, tol.max(h / 4.0));
-            grid.claim(&keep, c.owner);
+            grid.claim_near(&outline, layout.rules.min_gap + layout.rules.lead_width / 2.0 + h, c.owner);
             Ok(Some(Lead { net: c.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false }))
         }
         Err(b) => {
@@ -307,7 +306,6 @@ fn stuck(c: &Common, at: Pt, blockers: &[u32], commons: &[Common]) -> Finding {
 fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid {
     let b = layout.glass.back;
     let h = super::grid_step(layout);
-    let tol = layout.tolerance.max(h / 4.0);
     let mut g = Grid::new(b.x, b.y, b.x1(), b.y1(), h);
     // Back leads keep the edge clearance from the back glass edge, like all ITO but pads
     // (the check's `edge-clearance`): a lead run outside the seal would otherwise sit on
@@ -316,9 +314,8 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
     let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
     let w = layout.window;
     let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + h;
-    let keep = offset_round(front_leads, reach, tol);
     let mut cells = Vec::new();
-    g.for_cells_in(&keep, |c| cells.push(c));
+    g.for_cells_near(front_leads, reach, |c| cells.push(c));
     for c in cells {
         let p = g.centre(c);
         // A cell counts as in the window (or the liquid crystal) when a lead centred on
@@ -334,9 +331,12 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
     if commons.len() > 1 {
         // Each common's islands, and its dot, are its own: other commons keep the gap.
         for c in commons {
-            let mut mine: Vec<Polygon> = c.islands.iter().flat_map(|r| r.0.iter().cloned()).collect();
-            mine.extend(c.dot.clone());
-            g.claim(&offset_round(&union_all(mine), reach, tol), c.owner);
+            for island in &c.islands {
+                g.claim_near(island, reach, c.owner);
+            }
+            if let Some(dot) = &c.dot {
+                g.claim_near(&region_of([dot.clone()]), reach, c.owner);
+            }
         }
     }
     g.compact();

@@ -9,7 +9,7 @@ use super::target::Targets;
 use super::side::SideFrame;
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
-use crate::geom::{offset_round, region_of, stroke_lead, stroke_polyline, Polygon, Pt, Region};
+use crate::geom::{region_of, stroke_lead, stroke_polyline, Polygon, Pt, Region};
 use crate::layout::{Layout, PlateId};
 
 /// How many times the whole escape is retried in a new order.
@@ -119,7 +119,14 @@ fn base_grid(layout: &Layout, frame: &SideFrame, nets: &[NetPieces]) -> Grid {
     g.block_outside(&crate::geom::union_all([inner.polygon(), strip]));
     let k = keepout(layout, h);
     for (i, n) in nets.iter().enumerate() {
-        g.claim(&offset_round(&region_of(n.pieces.iter().cloned()), k, layout.tolerance.max(h / 4.0)), i as u32 + 1);
+        // Piece by piece: a bus stroke may overlap a segment, and the spans are even-odd.
+        // The keep-out is measured exactly (`claim_near`), a quarter cell short of the full
+        // slack: the offset polygons it replaces fell short by up to their chord tolerance
+        // (a quarter cell) round every corner, and the default gap at 1/3 duty needs that
+        // room (a lead centred on a usable cell still keeps the gap and 3/4 of a cell).
+        for p in &n.pieces {
+            g.claim_near(&region_of([p.clone()]), k - h / 4.0, i as u32 + 1);
+        }
     }
     g
 }
@@ -229,7 +236,7 @@ fn piece_cells(grid: &Grid, piece: &Polygon, owner: u32) -> Vec<usize> {
 fn claim_lead(grid: &mut Grid, layout: &Layout, pts: &[Pt], owner: u32, k: f64) {
     let tol = layout.tolerance.max(grid.h / 4.0);
     let lead: Region = stroke_lead(pts, layout.rules.lead_width, tol);
-    grid.claim(&offset_round(&lead, k, tol), owner);
+    grid.claim_near(&lead, k, owner);
 }
 
 fn stuck(grid: &Grid, nets: &[NetPieces], i: usize, b: &super::search::Blocked, why: &str) -> Finding {

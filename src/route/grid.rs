@@ -105,7 +105,10 @@ impl Grid {
     }
 
     /// Calls `f(row, first column, last column)` for every run of cells in a row whose
-    /// centres lie inside `region` (even-odd over all rings).
+    /// centres lie inside `region` (even-odd over all rings). Edges are taken up row by
+    /// row as the scan reaches them and dropped when it passes them, so each row costs
+    /// the edges it crosses, not every edge of the region (a common electrode has tens
+    /// of thousands).
     pub fn for_spans_in(&self, region: &Region, mut f: impl FnMut(usize, usize, usize)) {
         let mut edges: Vec<(Pt, Pt)> = Vec::new();
         for p in &region.0 {
@@ -114,6 +117,9 @@ impl Grid {
         if edges.is_empty() {
             return;
         }
+        // The first row whose centre line lies at or above an edge's lower end, per edge.
+        let first_row = |e: &(Pt, Pt)| (((e.0.y.min(e.1.y) - self.y0) / self.h).ceil().max(0.0)) as usize;
+        edges.sort_by_key(first_row);
         let (ymin, ymax) = edges.iter().fold((f64::MAX, f64::MIN), |(a, b), (p, q)| {
             (a.min(p.y).min(q.y), b.max(p.y).max(q.y))
         });
@@ -124,10 +130,17 @@ impl Grid {
         }
         let r1 = (r1 as usize).min(self.ny - 1);
         let mut xs: Vec<f64> = Vec::new();
+        let mut active: Vec<(Pt, Pt)> = Vec::new();
+        let mut next = 0;
         for r in r0..=r1 {
             let y = self.y0 + r as f64 * self.h;
+            while next < edges.len() && first_row(&edges[next]) <= r {
+                active.push(edges[next]);
+                next += 1;
+            }
+            active.retain(|(p, q)| p.y.max(q.y) >= y);
             xs.clear();
-            for (p, q) in &edges {
+            for (p, q) in &active {
                 if (p.y <= y) != (q.y <= y) {
                     xs.push(p.x + (y - p.y) * (q.x - p.x) / (q.y - p.y));
                 }
@@ -155,6 +168,105 @@ impl Grid {
     pub fn claim(&mut self, region: &Region, owner: u32) {
         let mut cells = Vec::new();
         self.for_cells_in(region, |i| cells.push(i));
+        for i in cells {
+            let o = self.owner.get(i);
+            if o == FREE {
+                self.owner.set(i, owner);
+            } else if o != owner {
+                self.owner.set(i, BLOCKED);
+            }
+        }
+    }
+
+    /// Calls `f` with every cell whose centre lies within `d` of `region` (inside it, or
+    /// at most `d` from its boundary): the cells of the region grown by a disc of radius
+    /// `d`, exactly, without building the grown polygon. That grown region is the region
+    /// itself together with the capsule of radius `d` around each of its edges, so this
+    /// scans the region's spans and then each edge's capsule, row by row. A cell may be
+    /// visited more than once.
+    pub fn for_cells_near(&self, region: &Region, d: f64, mut f: impl FnMut(usize)) {
+        let nx = self.nx;
+        self.for_spans_in(region, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
+        for p in &region.0 {
+            for ring in std::iter::once(p.exterior()).chain(p.interiors()) {
+                for w in ring.0.windows(2) {
+                    self.for_capsule_spans(w[0], w[1], d, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
+                }
+            }
+        }
+    }
+
+    /// Runs of cells whose centres lie within `d` of the segment `a`–`b`, row by row.
+    fn for_capsule_spans(&self, a: Pt, b: Pt, d: f64, mut f: impl FnMut(usize, usize, usize)) {
+        let row = |y: f64| (y - self.y0) / self.h;
+        let r0 = row(a.y.min(b.y) - d).ceil().max(0.0) as usize;
+        let r1 = row(a.y.max(b.y) + d).floor();
+        if r1 < 0.0 {
+            return;
+        }
+        let r1 = (r1 as usize).min(self.ny - 1);
+        let (dx, dy) = (b.x - a.x, b.y - a.y);
+        let len = dx.hypot(dy);
+        for r in r0..=r1 {
+            let y = self.y0 + r as f64 * self.h;
+            // The capsule is convex: its cut along the row is the hull of the cuts of its
+            // two end discs and of the band between them.
+            let mut lo = f64::INFINITY;
+            let mut hi = f64::NEG_INFINITY;
+            for c in [a, b] {
+                let e = d * d - (y - c.y) * (y - c.y);
+                if e >= 0.0 {
+                    let s = e.sqrt();
+                    lo = lo.min(c.x - s);
+                    hi = hi.max(c.x + s);
+                }
+            }
+            if len > 0.0 && dy != 0.0 {
+                // Along the segment t = ((x − a.x)·dx + (y − a.y)·dy) / len in [0, len];
+                // across it n = ((y − a.y)·dx − (x − a.x)·dy) / len in [−d, d]; both
+                // linear in x.
+                let (ux, uy) = (dx / len, dy / len);
+                let mut band = (f64::NEG_INFINITY, f64::INFINITY);
+                let mut clamp = |k: f64, c0: f64, lo_v: f64, hi_v: f64| {
+                    // k·x + c0 in [lo_v, hi_v]
+                    if k.abs() < 1e-15 {
+                        if c0 < lo_v || c0 > hi_v {
+                            band = (1.0, 0.0);
+                        }
+                    } else {
+                        let (x0, x1) = ((lo_v - c0) / k, (hi_v - c0) / k);
+                        band = (band.0.max(x0.min(x1)), band.1.min(x0.max(x1)));
+                    }
+                };
+                clamp(ux, -a.x * ux + (y - a.y) * uy, 0.0, len);
+                clamp(-uy, a.x * uy + (y - a.y) * ux, -d, d);
+                if band.0 <= band.1 {
+                    lo = lo.min(band.0);
+                    hi = hi.max(band.1);
+                }
+            } else if len > 0.0 && (y - a.y).abs() <= d {
+                lo = lo.min(a.x.min(b.x));
+                hi = hi.max(a.x.max(b.x));
+            }
+            if lo > hi {
+                continue;
+            }
+            let c0 = ((lo - self.x0) / self.h).ceil().max(0.0) as usize;
+            let c1 = ((hi - self.x0) / self.h).floor();
+            if c1 < 0.0 {
+                continue;
+            }
+            let c1 = (c1 as usize).min(self.nx - 1);
+            if c0 <= c1 {
+                f(r, c0, c1);
+            }
+        }
+    }
+
+    /// [`Grid::claim`] of `region` grown by `d` ([`Grid::for_cells_near`]).
+    pub fn claim_near(&mut self, region: &Region, d: f64, owner: u32) {
+        let mut cells = Vec::new();
+        self.for_cells_near(region, d, |i| cells.push(i));
         for i in cells {
             let o = self.owner.get(i);
             if o == FREE {
@@ -225,6 +337,51 @@ mod tests {
         g.for_cells_in(&region_of([rect(1.1, 1.1, 3.1, 2.1)]), |_| n += 1);
         // centres at 1.5..3.0 (4 columns) × 1.5..2.0 (2 rows)
         assert_eq!(n, 8);
+    }
+
+    /// The spans of a comb with a hole and of a ring agree with a test of every cell
+    /// centre by geo's `Contains` (boundary excluded; no centre lies on a boundary here).
+    #[test]
+    fn spans_agree_with_point_in_polygon() {
+        use geo::Contains;
+        let g = Grid::new(-1.0, -1.0, 21.0, 9.0, 0.1);
+        let teeth = crate::geom::union_all((0..8).map(|i| rect(i as f64 * 2.5 + 0.03, 0.03, i as f64 * 2.5 + 1.23, 6.03)).chain([rect(0.03, 5.03, 19.03, 7.03)]));
+        let comb = crate::geom::difference(&teeth, &region_of([rect(5.03, 5.53, 9.03, 6.53)]));
+        let shapes = crate::geom::union(&comb, &region_of([ring(pt(10.0, 3.0), 1.0, 0.55, 1e-3)]));
+        let mut got = vec![false; g.nx * g.ny];
+        g.for_cells_in(&shapes, |i| got[i] = true);
+        for (i, &inside) in got.iter().enumerate() {
+            let c = g.centre(i);
+            assert_eq!(inside, shapes.contains(&geo::Point(c)), "cell at {c:?}");
+        }
+    }
+
+    /// Cells near a region are those whose centres lie within `d` of it: against geo's
+    /// Euclidean distance from every cell centre to the polygons (zero inside), for an
+    /// L-shape with a slanted edge and a hole, away from the exact distance `d` by more
+    /// than 1e-9.
+    #[test]
+    fn cells_near_are_those_within_the_distance() {
+        use geo::{Distance, Euclidean};
+        let g = Grid::new(-2.0, -2.0, 8.0, 8.0, 0.05);
+        let l = geo::Polygon::new(
+            geo::LineString::from(vec![(0.0, 0.0), (4.0, 0.0), (4.0, 1.3), (1.7, 2.9), (1.2, 5.0), (0.0, 5.0), (0.0, 0.0)]),
+            vec![geo::LineString::from(vec![(0.5, 0.5), (0.5, 1.0), (1.5, 1.0), (1.5, 0.5), (0.5, 0.5)])],
+        );
+        let region = region_of([l.clone()]);
+        let d = 0.37;
+        let mut got = vec![false; g.nx * g.ny];
+        g.for_cells_near(&region, d, |i| got[i] = true);
+        let mut checked = 0;
+        for (i, &near) in got.iter().enumerate() {
+            let c = geo::Point(g.centre(i));
+            let dist = Euclidean.distance(&c, &l);
+            if (dist - d).abs() > 1e-9 {
+                assert_eq!(near, dist <= d, "cell at {c:?}, distance {dist}");
+                checked += 1;
+            }
+        }
+        assert!(checked > 10_000);
     }
 
     #[test]
