@@ -64,6 +64,8 @@ pub enum Rule {
     Registration,
     /// No room for an alignment mark in a corner of the liquid crystal.
     MarkRoom,
+    /// More pins than the fewest under multiplexing, and what keeps the spare places free.
+    PinCount,
 }
 
 impl Rule {
@@ -86,6 +88,7 @@ impl Rule {
             Rule::DriveMargin => "drive-margin",
             Rule::Registration => "registration",
             Rule::MarkRoom => "mark-room",
+            Rule::PinCount => "pin-count",
         }
     }
 }

@@ -24,6 +24,7 @@
 //! A (COM, SEG) pair is never given twice; the pins are N + the number of lines.
 
 pub mod lines;
+pub mod pin_note;
 pub mod template;
 
 use crate::geom::{circle, Polygon, Pt};

@@ -111,7 +111,8 @@ pub fn build_electrodes(layout: &Layout, elements: &[Element], assignment: &Assi
             elements: elements.iter().zip(&assignment.com).filter(|(_, c)| **c == k as u32).map(|(e, _)| e.name.clone()).collect(),
         })
         .collect();
-    let findings = coverage(elements, assignment, &coms);
+    let mut findings = coverage(elements, assignment, &coms);
+    findings.extend(crate::assign::pin_note::extra_lines_note(layout, elements, assignment));
     Ok(Electrodes { elements: elements.to_vec(), assignment: assignment.clone(), segs, coms, findings })
 }
 

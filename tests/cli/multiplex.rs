@@ -1,7 +1,8 @@
 //! Multiplexed drive through the real CLI: the multiplexed demos route themselves, take
 //! N + ⌈S/N⌉ pins and pass the drive truth check; a bus that makes a common face a SEG
 //! lead in the window fails the check naming the pair; a digit whose junction gap is too
-//! narrow for the back-plate passage is unroutable, naming the common.
+//! narrow for the back-plate passage is unroutable, naming the common; pins above the
+//! fewest are explained in one note.
 
 use std::collections::BTreeSet;
 use std::path::{Path, PathBuf};
@@ -139,4 +140,42 @@ fn a_row_behind_another_is_refused_before_routing() {
     assert!(err.contains("two-rows.yaml:29: error in `digits[0]`: digits `R` lie behind digits `P` (line 39)"), "{err}");
     assert!(!err.contains("unroutable"), "{err}");
     assert!(!out.exists(), "nothing may be written for a refused layout");
+}
+
+/// The pins of a built demo against the fewest, from its report: (`pin_count`,
+/// `pin_count_formula`, the `pin-count` notes' messages).
+fn pins_and_notes(name: &str) -> (u64, u64, Vec<String>) {
+    let dir = tempfile::tempdir().unwrap();
+    let (code, err) = build(&root().join("demo-layouts").join(format!("{name}.yaml")), dir.path());
+    assert_eq!(code, Some(0), "{err}");
+    let text = std::fs::read_to_string(dir.path().join(format!("{name}.report.json"))).unwrap();
+    let r: serde_json::Value = serde_json::from_str(&text).unwrap();
+    let notes = r["findings"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|f| f["rule"] == "pin-count")
+        .map(|f| {
+            assert_eq!(f["severity"], "note");
+            f["message"].as_str().unwrap().to_string()
+        })
+        .collect();
+    (r["drive"]["pin_count"].as_u64().unwrap(), r["drive"]["pin_count_formula"].as_u64().unwrap(), notes)
+}
+
+/// A layout with more pins than N + ⌈S/N⌉ (docs/background.md, *Drive and pin count*)
+/// says so in one `pin-count` note whose figures are the report's own pin count and
+/// formula (counted from the artwork's pins and pixels, apart from the note), naming
+/// the bar graph and the gauge that hold the free places; a layout at the fewest pins
+/// gets no note.
+#[test]
+fn pins_above_the_fewest_are_explained_once() {
+    let (pins, fewest, notes) = pins_and_notes("greenhouse-humidity");
+    assert!(pins > fewest);
+    assert_eq!(notes.len(), 1, "{notes:?}");
+    assert!(notes[0].starts_with(&format!("{pins} pins (")), "{}", notes[0]);
+    assert!(notes[0].contains(&format!(" = {fewest} is the fewest")), "{}", notes[0]);
+    assert!(notes[0].contains("`bars[0]` (LVL, line ") && notes[0].contains("`icons[0]` (BATT, line "), "{}", notes[0]);
+    let (pins, fewest, notes) = pins_and_notes("kiln-controller");
+    assert_eq!((pins, notes.len()), (fewest, 0), "{notes:?}");
 }
