@@ -168,6 +168,12 @@ impl Grid {
     pub fn claim(&mut self, region: &Region, owner: u32) {
         let mut cells = Vec::new();
         self.for_cells_in(region, |i| cells.push(i));
+        self.claim_cells(cells, owner);
+    }
+
+    /// Claims `cells` for `owner`: free ones become its, another owner's become
+    /// `BLOCKED` (claiming a cell twice for one owner changes nothing).
+    fn claim_cells(&mut self, cells: Vec<usize>, owner: u32) {
         for i in cells {
             let o = self.owner.get(i);
             if o == FREE {
@@ -267,14 +273,7 @@ impl Grid {
     pub fn claim_near(&mut self, region: &Region, d: f64, owner: u32) {
         let mut cells = Vec::new();
         self.for_cells_near(region, d, |i| cells.push(i));
-        for i in cells {
-            let o = self.owner.get(i);
-            if o == FREE {
-                self.owner.set(i, owner);
-            } else if o != owner {
-                self.owner.set(i, BLOCKED);
-            }
-        }
+        self.claim_cells(cells, owner);
     }
 
     /// Blocks every cell inside `region`.
