@@ -7,7 +7,8 @@
 //! line has N places, one per common; the free ones are counted by what holds their line:
 //! a bar graph's steps or a gauge's parts (one common for the whole set, one line each),
 //! a seven-segment template (each digit on its own lines), lines fixed by hand, or
-//! nothing that could be moved there.
+//! nothing that could be moved there. The electrode stage adds the note to its findings,
+//! which is how what the stages before routing find reaches the artwork.
 
 use super::Assignment;
 use crate::finding::{Finding, Rule, Severity};
@@ -114,11 +115,9 @@ fn entry(layout: &Layout, key: &str) -> String {
         .map(|g| g.name.clone())
         .or_else(|| layout.icons.iter().find(|i| i.key == key).map(|i| i.name.clone()))
         .or_else(|| layout.bars.iter().find(|b| b.key == key).map(|b| b.name.clone()));
-    let line = crate::layout::key_line(&layout.key_lines, key).map(|l| format!(", line {l}")).unwrap_or_default();
-    match name {
-        Some(nm) => format!("`{key}` ({nm}{line})"),
-        None => format!("`{key}`{}", if line.is_empty() { String::new() } else { format!(" ({})", &line[2..]) }),
-    }
+    let line = crate::layout::key_line(&layout.key_lines, key).map(|l| format!("line {l}"));
+    let said: Vec<String> = name.into_iter().chain(line).collect();
+    if said.is_empty() { format!("`{key}`") } else { format!("`{key}` ({})", said.join(", ")) }
 }
 
 fn describe(layout: &Layout, c: &Cause, free: u32, lines: u32) -> String {

@@ -50,24 +50,11 @@ pub fn shared_pairs(art: &Artwork) -> Vec<(String, String)> {
     uses.into_iter().filter(|&(_, n)| n > 1).map(|((c, s), _)| (c.to_string(), s.to_string())).collect()
 }
 
-/// How far past a pixel's box the polygons near it are cut (mm): far enough that no edge
-/// of the cut lies on an edge of the pixel.
-const CUT_MARGIN: f64 = 0.01;
-
-/// The parts of `r` inside `bbox` grown by `CUT_MARGIN`: its polygons whose boxes meet
-/// `bbox`, each cut to the grown box (`geom::clip_to_rect`). A common spans the glass
-/// with thousands of vertices; inside the box, which holds the whole pixel, the cut
-/// polygons bound exactly what the whole ones do, so a boolean with the pixel gives the
-/// same region at the cost of a few vertices.
+/// The parts of `r` near a pixel whose box is `bbox` (`geom::cut_to_box`): a common
+/// spans the glass with thousands of vertices, and a boolean with all of it for every
+/// pixel costs the whole electrode each time.
 fn near(r: &Region, bbox: &geo::Rect<f64>) -> Region {
-    use geo::{BoundingRect, Intersects};
-    let (lo, hi) = (bbox.min(), bbox.max());
-    let (x0, y0, x1, y1) = (lo.x - CUT_MARGIN, lo.y - CUT_MARGIN, hi.x + CUT_MARGIN, hi.y + CUT_MARGIN);
-    region_of(
-        r.0.iter()
-            .filter(|p| p.bounding_rect().is_some_and(|b| b.intersects(bbox)))
-            .filter_map(|p| geom::clip_to_rect(p, x0, y0, x1, y1)),
-    )
+    geom::cut_to_box(&r.0, bbox)
 }
 
 /// Compares what each (COM, SEG) pair lights with the pixels assigned to it.

@@ -80,21 +80,20 @@ fn row(art: &Artwork, p: &Pixel) -> SegmentRow {
 
 /// Area of the pixel faced by back ITO of its common, over the pixel's area.
 fn coverage(art: &Artwork, p: &Pixel) -> Option<f64> {
-    use geo::{BoundingRect, Intersects};
+    use geo::BoundingRect;
     let whole = crate::geom::area(&p.region);
     let bbox = p.region.bounding_rect()?;
     // Each piece of the common cut down to the pixel's box (grown a little): a common
     // electrode spans the glass, and a boolean with all of it for every pixel costs the
-    // whole electrode each time (geom::clip_to_rect).
-    let m = 0.01;
-    let (x0, y0, x1, y1) = (bbox.min().x - m, bbox.min().y - m, bbox.max().x + m, bbox.max().y + m);
-    let back = art
-        .shapes
-        .iter()
-        .filter(|s| s.layer == crate::artwork::Layer::BackIto && s.net.as_deref() == Some(p.com_net.as_str()))
-        .filter(|s| s.polygon.bounding_rect().is_some_and(|b| b.intersects(&bbox)))
-        .filter_map(|s| crate::geom::clip_to_rect(&s.polygon, x0, y0, x1, y1));
-    let faced = crate::geom::area(&crate::geom::intersection(&p.region, &crate::geom::region_of(back)));
+    // whole electrode each time (geom::cut_to_box).
+    let back = crate::geom::cut_to_box(
+        art.shapes
+            .iter()
+            .filter(|s| s.layer == crate::artwork::Layer::BackIto && s.net.as_deref() == Some(p.com_net.as_str()))
+            .map(|s| &s.polygon),
+        &bbox,
+    );
+    let faced = crate::geom::area(&crate::geom::intersection(&p.region, &back));
     (whole > 0.0).then(|| (faced / whole).min(1.0))
 }
 

@@ -37,6 +37,26 @@ pub fn clip_to_rect(p: &Polygon, x0: f64, y0: f64, x1: f64, y1: f64) -> Option<P
     Some(Polygon::new(closed(outer), holes))
 }
 
+/// How far past a small shape's box larger polygons are cut before a boolean with it
+/// (mm): far enough that no edge of the cut lies on an edge of the small shape.
+pub const CUT_MARGIN: f64 = 0.01;
+
+/// The parts of `polys` that can meet a shape whose box is `bbox`: the polygons whose
+/// boxes meet it, each cut to `bbox` grown by [`CUT_MARGIN`] ([`clip_to_rect`]). Inside
+/// that box they bound exactly what the whole polygons do, so a boolean with the shape
+/// gives the same result at the cost of the vertices near it.
+pub fn cut_to_box<'a>(polys: impl IntoIterator<Item = &'a Polygon>, bbox: &geo::Rect<f64>) -> super::Region {
+    use geo::{BoundingRect, Intersects};
+    let (lo, hi) = (bbox.min(), bbox.max());
+    let (x0, y0, x1, y1) = (lo.x - CUT_MARGIN, lo.y - CUT_MARGIN, hi.x + CUT_MARGIN, hi.y + CUT_MARGIN);
+    super::region_of(
+        polys
+            .into_iter()
+            .filter(|p| p.bounding_rect().is_some_and(|b| b.intersects(bbox)))
+            .filter_map(|p| clip_to_rect(p, x0, y0, x1, y1)),
+    )
+}
+
 fn closed(mut v: Vec<Pt>) -> LineString<f64> {
     v.push(v[0]);
     LineString::from(v)

@@ -3,15 +3,11 @@
 //! A common electrode spans the glass; the area a SEG line's ITO faces of it was the
 //! area of a boolean of the line with the whole back plate, once per line. Here each
 //! pair of polygons whose boxes meet is intersected after the larger of the two has been
-//! cut to the smaller one's box (`clip_to_rect`), so the work follows the size of the
+//! cut to the smaller one's box (`cut_to_box`), so the work follows the size of the
 //! small shapes, not of the glass.
 
-use super::{area, clip_to_rect, intersection, region_of, Polygon, Region};
+use super::{area, cut_to_box, intersection, region_of, Polygon, Region};
 use geo::BoundingRect;
-
-/// How far past the smaller polygon's box the larger one is cut (mm): far enough that
-/// no edge of the cut lies on an edge of the smaller one.
-const MARGIN: f64 = 0.01;
 
 /// The area `a` and `b` share. The polygons of each region must not overlap one another
 /// (as the pieces of a region do); then each shared part is counted once.
@@ -28,9 +24,8 @@ pub fn overlap_area(a: &Region, b: &Region) -> f64 {
                 continue;
             }
             let (small, small_box, large) = if vertices(pa) <= vertices(pb) { (pa, ra, pb) } else { (pb, rb, pa) };
-            let (lo, hi) = (small_box.min(), small_box.max());
-            let Some(cut) = clip_to_rect(large, lo.x - MARGIN, lo.y - MARGIN, hi.x + MARGIN, hi.y + MARGIN) else { continue };
-            total += area(&intersection(&region_of([small.clone()]), &region_of([cut])));
+            let cut = cut_to_box([large], small_box);
+            total += area(&intersection(&region_of([small.clone()]), &cut));
         }
     }
     total
