@@ -81,13 +81,15 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
     // 2. Templates, digit by digit.
     let mut passages = Vec::new();
     let mut digit_slots: Vec<(String, u32, usize)> = Vec::new();
+    let with_points: std::collections::BTreeSet<&str> =
+        elements.iter().filter(|e| e.name.rsplit('.').next() == Some("dp")).filter_map(|e| e.digit.as_deref()).collect();
     for (i, e) in elements.iter().enumerate() {
         if placed[i] || layout.fixed_lines.contains_key(&e.name) {
             continue;
         }
         let (Some(digit), Some(t)) = (&e.digit, seven_template(layout, e)) else { continue };
         let seg = e.name.rsplit('.').next().unwrap_or("");
-        let Some((com, slot)) = t.place(seg) else { continue };
+        let Some((com, slot)) = t.place_for(seg, exit_of(layout), with_points.contains(digit.as_str())) else { continue };
         let l = match digit_slots.iter().find(|(d, s, _)| d == digit && *s == slot) {
             Some(x) => x.2,
             None => {
@@ -185,6 +187,11 @@ fn one_common(layout: &Layout, e: &Element) -> bool {
 fn centre(e: &Element) -> Pt {
     use geo::Centroid;
     e.outline.centroid().map(|p| p.0).unwrap_or_else(|| crate::geom::pt(0.0, 0.0))
+}
+
+/// Which way the digits' leads leave: up when the pads are on the top side.
+fn exit_of(layout: &Layout) -> template::Exit {
+    if layout.pads.side == crate::layout::Side::Top { template::Exit::Up } else { template::Exit::Down }
 }
 
 /// The template of a seven-segment digit element at this duty.

@@ -17,6 +17,9 @@
 //! front leads ([`Template::passages`]). At 1/3 duty the middle common `{e, g, c}` joins
 //! through the lower counter and runs from `e` to `c`. At 1/2 duty the two commons are the
 //! upper and lower halves.
+//!
+//! A row whose leads leave at the top (pads on the top side) takes these mirrored top to
+//! bottom ([`Exit::Up`]), except in a digit with a point, which has no mirror image.
 
 /// One seven-segment assignment: for each segment name, (COM index, SEG slot within the
 /// digit). Slots are numbered 0 … lines-1 inside a digit; the caller numbers them globally.
@@ -106,10 +109,52 @@ pub fn seven_segment(commons: u32) -> Option<&'static Template> {
     }
 }
 
+/// Which way a row of digits sends its leads: the templates are written for leads that
+/// leave at the bottom; a row whose leads leave at the top (pads on the top side) takes
+/// them mirrored top to bottom.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Exit {
+    /// Leads leave the row at the bottom.
+    Down,
+    /// Leads leave the row at the top.
+    Up,
+}
+
+/// The segment in the same place of a digit mirrored top to bottom (`a`↔`d`, `b`↔`c`,
+/// `f`↔`e`; `g` and the point keep their names: the point has no mirror image and
+/// takes the place left over).
+fn mirrored(segment: &str) -> &str {
+    match segment {
+        "a" => "d",
+        "d" => "a",
+        "b" => "c",
+        "c" => "b",
+        "f" => "e",
+        "e" => "f",
+        other => other,
+    }
+}
+
 impl Template {
     /// COM and slot of a segment, if the template places it.
     pub fn place(&self, segment: &str) -> Option<(u32, u32)> {
         self.rows.iter().find(|r| r.0 == segment).map(|r| (r.1, r.2))
+    }
+
+    /// COM and slot of a segment in a row whose leads leave by `exit`, in a digit with
+    /// or without a point.
+    ///
+    /// Leaving at the top, a digit without a point takes the template mirrored top to
+    /// bottom with the commons renumbered from the top again: the place the point would
+    /// take falls on the top common, beside the pads, where legends and icons between
+    /// the digits and the pads can use it. A digit with a point keeps the template as
+    /// written: mirrored, the point would sit on the top common, which cannot reach it.
+    /// Both keep the same commons at the same heights across the gaps between digits.
+    pub fn place_for(&self, segment: &str, exit: Exit, has_point: bool) -> Option<(u32, u32)> {
+        match exit {
+            Exit::Up if !has_point => self.place(mirrored(segment)).map(|(com, slot)| (self.commons - 1 - com, slot)),
+            _ => self.place(segment),
+        }
     }
 }
 
@@ -137,5 +182,30 @@ mod tests {
             }
         }
         assert!(seven_segment(1).is_none());
+    }
+
+    /// Leaving at the top, a digit without a point keeps a valid multiplex, keeps `a` on
+    /// the top common and `d` on the bottom one (so the commons cross the gaps between
+    /// digits at the same heights whichever way a neighbour is placed), and its one free
+    /// place — where the point would go — is on the top common, beside the pads; a digit
+    /// with a point keeps the template as written.
+    #[test]
+    fn digits_leaving_at_the_top_take_the_mirrored_template() {
+        let segments = ["a", "b", "c", "d", "e", "f", "g"];
+        for n in 2..=4 {
+            let t = seven_segment(n).unwrap();
+            let mut used = std::collections::BTreeSet::new();
+            for s in segments {
+                let up = t.place_for(s, Exit::Up, false).unwrap();
+                assert!(up.0 < n && used.insert(up), "{s} at 1/{n}");
+                assert_eq!(t.place_for(s, Exit::Up, true), t.place(s));
+                assert_eq!(t.place_for(s, Exit::Down, false), t.place(s));
+            }
+            assert_eq!(t.place_for("a", Exit::Up, false).unwrap().0, t.place("a").unwrap().0);
+            assert_eq!(t.place_for("d", Exit::Up, false).unwrap().0, t.place("d").unwrap().0);
+            let slots = 8u32.div_ceil(n);
+            let free: Vec<(u32, u32)> = (0..n).flat_map(|c| (0..slots).map(move |k| (c, k))).filter(|p| !used.contains(p)).collect();
+            assert!(!free.is_empty() && free.iter().all(|p| p.0 == 0), "free places at 1/{n}: {free:?}");
+        }
     }
 }

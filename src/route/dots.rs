@@ -5,7 +5,9 @@
 //! With several, the top and bottom commons go right (the top one outermost) and the
 //! commons in between go left (the upper one outermost): a row of digits brings its
 //! middle commons out at its left end one above the other, while the top common comes
-//! down the right side around the bottom one (see `assign::template`).
+//! down the right side around the bottom one (see `assign::template`). With the pads on
+//! top the order is mirrored: the bottom common outermost on the right, the lower middle
+//! one outermost on the left.
 
 use super::side::SideFrame;
 use crate::geom::{pt, Pt};
@@ -42,6 +44,13 @@ pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch
     }
     for (i, &c) in choice.1.iter().enumerate() {
         at[c] = pt(hi + clear + step * i as f64, frame.v_seal);
+    }
+    // With the pads on top every row sends its leads up (`assign::template::Exit::Up`):
+    // the commons leave the row mirrored top to bottom, so the bottom common is the one
+    // that comes round outermost on the right and the lower middle one outermost on the
+    // left.
+    if frame.side == crate::layout::Side::Top {
+        at.reverse();
     }
     Some(at)
 }
