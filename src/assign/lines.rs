@@ -10,13 +10,15 @@ pub struct Line {
     pub members: Vec<(usize, u32)>,
     /// SEG number fixed by hand (0-based), if any.
     pub fixed: Option<u32>,
+    /// In the far tier (`tiers.rs`): only far elements join it.
+    pub far: bool,
     sum: (f64, f64),
 }
 
 impl Line {
     /// An empty line.
     pub fn new(fixed: Option<u32>) -> Line {
-        Line { members: Vec::new(), fixed, sum: (0.0, 0.0) }
+        Line { members: Vec::new(), fixed, far: false, sum: (0.0, 0.0) }
     }
 
     /// True when common `com` has no element on this line yet.

@@ -26,6 +26,7 @@
 pub mod lines;
 pub mod pin_note;
 pub mod template;
+pub mod tiers;
 
 use crate::geom::{circle, Polygon, Pt};
 use crate::glyph::Element;
@@ -44,6 +45,9 @@ pub struct Assignment {
     pub lines: u32,
     /// Places kept free of front-plate leads so back-plate leads can pass.
     pub passages: Vec<Polygon>,
+    /// Per element, whether it is in the far tier (`tiers.rs`), whose leads leave on the
+    /// side opposite the pads.
+    pub far: Vec<bool>,
 }
 
 impl Assignment {
@@ -58,9 +62,10 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
     let n = layout.drive.commons.max(1);
     if n == 1 {
         let k = elements.len();
-        return Ok(Assignment { com: vec![0; k], line: (0..k as u32).collect(), lines: k as u32, passages: Vec::new() });
+        return Ok(Assignment { com: vec![0; k], line: (0..k as u32).collect(), lines: k as u32, passages: Vec::new(), far: vec![false; k] });
     }
     let centres: Vec<Pt> = elements.iter().map(centre).collect();
+    let far = tiers::far_tier(layout, elements);
     let mut lines: Vec<Line> = Vec::new();
     let mut placed = vec![false; elements.len()];
     let mut problems = Vec::new();
@@ -89,11 +94,13 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
         }
         let (Some(digit), Some(t)) = (&e.digit, seven_template(layout, e)) else { continue };
         let seg = e.name.rsplit('.').next().unwrap_or("");
-        let Some((com, slot)) = t.place_for(seg, exit_of(layout), with_points.contains(digit.as_str())) else { continue };
+        let Some((com, slot)) = t.place_for(seg, exit_of(layout, far[i]), with_points.contains(digit.as_str())) else { continue };
+        let com = if far[i] { n - 1 - com } else { com };
         let l = match digit_slots.iter().find(|(d, s, _)| d == digit && *s == slot) {
             Some(x) => x.2,
             None => {
                 lines.push(Line::new(None));
+                lines.last_mut().expect("just pushed").far = far[i];
                 digit_slots.push((digit.clone(), slot, lines.len() - 1));
                 lines.len() - 1
             }
@@ -125,13 +132,15 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
             fixed.com = entry_com.get(e.key.as_str()).map(|c| c + 1);
         }
         if fixed.com.is_none() {
-            fixed.com = colon_dot_common(layout, e).map(|c| c + 1);
+            fixed.com = colon_dot_common(layout, e).map(|c| if far[i] { n - c } else { c + 1 });
         }
-        let want = fixed.com.map(|c| c - 1).unwrap_or_else(|| band(layout, centres[i], n));
+        let height = band(layout, centres[i], n);
+        let want = fixed.com.map(|c| c - 1).unwrap_or(if far[i] { n - 1 - height } else { height });
         let l = match fixed.seg {
             Some(s) => line_numbered(&mut lines, s - 1),
-            None => nearest_line_with_room(&lines, centres[i], fixed.com.map(|c| c - 1), n).unwrap_or_else(|| {
+            None => nearest_line_with_room(&lines, centres[i], fixed.com.map(|c| c - 1), n, far[i]).unwrap_or_else(|| {
                 lines.push(Line::new(None));
+                lines.last_mut().expect("just pushed").far = far[i];
                 lines.len() - 1
             }),
         };
@@ -169,7 +178,7 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
             line[e] = numbers[l];
         }
     }
-    Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages })
+    Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages, far })
 }
 
 /// The common the template gives a colon dot of a seven-segment digit, if any.
@@ -189,9 +198,11 @@ fn centre(e: &Element) -> Pt {
     e.outline.centroid().map(|p| p.0).unwrap_or_else(|| crate::geom::pt(0.0, 0.0))
 }
 
-/// Which way the digits' leads leave: up when the pads are on the top side.
-fn exit_of(layout: &Layout) -> template::Exit {
-    if layout.pads.side == crate::layout::Side::Top { template::Exit::Up } else { template::Exit::Down }
+/// Which way a digit's leads leave: towards the pads, or away from them in the far tier
+/// (`tiers.rs`).
+fn exit_of(layout: &Layout, far: bool) -> template::Exit {
+    let top = layout.pads.side == crate::layout::Side::Top;
+    if top != far { template::Exit::Up } else { template::Exit::Down }
 }
 
 /// The template of a seven-segment digit element at this duty.
@@ -238,12 +249,12 @@ fn line_numbered(lines: &mut Vec<Line>, j: u32) -> usize {
 }
 
 /// The non-empty line nearest to `at` with a free common (`com` if given).
-fn nearest_line_with_room(lines: &[Line], at: Pt, com: Option<u32>, n: u32) -> Option<usize> {
+fn nearest_line_with_room(lines: &[Line], at: Pt, com: Option<u32>, n: u32, far: bool) -> Option<usize> {
     let d2 = |p: Pt| (p.x - at.x).powi(2) + (p.y - at.y).powi(2);
     lines
         .iter()
         .enumerate()
-        .filter(|(_, l)| !l.members.is_empty() && l.fixed.is_none())
+        .filter(|(_, l)| !l.members.is_empty() && l.fixed.is_none() && l.far == far)
         .filter(|(_, l)| match com {
             Some(c) => l.is_free(c),
             None => (0..n).any(|c| l.is_free(c)),

@@ -54,6 +54,9 @@ struct NetRow<'a> {
     plate: &'static str,
     kind: &'static str,
     pin: Option<u32>,
+    /// Every pin of the net, lowest first: a common of the far tier may come out on two
+    /// (its second transfer dot, `route::dots::far_tier_dots`).
+    pins: Vec<u32>,
     area_mm2: f64,
 }
 
@@ -145,6 +148,7 @@ pub fn render_report(art: &Artwork, findings: &[Finding], segments: Vec<SegmentR
                 NetKind::Common => "common",
             },
             pin: art.pins.iter().filter(|p| p.net == n.name).map(|p| p.number).min(),
+            pins: { let mut v: Vec<u32> = art.pins.iter().filter(|p| p.net == n.name).map(|p| p.number).collect(); v.sort_unstable(); v },
             area_mm2: net_area(art, &n.name),
         })
         .collect();

@@ -40,7 +40,8 @@ struct Common {
     islands: Vec<Region>,
     /// Per island, the indices of the elements (pixels) it lies behind, for messages.
     behind: Vec<Vec<usize>>,
-    dot: Option<Polygon>,
+    /// Its transfer dots' pads (the far tier's commons may have two).
+    dots: Vec<Polygon>,
 }
 
 /// An island that could not be joined: its common, the island and what blocked it.
@@ -72,9 +73,9 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
             for b in layout.buses.iter().filter(|b| b.plate == PlateId::Back && b.net == c.net) {
                 islands.push(stroke_polyline(&b.points, b.width, tol));
             }
-            let dot = transfers.iter().find(|t| t.net == c.net).map(|t| t.pad.clone());
+            let dots = transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
             let behind = islands.iter().map(|isl| elements_behind(el, k as u32, isl)).collect();
-            Common { net: c.net.clone(), owner: k as u32 + 1, islands, behind, dot }
+            Common { net: c.net.clone(), owner: k as u32 + 1, islands, behind, dots }
         })
         .collect();
     let base = back_grid(layout, &leads, &commons);
@@ -119,10 +120,12 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
     let mut corridors = Corridors::new(&grid);
     for &k in order {
         let c = &commons[k];
-        let Some(dot) = &c.dot else { continue };
+        let Some(dot) = c.dots.first() else { continue };
         tree.clear();
-        for i in landing_cells(layout, &grid, &region_of([dot.clone()]), |_| true) {
-            tree.add(i);
+        for d in &c.dots {
+            for i in landing_cells(layout, &grid, &region_of([d.clone()]), |_| true) {
+                tree.add(i);
+            }
         }
         let mut ok = true;
         for i in nearest_first(&c.islands, dot) {
@@ -334,7 +337,7 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
             for island in &c.islands {
                 g.claim_near(island, reach, c.owner);
             }
-            if let Some(dot) = &c.dot {
+            for dot in &c.dots {
                 g.claim_near(&region_of([dot.clone()]), reach, c.owner);
             }
         }

@@ -8,15 +8,18 @@
 //! layout refused here could not have routed; a layout that passes may still fail in
 //! the search, with findings that say where.
 //!
-//! 1. *Rows in the way* (multiplexed drive): a row of digits that lies between another
-//!    row and the pad side, their spans along the side overlapping. The far row's SEG
-//!    leads would pass between the near row's digits or around its ends, across the
-//!    commons that leave the near row there, and with the pads on one side those commons
-//!    have no other way out. Measured: two rows (5 digits over 3, 1/4 duty) gave 23 cut-off
-//!    common pieces after a minute of routing, 39 when the far row's leads were steered
-//!    around the near row.
+//! 1. *Rows in the way* (multiplexed drive): with the pads on the top or bottom, the row
+//!    nearest the pads leads down to them and a row behind it leads out on the far side
+//!    and round the seal (`assign::tiers`, `ring.rs`); a third row, behind both, has no
+//!    way out, its leads and the middle row's commons would cross. With the pads on the
+//!    left or right, no row may lie behind another. Measured before the far side was
+//!    used: two rows (5 digits over 3, 1/4 duty) gave 23 cut-off common pieces after a
+//!    minute of routing, 39 when the far row's leads were steered around the near row.
 //! 2. *Room for the transfer dots* beside the pad row in the seal on the pad side, by the
 //!    spacing `dots::place_transfer_dots` uses.
+//! 3. *Room in the ring*: the far tier's SEG lines, half round each end of the glass,
+//!    fit the seal band at the lead pitch (`ring::lanes_that_fit`, what `ring::carry`
+//!    places).
 
 use super::side::SideFrame;
 use crate::electrode::Electrodes;
@@ -29,6 +32,7 @@ use crate::Result;
 pub fn check_capacity(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Result<()> {
     let mut problems = rows_in_the_way(layout, el, frame);
     problems.extend(dot_room(layout, el, frame));
+    problems.extend(ring_room(layout, el));
     if problems.is_empty() { Ok(()) } else { Err(Error::Input(problems)) }
 }
 
@@ -71,33 +75,73 @@ fn rows_in_the_way(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Vec<I
         return Vec::new();
     }
     let rows = rows(layout, el, frame);
+    let behind = |far: &Row, near: &Row| near.key != far.key && near.v.1 < far.v.0 && near.u.0 < far.u.1 && far.u.0 < near.u.1;
+    // Pads on the top or bottom: a second row behind the first leads out on the other
+    // side and round the seal (`assign::tiers`, `ring.rs`); a third has no way out.
+    let tiers = matches!(layout.pads.side, crate::layout::Side::Top | crate::layout::Side::Bottom);
+    let is_far = |r: &Row| rows.iter().any(|n| behind(r, n));
     let mut out = Vec::new();
     for far in &rows {
-        let near = rows.iter().find(|n| n.key != far.key && n.v.1 < far.v.0 && n.u.0 < far.u.1 && far.u.0 < n.u.1);
+        let near = rows.iter().find(|n| behind(far, n) && (!tiers || is_far(n)));
         if let Some(near) = near {
             let line = layout.key_lines.get(&near.key).map(|l| format!(" (line {l})")).unwrap_or_default();
+            let (why, fix) = if tiers {
+                (
+                    format!(
+                        "which lies behind another row itself: the row nearest the pads leads to them and the next one leads out on the far side and round the seal, but the SEG leads of `{}` would have to cross the commons of `{}`",
+                        far.name, near.name
+                    ),
+                    "at most two rows one behind the other as seen from the pads, or rows side by side".to_string(),
+                )
+            } else {
+                (
+                    format!(
+                        "at 1/{} duty the SEG leads of `{}` would have to cross the commons that leave `{}` on their way to the pads, and segmask routes no lead across another row's commons",
+                        el.coms.len(),
+                        far.name,
+                        near.name
+                    ),
+                    "multiplexed rows side by side along the pad side, or the pads on the top or bottom side".to_string(),
+                )
+            };
             out.push(layout.problem(
                 &far.key,
-                format!(
-                    "digits `{}` lie behind digits `{}`{line} as seen from the pads on the {} side: at 1/{} duty the SEG leads of `{}` would have to cross the commons that leave `{}` on their way to the pads, and segmask routes no lead across another row's commons",
-                    far.name,
-                    near.name,
-                    layout.pads.side.name(),
-                    el.coms.len(),
-                    far.name,
-                    near.name
-                ),
-                Some("multiplexed rows side by side along the pad side, or a single row".into()),
+                format!("digits `{}` lie behind digits `{}`{line} as seen from the pads on the {} side, {why}", far.name, near.name, layout.pads.side.name()),
+                Some(fix),
             ));
         }
     }
     out
 }
 
+/// Check 3: the far tier's SEG lines fit the seal band round each end, as
+/// `ring::carry` splits and places them.
+fn ring_room(layout: &Layout, el: &Electrodes) -> Option<InputProblem> {
+    let a = &el.assignment;
+    let far_lines = el.segs.iter().filter(|s| (0..a.line.len()).any(|i| a.line[i] == s.index && a.far.get(i).copied().unwrap_or(false))).count();
+    let lanes = far_lines.div_ceil(2);
+    let room = super::ring::lanes_that_fit(layout);
+    (lanes > room).then(|| {
+        layout.problem(
+            "seal.width",
+            format!(
+                "the digits behind another row as seen from the pads lead {far_lines} SEG lines out on the far side and round the seal, {lanes} round each end, but the seal band holds {room} at lead width {} and gap {}",
+                fmt_mm(layout.rules.lead_width),
+                fmt_mm(layout.rules.min_gap)
+            ),
+            Some(format!(
+                "a seal at least {} wide, a smaller lead width and gap, or fewer lines behind the front row",
+                fmt_mm(layout.seal.width + (lanes - room) as f64 * super::lead_pitch(layout))
+            )),
+        )
+    })
+}
+
 /// Check 2: the transfer dots fit in the seal beside the pad row, spaced as
 /// `dots::place_transfer_dots` spaces them, whatever the row's position.
 fn dot_room(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Option<InputProblem> {
-    let commons = el.coms.len();
+    let any_far = el.assignment.far.iter().any(|f| *f);
+    let commons = el.coms.len() + super::dots::far_tier_dots(el.coms.len(), any_far).len();
     if commons == 0 {
         return None;
     }
@@ -179,23 +223,46 @@ mod tests {
         assert!(p[0].message.contains("4 transfer dot(s)") && p[0].message.contains("short"), "{}", p[0].message);
     }
 
-    /// Two multiplexed rows, one behind the other as seen from the bottom pads, are
-    /// refused at the far row's key with both rows named; side by side (the lower row
-    /// moved right of the upper one, pads spanning both) they pass.
+    /// The two-row demo passes; with a seal of 0.5 mm, whose band holds two lanes at its
+    /// lead pitch, the far row's 6 SEG lines (3 round each end) are refused at
+    /// `seal.width` with the width that would do.
     #[test]
-    fn a_row_behind_another_is_refused_and_side_by_side_passes() {
-        let text = include_str!("../../tests/fixtures/capacity/two-rows.yaml");
-        let p = problems(&layout(text, "two-rows.yaml"));
+    fn a_far_row_with_more_lines_than_the_seal_holds_is_refused() {
+        let text = include_str!("../../demo-layouts/cold-store-monitor.yaml");
+        let mut l = layout(text, "cold-store-monitor.yaml");
+        assert!(problems(&l).is_empty(), "{:?}", problems(&l));
+        l.seal.width = 0.5;
+        assert_eq!(super::super::ring::lanes_that_fit(&l), 2);
+        let p = problems(&l);
+        assert_eq!(p.len(), 1, "{p:?}");
+        assert_eq!(p[0].key, "seal.width");
+        assert!(p[0].message.contains("6 SEG lines out on the far side and round the seal, 3 round each end, but the seal band holds 2"), "{}", p[0].message);
+    }
+
+    /// Three multiplexed rows, one behind another as seen from the bottom pads, are
+    /// refused at the farthest row's key with the row in its way named; without the
+    /// middle row the far row leads out on the far side and passes. With the pads on the
+    /// left, one row behind another is refused at once.
+    #[test]
+    fn a_third_row_behind_two_is_refused_and_two_rows_pass() {
+        let text = include_str!("../../tests/fixtures/capacity/three-rows.yaml");
+        // (The two far rows' lines would not fit round the seal either: `seal.width`.)
+        let p: Vec<InputProblem> = problems(&layout(text, "three-rows.yaml")).into_iter().filter(|p| p.key.starts_with("digits")).collect();
         assert_eq!(p.len(), 1, "{p:?}");
         assert_eq!(p[0].key, "digits[0]");
         assert!(p[0].line.is_some());
-        assert!(p[0].message.contains("`R` lie behind digits `P` (line 39)"), "{}", p[0].message);
-        let mut apart = layout(text, "two-rows.yaml");
-        apart.digits[1].origin.x = apart.digits[0].origin.x + 5.0 * apart.digits[0].pitch;
-        apart.digits[1].origin.y = apart.digits[0].origin.y;
-        apart.glass.front.width += 20.0;
-        apart.glass.back.width += 20.0;
-        apart.window.width += 20.0;
-        assert!(problems(&apart).is_empty(), "{:?}", problems(&apart));
+        assert!(p[0].message.contains("`R` lie behind digits `E` (line 48)"), "{}", p[0].message);
+        // Without the middle row, the far row leads out on the far side.
+        let mut two = layout(text, "three-rows.yaml");
+        two.digits.remove(2);
+        assert!(problems(&two).is_empty(), "{:?}", problems(&two));
+        // With the pads on the left, `E` moved beside `P` lies behind it; the far tier
+        // exists only for pads on the top or bottom.
+        let mut left = layout(text, "three-rows.yaml");
+        left.pads.side = crate::layout::Side::Left;
+        left.digits[2].origin = crate::geom::pt(50.0, 14.0);
+        let p = problems(&left);
+        assert_eq!(p.len(), 1, "{p:?}");
+        assert!(p[0].message.contains("`E` lie behind digits `P` (line 39) as seen from the pads on the left side"), "{}", p[0].message);
     }
 }

@@ -13,46 +13,70 @@ use super::side::SideFrame;
 use crate::geom::{pt, Pt};
 use crate::layout::Layout;
 
-/// Local (u, v) centre of each common's dot, in common order; `None` when they do not
-/// fit in the seal on the pad side. `us` are the `u` of every lead arrival and pad.
-pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch: f64, commons: usize) -> Option<Vec<Pt>> {
+/// Local (u, v) centre of each common's dot, in common order, then of each extra dot in
+/// `extra` order; `None` when they do not fit in the seal on the pad side. `us` are the
+/// `u` of every lead arrival and pad that comes straight from the window; `reach` is how
+/// far the ring's lanes (`ring.rs`) come in from each end of the side, which the dots
+/// keep a pitch clear of. `extra` are second dots for commons of the far tier, each
+/// `(common, at the low-u end)`, placed outermost (see [`far_tier_dots`]).
+pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch: f64, commons: usize, reach: (f64, f64), extra: &[(usize, bool)]) -> Option<Vec<Pt>> {
     let tpad = layout.transfer.pad;
     let (lo, hi) = us.iter().fold((f64::MAX, f64::MIN), |(a, b), u| (a.min(*u), b.max(*u)));
     let clear = tpad / 2.0 + pitch + layout.pads.width / 2.0;
-    let min_u = frame.u_back.0 + layout.seal.inset + tpad / 2.0;
-    let max_u = frame.u_back.1 - layout.seal.inset - tpad / 2.0;
+    let min_u = (frame.u_back.0 + layout.seal.inset).max(reach.0 + pitch) + tpad / 2.0;
+    let max_u = (frame.u_back.1 - layout.seal.inset).min(reach.1 - pitch) - tpad / 2.0;
     let step = tpad + pitch;
-    // Each side's commons, innermost first.
-    let (left, right): (Vec<usize>, Vec<usize>) = if commons == 1 {
+    // With the pads on top every row sends its leads up (`assign::template::Exit::Up`):
+    // the commons leave the row mirrored top to bottom, so the bottom common is the one
+    // that comes round outermost on the right and the lower middle one outermost on the
+    // left.
+    let top = frame.side == crate::layout::Side::Top;
+    let mirror = |c: usize| if top { commons - 1 - c } else { c };
+    // Each side's dots, innermost first.
+    let (mut left, mut right): (Vec<usize>, Vec<usize>) = if commons == 1 {
         (vec![0], vec![])
     } else {
-        let right = vec![commons - 1, 0];
-        (((1..commons - 1).rev()).collect(), right)
+        let right = vec![mirror(commons - 1), mirror(0)];
+        (((1..commons - 1).rev()).map(mirror).collect(), right)
     };
+    for (j, &(_, low)) in extra.iter().enumerate() {
+        if low { left.push(commons + j) } else { right.push(commons + j) }
+    }
     let fits = |left: &[usize], right: &[usize]| {
         let l_ok = left.is_empty() || lo - clear - step * (left.len() - 1) as f64 >= min_u;
         let r_ok = right.is_empty() || hi + clear + step * (right.len() - 1) as f64 <= max_u;
         l_ok && r_ok
     };
-    let all: Vec<usize> = (0..commons).rev().collect();
+    let all: Vec<usize> = (0..commons).rev().map(mirror).chain(commons..commons + extra.len()).collect();
     let choice = [(left, right), (all.clone(), vec![]), (vec![], all)]
     .into_iter()
     .find(|(l, r)| fits(l, r))?;
-    let mut at = vec![pt(0.0, 0.0); commons];
+    let mut at = vec![pt(0.0, 0.0); commons + extra.len()];
     for (i, &c) in choice.0.iter().enumerate() {
         at[c] = pt(lo - clear - step * i as f64, frame.v_seal);
     }
     for (i, &c) in choice.1.iter().enumerate() {
         at[c] = pt(hi + clear + step * i as f64, frame.v_seal);
     }
-    // With the pads on top every row sends its leads up (`assign::template::Exit::Up`):
-    // the commons leave the row mirrored top to bottom, so the bottom common is the one
-    // that comes round outermost on the right and the lower middle one outermost on the
-    // left.
-    if frame.side == crate::layout::Side::Top {
-        at.reverse();
-    }
     Some(at)
+}
+
+/// The commons of the far tier that take a second transfer dot of their own, as
+/// `(common, at the low-u end)`, when some elements are in the far tier.
+///
+/// The far tier's commons are numbered from the near tier outwards
+/// (`assign::tiers`): its first common meets the near tier's across the space between
+/// the rows, and its second (at four or more commons) comes down the low end beside the
+/// near tier's middle commons and joins them where they leave the near row. The rest —
+/// the far row's upper middle common and the one along its outer edge, which runs in
+/// the seal band on the far side — cannot join their near halves without crossing the
+/// near tier's commons on their way to the dots, so they come round the seal band to a
+/// dot of their own, outermost among the dots: each of them is on two pins.
+pub fn far_tier_dots(commons: usize, any_far: bool) -> Vec<(usize, bool)> {
+    if !any_far || commons < 2 {
+        return Vec::new();
+    }
+    (2..commons).chain((commons == 2).then_some(1)).map(|k| (k, k + 1 < commons)).collect()
 }
 
 /// How far the dots and a pad row of centre span `span` overrun the room for them, by
@@ -86,11 +110,11 @@ mod tests {
         let layout = crate::layout::fixture::tiny_layout();
         let frame = SideFrame::of(&layout);
         let us = [12.0, 18.0];
-        let at = place_transfer_dots(&layout, &frame, &us, 0.3, 4).unwrap();
+        let at = place_transfer_dots(&layout, &frame, &us, 0.3, 4, frame.u_back, &[]).unwrap();
         assert!(at[0].x > at[3].x && at[3].x > 18.0);
         assert!(at[1].x < at[2].x && at[2].x < 12.0);
         assert!((at[0].x - at[3].x - (layout.transfer.pad + 0.3)).abs() < 1e-9);
-        let one = place_transfer_dots(&layout, &frame, &us, 0.3, 1).unwrap();
+        let one = place_transfer_dots(&layout, &frame, &us, 0.3, 1, frame.u_back, &[]).unwrap();
         assert!(one[0].x < 12.0);
     }
 
@@ -111,12 +135,12 @@ mod tests {
                 let (first_min, last_max) = (edge, frame.side_length() - edge - span);
                 let placed = (0..=400).any(|i| {
                     let lo = first_min + (last_max - first_min) * i as f64 / 400.0;
-                    place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons).is_some()
+                    place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons, frame.u_back, &[]).is_some()
                 }) || [first_min, last_max]
                     .into_iter()
                     .chain(tight_starts(&layout, &frame, commons))
                     .filter(|lo| (first_min..=last_max).contains(lo))
-                    .any(|lo| place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons).is_some());
+                    .any(|lo| place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons, frame.u_back, &[]).is_some());
                 assert_eq!(placed, fits, "{commons} commons, span {span}");
             }
         }

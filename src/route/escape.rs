@@ -32,17 +32,25 @@ pub struct Escapes {
     pub arrivals: Vec<(String, Vec<Pt>)>,
     /// Paths joining the pieces of multi-piece nets.
     pub joins: Vec<(String, Vec<Pt>)>,
+    /// Per far-tier net, the path from its pieces to the seal band on the side opposite
+    /// the pads (last point in that band); `ring.rs` carries it on to the pad side.
+    pub far_arrivals: Vec<(String, Vec<Pt>)>,
 }
 
 struct NetPieces {
     name: String,
     pieces: Vec<Polygon>,
+    /// In the far tier: leaves on the side opposite the pads (`assign::tiers`).
+    far: bool,
 }
 
-/// Routes every SEG net to the seal band; nets that cannot be routed become findings.
-pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings: &mut Vec<Finding>) -> Escapes {
+/// Routes every SEG net to the seal band — the far tier's (`assign::tiers`) to the band
+/// on the side opposite the pads, `far_frame` — ; nets that cannot be routed become
+/// findings.
+pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, far_frame: &SideFrame, findings: &mut Vec<Finding>) -> Escapes {
     let nets = collect_pieces(layout, el);
-    let mut base = base_grid(layout, frame, &nets);
+    let frames = Frames { near: frame, far: far_frame };
+    let mut base = base_grid(layout, &frames, &nets);
     let filled = crate::geom::region_of(
         el.coms.iter().flat_map(|c| c.outline.0.iter()).map(|p| Polygon::new(p.exterior().clone(), vec![])),
     );
@@ -51,25 +59,39 @@ pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, findings:
     base.block(&crate::geom::region_of(el.assignment.passages.iter().cloned()));
     base.compact();
     let mut order: Vec<usize> = (0..nets.len()).collect();
-    order.sort_by(|&a, &b| nearest_v(frame, &nets[a]).total_cmp(&nearest_v(frame, &nets[b])));
+    order.sort_by(|&a, &b| nearest_v(frames.of(&nets[a]), &nets[a]).total_cmp(&nearest_v(frames.of(&nets[b]), &nets[b])));
     let mut search = Search::new(&base);
     let (esc, notes) = super::retry::rip_up_and_retry(order, ATTEMPTS, |order| {
-        attempt(layout, frame, &nets, order, base.clone(), &mut search)
+        attempt(layout, &frames, &nets, order, base.clone(), &mut search)
     })
     .unwrap_or_default();
     findings.extend(notes);
     esc
 }
 
+/// The frames of the two sides a lead may leave by.
+struct Frames<'a> {
+    near: &'a SideFrame,
+    far: &'a SideFrame,
+}
+
+impl Frames<'_> {
+    fn of(&self, n: &NetPieces) -> &SideFrame {
+        if n.far { self.far } else { self.near }
+    }
+}
+
 fn collect_pieces(layout: &Layout, el: &Electrodes) -> Vec<NetPieces> {
+    let a = &el.assignment;
     el.segs
         .iter()
         .map(|s| {
+            let far = (0..a.line.len()).any(|i| a.line[i] == s.index && a.far.get(i).copied().unwrap_or(false));
             let mut pieces = s.outline.0.clone();
             for b in layout.buses.iter().filter(|b| b.plate == PlateId::Front && b.net == s.net) {
                 pieces.extend(stroke_polyline(&b.points, b.width, layout.tolerance).0);
             }
-            NetPieces { name: s.net.clone(), pieces: nearest_chain(pieces) }
+            NetPieces { name: s.net.clone(), pieces: nearest_chain(pieces), far }
         })
         .collect()
 }
@@ -108,15 +130,19 @@ fn keepout(layout: &Layout, h: f64) -> f64 {
     layout.rules.min_gap + layout.rules.lead_width / 2.0 + h
 }
 
-fn base_grid(layout: &Layout, frame: &SideFrame, nets: &[NetPieces]) -> Grid {
+fn base_grid(layout: &Layout, frames: &Frames, nets: &[NetPieces]) -> Grid {
     let f = layout.glass.front;
     let h = super::grid_step(layout);
     let mut g = Grid::new(f.x, f.y, f.x1(), f.y1(), h);
     let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
     let margin = layout.rules.lead_width / 2.0 + h;
-    let strip = frame.rect_global(frame.u_lc.0 + margin, frame.v_lc - 3.0 * h, frame.u_lc.1 - margin, frame.v_lc + margin + h);
+    let strip = |frame: &SideFrame| frame.rect_global(frame.u_lc.0 + margin, frame.v_lc - 3.0 * h, frame.u_lc.1 - margin, frame.v_lc + margin + h);
     let inner = lc.inset(margin);
-    g.block_outside(&crate::geom::union_all([inner.polygon(), strip]));
+    let mut open = vec![inner.polygon(), strip(frames.near)];
+    if nets.iter().any(|n| n.far) {
+        open.push(strip(frames.far));
+    }
+    g.block_outside(&crate::geom::union_all(open));
     let k = keepout(layout, h);
     for (i, n) in nets.iter().enumerate() {
         // Piece by piece: a bus stroke may overlap a segment, and the spans are even-odd.
@@ -133,7 +159,7 @@ fn base_grid(layout: &Layout, frame: &SideFrame, nets: &[NetPieces]) -> Grid {
 
 type AttemptResult = (Escapes, Vec<usize>, Vec<Finding>);
 
-fn attempt(layout: &Layout, frame: &SideFrame, nets: &[NetPieces], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
+fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
     let mut esc = Escapes::default();
     let mut failed = Vec::new();
     let mut notes = Vec::new();
@@ -181,12 +207,13 @@ fn attempt(layout: &Layout, frame: &SideFrame, nets: &[NetPieces], order: &[usiz
             failed.push(i);
             continue;
         }
+        let frame = frames.of(n);
         let goal = SealBand { frame, grid: &grid, v_goal: frame.v_lc };
         match find_guided(search, &mut corridors, &grid, owner, &tree, &goal) {
             Ok(path) => {
                 let pts = corners(&grid, &path);
                 claim_lead(&mut grid, layout, &pts, owner, k);
-                esc.arrivals.push((n.name.clone(), pts));
+                if n.far { esc.far_arrivals.push((n.name.clone(), pts)) } else { esc.arrivals.push((n.name.clone(), pts)) }
             }
             Err(b) => {
                 failed.push(i);

@@ -24,6 +24,7 @@ pub mod fanout;
 pub mod grid;
 pub mod pages;
 pub mod retry;
+pub mod ring;
 pub mod search;
 pub mod side;
 pub mod target;
@@ -104,16 +105,75 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let frame = SideFrame::of(layout);
     capacity::check_capacity(layout, el, &frame)?;
     let mut findings = Vec::new();
-    let escapes = escape::escape_all(layout, el, &frame, &mut findings);
+    let far_frame = SideFrame::opposite(layout);
+    let mut escapes = escape::escape_all(layout, el, &frame, &far_frame, &mut findings);
+    let carried = ring::carry(layout, &frame, &escapes.far_arrivals).map_err(|r| {
+        crate::Error::input(layout.problem(
+            "seal.width",
+            format!(
+                "the digits behind another row lead {} SEG lines round each end of the glass in the seal band, which holds {} at this lead width and gap",
+                r.lanes, r.room
+            ),
+            Some("a wider seal, a smaller lead width and gap, or fewer lines behind the front row".into()),
+        ))
+    })?;
+    let extra = dots::far_tier_dots(el.coms.len(), !escapes.far_arrivals.is_empty());
+    let near = Near { count: escapes.arrivals.len(), reach: carried.reach, extra: &extra };
+    escapes.arrivals.extend(carried.arrivals);
     let mut leads: Vec<Lead> = user_buses(layout);
-    let (pads, transfers, fan) = plan_pads_and_fanout(layout, el, &frame, &escapes, &mut findings)?;
+    let (pads, transfers, fan) = plan_pads_and_fanout(layout, el, &frame, &escapes, near, &mut findings)?;
     for (net, path) in escapes.joins.iter().chain(fan.iter()) {
         leads.push(front_lead(layout, net, path.clone()));
+    }
+    if let Some(note) = second_pins_note(layout, el, &extra, &transfers) {
+        findings.push(note);
     }
     let front_leads: Vec<&Lead> = leads.iter().filter(|l| l.plate == PlateId::Front).collect();
     let back = back::route_commons(layout, el, &front_leads, &transfers, &mut findings);
     leads.extend(back.leads);
     Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings })
+}
+
+/// The note saying which commons come out on a second pin ([`dots::far_tier_dots`]) and
+/// why, at the second dot of the first of them.
+fn second_pins_note(layout: &Layout, el: &Electrodes, extra: &[(usize, bool)], transfers: &[TransferSite]) -> Option<Finding> {
+    let first = extra.first()?;
+    let nets: Vec<String> = extra.iter().map(|(c, _)| el.coms[*c].net.clone()).collect();
+    let at = transfers.iter().filter(|t| t.net == nets[0]).nth(1).or_else(|| transfers.iter().find(|t| t.net == el.coms[first.0].net))?.at;
+    let n = el.coms.len();
+    let s = el.elements.len();
+    let segs = el.segs.len();
+    Some(Finding {
+        rule: Rule::PinCount,
+        severity: Severity::Note,
+        plate: None,
+        nets: nets.clone(),
+        location: at,
+        measured: None,
+        required: None,
+        message: format!(
+            "{} pins ({} COM + {segs} SEG) where {n} + ⌈{s}/{n}⌉ = {} is the fewest for {s} elements at 1/{n} duty: {} of the row behind the front row as seen from the pads, {}, reach a transfer dot of their own round the seal, so each comes out on a second pin; join each pair on the board the glass plugs into",
+            n + extra.len() + segs,
+            n + extra.len(),
+            n + s.div_ceil(n),
+            nets.join(" and "),
+            far_rows(layout, el),
+        ),
+    })
+}
+
+/// The digit groups of the far tier, as the layout names them with their lines.
+fn far_rows(layout: &Layout, el: &Electrodes) -> String {
+    let mut keys: Vec<&str> = el.elements.iter().zip(&el.assignment.far).filter(|(e, f)| **f && e.digit.is_some()).map(|(e, _)| e.key.as_str()).collect();
+    keys.dedup();
+    keys.iter()
+        .map(|k| {
+            let name = layout.digits.iter().find(|g| g.key == *k).map(|g| g.name.as_str()).unwrap_or("");
+            let line = layout.key_lines.get(*k).map(|l| format!(", line {l}")).unwrap_or_default();
+            format!("`{k}` ({name}{line})")
+        })
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
@@ -151,6 +211,16 @@ fn check_buses(layout: &Layout, el: &Electrodes) -> Result<()> {
         }
     }
     if problems.is_empty() { Ok(()) } else { Err(crate::Error::Input(problems)) }
+}
+
+/// Which arrivals come straight from the near tier (the first `count`; the rest come
+/// round the ring) and how far the ring's lanes reach in from each end of the side.
+#[derive(Debug, Clone, Copy)]
+struct Near<'a> {
+    count: usize,
+    reach: (f64, f64),
+    /// Second dots of far-tier commons ([`dots::far_tier_dots`]).
+    extra: &'a [(usize, bool)],
 }
 
 /// How the fan-out below the liquid crystal is laid out: the highest level and the pitch
@@ -204,12 +274,12 @@ fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize, arrivals: &[fanout
 /// The deepest level the fan-out from `arrivals` plus the transfer dots placed beside them
 /// needs onto a row of `n` pads from `first` at `pitch` (`usize::MAX` when the dots do not
 /// fit).
-fn fan_levels(layout: &Layout, frame: &SideFrame, arrivals: &[fanout::Arrival], commons: usize, first: f64, n: usize, fan: FanLevels) -> usize {
+fn fan_levels(layout: &Layout, frame: &SideFrame, arrivals: &[fanout::Arrival], near: Near<'_>, commons: usize, first: f64, n: usize, fan: FanLevels) -> usize {
     let pitch = layout.pads.pitch;
     let pads: Vec<f64> = (0..n).map(|i| first + i as f64 * pitch).collect();
     let mut arrivals = arrivals.to_vec();
-    let us: Vec<f64> = arrivals.iter().map(|a| a.u).chain(pads.iter().copied()).collect();
-    let Some(dots) = dots::place_transfer_dots(layout, frame, &us, fan.pitch, commons) else { return usize::MAX };
+    let us: Vec<f64> = arrivals[..near.count].iter().map(|a| a.u).chain(pads.iter().copied()).collect();
+    let Some(dots) = dots::place_transfer_dots(layout, frame, &us, fan.pitch, commons, near.reach, near.extra) else { return usize::MAX };
     arrivals.extend(dots.iter().map(|d| fanout::Arrival { u: d.x, v: d.y }));
     arrivals.sort_by(|a, b| a.u.total_cmp(&b.u));
     let us: Vec<f64> = arrivals.iter().map(|a| a.u).collect();
@@ -225,24 +295,24 @@ fn plan_pads_and_fanout(
     el: &Electrodes,
     frame: &SideFrame,
     escapes: &escape::Escapes,
+    near: Near<'_>,
     findings: &mut Vec<Finding>,
 ) -> Result<Planned> {
     let p = &layout.pads;
-    let nets_needed = el.segs.len() + el.coms.len();
+    let nets_needed = el.segs.len() + el.coms.len() + near.extra.len();
     let pitch = lead_pitch(layout);
     // With several transfer dots side by side in the seal, horizontal runs stay below the
     // seal band so that no lead passes under another common's dot.
     let v_top = if el.coms.len() > 1 { frame.v_lc - layout.seal.width - pitch } else { frame.v_lc - pitch };
-    let mut seg_arrivals: Vec<fanout::Arrival> = escapes
+    let seg_arrivals: Vec<fanout::Arrival> = escapes
         .arrivals
         .iter()
         .filter_map(|(_, path)| path.last())
         .map(|q| frame.to_local(*q))
         .map(|q| fanout::Arrival { u: q.x, v: q.y })
         .collect();
-    seg_arrivals.sort_by(|a, b| a.u.total_cmp(&b.u));
     let fan = FanLevels { v_top, pitch };
-    let row = pad_row(layout, frame, nets_needed, &seg_arrivals, |first, n| fan_levels(layout, frame, &seg_arrivals, el.coms.len(), first, n, fan));
+    let row = pad_row(layout, frame, nets_needed, &seg_arrivals, |first, n| fan_levels(layout, frame, &seg_arrivals, near, el.coms.len(), first, n, fan));
     // Arrivals in local (u, v) with their nets; the common's arrival is its transfer dot.
     let mut arrivals: Vec<(String, Vec<Pt>, fanout::Arrival)> = escapes
         .arrivals
@@ -253,8 +323,8 @@ fn plan_pads_and_fanout(
         })
         .collect();
     let tpad = layout.transfer.pad;
-    let us: Vec<f64> = arrivals.iter().map(|a| a.2.u).chain(row.iter().map(|r| r.0)).collect();
-    let dots = dots::place_transfer_dots(layout, frame, &us, pitch, el.coms.len()).ok_or_else(|| {
+    let us: Vec<f64> = arrivals[..near.count].iter().map(|a| a.2.u).chain(row.iter().map(|r| r.0)).collect();
+    let dots = dots::place_transfer_dots(layout, frame, &us, pitch, el.coms.len(), near.reach, near.extra).ok_or_else(|| {
         crate::Error::input(layout.problem(
             "pads",
             format!("no room in the seal beside the pad row for the {} transfer dot(s) of the common electrodes", el.coms.len()),
@@ -262,7 +332,9 @@ fn plan_pads_and_fanout(
         ))
     })?;
     let mut transfers = Vec::new();
-    for (c, dot) in el.coms.iter().zip(dots) {
+    let common_of = |i: usize| if i < el.coms.len() { &el.coms[i] } else { &el.coms[near.extra[i - el.coms.len()].0] };
+    for (i, dot) in dots.into_iter().enumerate() {
+        let c = common_of(i);
         let dot_at = frame.to_global(dot);
         let band = frame.rect_global(dot.x - tpad / 2.0, frame.v_lc - layout.seal.width, dot.x + tpad / 2.0, frame.v_lc);
         let square = frame.rect_global(dot.x - tpad / 2.0, dot.y - tpad / 2.0, dot.x + tpad / 2.0, dot.y + tpad / 2.0);

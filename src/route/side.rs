@@ -22,21 +22,40 @@ pub struct SideFrame {
     pub u_lc: (f64, f64),
     /// `u` range of the back glass along this side.
     pub u_back: (f64, f64),
+    /// `v` of the back glass edge on the opposite side.
+    pub v_back_far: f64,
 }
 
 impl SideFrame {
     /// The frame of the layout's pad side.
     pub fn of(layout: &Layout) -> SideFrame {
-        let side = layout.pads.side;
+        SideFrame::of_side(layout, layout.pads.side)
+    }
+
+    /// The frame of the side opposite the pads, where the far tier's leads leave
+    /// (`assign::tiers`).
+    pub fn opposite(layout: &Layout) -> SideFrame {
+        let side = match layout.pads.side {
+            Side::Bottom => Side::Top,
+            Side::Top => Side::Bottom,
+            Side::Left => Side::Right,
+            Side::Right => Side::Left,
+        };
+        SideFrame::of_side(layout, side)
+    }
+
+    /// The frame of one side of the glass.
+    pub fn of_side(layout: &Layout, side: Side) -> SideFrame {
         let f = layout.glass.front;
         let b = layout.glass.back;
-        let mut frame = SideFrame { side, front: (f.width, f.height), v_back: 0.0, v_lc: 0.0, v_seal: 0.0, u_lc: (0.0, 0.0), u_back: (0.0, 0.0) };
+        let mut frame = SideFrame { side, front: (f.width, f.height), v_back: 0.0, v_lc: 0.0, v_seal: 0.0, u_lc: (0.0, 0.0), u_back: (0.0, 0.0), v_back_far: 0.0 };
         let (lo, hi) = frame.rect_local(&b);
         frame.v_back = lo.y;
         let s = &layout.seal;
         frame.v_seal = lo.y + s.inset + s.width / 2.0;
         frame.v_lc = lo.y + s.inset + s.width;
         frame.u_back = (lo.x, hi.x);
+        frame.v_back_far = hi.y;
         frame.u_lc = (lo.x + s.inset + s.width, hi.x - s.inset - s.width);
         frame
     }
@@ -93,7 +112,7 @@ mod tests {
     #[test]
     fn round_trip_every_side() {
         for side in [Side::Bottom, Side::Top, Side::Left, Side::Right] {
-            let f = SideFrame { side, front: (60.0, 40.0), v_back: 0.0, v_lc: 0.0, v_seal: 0.0, u_lc: (0.0, 0.0), u_back: (0.0, 0.0) };
+            let f = SideFrame { side, front: (60.0, 40.0), v_back: 0.0, v_lc: 0.0, v_seal: 0.0, u_lc: (0.0, 0.0), u_back: (0.0, 0.0), v_back_far: 0.0 };
             let p = pt(12.5, 7.25);
             let q = f.to_global(f.to_local(p));
             assert!((p.x - q.x).abs() < 1e-12 && (p.y - q.y).abs() < 1e-12, "{side:?}");

@@ -29,6 +29,11 @@ fn rows(path: &Path) -> Vec<Vec<String>> {
 /// drive truth clean (exit 0: no errors, no warnings counted as errors). Gives the folder
 /// the outputs are in.
 fn assert_multiplexed_demo(name: &str, commons: usize) -> tempfile::TempDir {
+    assert_multiplexed_demo_with(name, commons, 0)
+}
+
+/// As [`assert_multiplexed_demo`], with `twice` commons out on a second pin each.
+fn assert_multiplexed_demo_with(name: &str, commons: usize, twice: usize) -> tempfile::TempDir {
     let dir = tempfile::tempdir().unwrap();
     let (code, err) = build(&root().join("demo-layouts").join(format!("{name}.yaml")), dir.path());
     assert_eq!(code, Some(0), "{err}");
@@ -36,7 +41,9 @@ fn assert_multiplexed_demo(name: &str, commons: usize) -> tempfile::TempDir {
     let segmap = rows(&dir.path().join(format!("{name}.segmap.csv")));
     let pins = rows(&dir.path().join(format!("{name}.pins.csv")));
     let s = segmap.len();
-    assert_eq!(pins.len(), commons + s.div_ceil(commons), "{name}: {} pins for {s} elements", pins.len());
+    assert_eq!(pins.len(), commons + s.div_ceil(commons) + twice, "{name}: {} pins for {s} elements", pins.len());
+    let com_pins = pins.iter().filter(|p| p[3] == "COM").count();
+    assert_eq!(com_pins, commons + twice, "{name}: pins of the commons");
     let mut pairs = BTreeSet::new();
     for r in &segmap {
         // element, drives, com, com_net, com_pin, seg, seg_net, seg_pin, …
@@ -46,6 +53,17 @@ fn assert_multiplexed_demo(name: &str, commons: usize) -> tempfile::TempDir {
     let coms: BTreeSet<&str> = segmap.iter().map(|r| r[3].as_str()).collect();
     assert_eq!(coms.len(), commons, "{name}: every common drives something");
     dir
+}
+
+/// Two rows with the pads on one side (large digits with points below, small digits and
+/// legends above): the SEG lines stay at ⌈S/N⌉ and the drive truth holds; the upper row's
+/// two outer commons come out on a second pin each (their own transfer dots).
+#[test]
+fn two_rows_with_the_pads_on_one_side_route_themselves() {
+    let dir = assert_multiplexed_demo_with("cold-store-monitor", 4, 2);
+    let pins = rows(&dir.path().join("cold-store-monitor.pins.csv"));
+    let twice: BTreeSet<&str> = pins.iter().filter(|p| pins.iter().filter(|q| q[1] == p[1]).count() == 2).map(|p| p[1].as_str()).collect();
+    assert_eq!(twice, BTreeSet::from(["COM3", "COM4"]));
 }
 
 #[test]
@@ -127,17 +145,18 @@ fn a_junction_too_narrow_for_the_back_lead_is_unroutable_naming_the_net() {
     assert!(!err.contains("error[open]"), "{err}");
 }
 
-/// Two multiplexed rows, one behind the other as seen from the pads, are refused by the
-/// capacity check before any search: exit 2 (an input problem), the far row's entry
-/// located by line and key, both rows named, and no output folder made. Before the
-/// check this layout routed for about a minute and ended with 23 cut-off common pieces.
+/// Three multiplexed rows, one behind another as seen from the pads, are refused by the
+/// capacity check before any search: exit 2 (an input problem), the farthest row's entry
+/// located by line and key, the row in its way named, and no output folder made. (Two
+/// rows like these, before the far row led out on the far side, routed for about a
+/// minute and ended with 23 cut-off common pieces.)
 #[test]
-fn a_row_behind_another_is_refused_before_routing() {
+fn a_third_row_behind_two_is_refused_before_routing() {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("out");
-    let (code, err) = build(&root().join("tests/fixtures/capacity/two-rows.yaml"), &out);
+    let (code, err) = build(&root().join("tests/fixtures/capacity/three-rows.yaml"), &out);
     assert_eq!(code, Some(2), "{err}");
-    assert!(err.contains("two-rows.yaml:29: error in `digits[0]`: digits `R` lie behind digits `P` (line 39)"), "{err}");
+    assert!(err.contains("three-rows.yaml:30: error in `digits[0]`: digits `R` lie behind digits `E` (line 48)"), "{err}");
     assert!(!err.contains("unroutable"), "{err}");
     assert!(!out.exists(), "nothing may be written for a refused layout");
 }
