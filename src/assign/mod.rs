@@ -10,10 +10,11 @@
 //! 2. seven-segment digits take their template (`template.rs`), one set of SEG lines per
 //!    digit, so each line's segments lie together and both plates can be routed;
 //! 3. every other element (legends, icons, colon dots, other digit styles, elements fixed
-//!    in one number only) takes a free common on the nearest line that has one (a colon
-//!    dot the common its digit's template names for it, if any); when no line
-//!    has room it opens a new line, on the common of its height in the window (top band →
-//!    COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉
+//!    in one number only) takes a free common on the nearest line that has one and a
+//!    member within one and a half digit heights, so that no front join crosses the
+//!    glass (a colon dot the common its digit's template names for it, if any); when no
+//!    line has room it opens a new line, on the common of its height in the window (top
+//!    band → COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉
 //!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
 //!    places free to others. The steps of a bar graph and the parts of a gauge all take
 //!    the common the first of them took, each on its own line: side by side in a row (or nested in a shell), neighbours on different
@@ -138,7 +139,9 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
         let want = fixed.com.map(|c| c - 1).unwrap_or(if far[i] { n - 1 - height } else { height });
         let l = match fixed.seg {
             Some(s) => line_numbered(&mut lines, s - 1),
-            None => nearest_line_with_room(&lines, centres[i], fixed.com.map(|c| c - 1), n, far[i]).unwrap_or_else(|| {
+            None => nearest_line_with_room(&lines, centres[i], fixed.com.map(|c| c - 1), n, far[i])
+                .filter(|&l| within_reach(layout, &lines[l], &centres, centres[i]))
+                .unwrap_or_else(|| {
                 lines.push(Line::new(None));
                 lines.last_mut().expect("just pushed").far = far[i];
                 lines.len() - 1
@@ -249,6 +252,20 @@ fn line_numbered(lines: &mut Vec<Line>, j: u32) -> usize {
 }
 
 /// The non-empty line nearest to `at` with a free common (`com` if given).
+/// Whether an element at `at` may join `line`: some member lies within one and a half
+/// digit heights (the tallest digit group; 10 mm without digits). A line whose members
+/// are all farther away would be joined on the front plate by a lead across whatever
+/// lies between — across a digit, it cuts that digit's commons (two legends at either
+/// end of a row once shared a line that way and cut four commons off).
+fn within_reach(layout: &Layout, line: &Line, centres: &[Pt], at: Pt) -> bool {
+    let reach = 1.5 * layout.digits.iter().map(|g| g.height).fold(f64::NAN, f64::max);
+    let reach = if reach.is_nan() { 10.0 } else { reach };
+    line.members.iter().any(|&(e, _)| {
+        let c = centres[e];
+        (c.x - at.x).hypot(c.y - at.y) <= reach
+    })
+}
+
 fn nearest_line_with_room(lines: &[Line], at: Pt, com: Option<u32>, n: u32, far: bool) -> Option<usize> {
     let d2 = |p: Pt| (p.x - at.x).powi(2) + (p.y - at.y).powi(2);
     lines

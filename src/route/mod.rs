@@ -9,8 +9,12 @@
 //! 1. *escape* (`escape.rs`): each SEG net's pieces are joined and led to the seal band on
 //!    the pad side by maze search on a grid (search.rs), keeping the minimum gap to
 //!    everything already placed, with rip-up and retry in a new order when a net is stuck;
+//!    the nets of a row behind another as seen from the pads (`assign::tiers`) go to the
+//!    seal band on the far side instead, and `ring.rs` carries them round the seal to the
+//!    pad side;
 //! 2. *fan-out* (`fanout.rs`): leads are given pads in the order they arrive and drawn to
-//!    them as a planar, orthogonal fan-out in the seal band and on the ledge;
+//!    them as a planar, orthogonal fan-out in the seal band and on the ledge, the transfer
+//!    dots (`dots.rs`) among them;
 //! 3. *back plate* (`back.rs`): the common electrode is cut clear of the front leads and
 //!    its islands are joined and led to the transfer dot without crossing front leads in
 //!    the window.
