@@ -56,6 +56,11 @@ impl Assignment {
     pub fn on_line(&self, j: u32) -> impl Iterator<Item = usize> + '_ {
         self.line.iter().enumerate().filter(move |(_, l)| **l == j).map(|(i, _)| i)
     }
+
+    /// Whether SEG line `j` belongs to the far tier (`tiers.rs`).
+    pub fn far_line(&self, j: u32) -> bool {
+        self.on_line(j).any(|i| self.far.get(i).copied().unwrap_or(false))
+    }
 }
 
 /// Assigns every element a common and a SEG line.

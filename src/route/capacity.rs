@@ -118,7 +118,7 @@ fn rows_in_the_way(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Vec<I
 /// `ring::carry` splits and places them.
 fn ring_room(layout: &Layout, el: &Electrodes) -> Option<InputProblem> {
     let a = &el.assignment;
-    let far_lines = el.segs.iter().filter(|s| (0..a.line.len()).any(|i| a.line[i] == s.index && a.far.get(i).copied().unwrap_or(false))).count();
+    let far_lines = el.segs.iter().filter(|s| a.far_line(s.index)).count();
     let lanes = far_lines.div_ceil(2);
     let room = super::ring::lanes_that_fit(layout);
     (lanes > room).then(|| {

@@ -86,7 +86,7 @@ fn collect_pieces(layout: &Layout, el: &Electrodes) -> Vec<NetPieces> {
     el.segs
         .iter()
         .map(|s| {
-            let far = (0..a.line.len()).any(|i| a.line[i] == s.index && a.far.get(i).copied().unwrap_or(false));
+            let far = a.far_line(s.index);
             let mut pieces = s.outline.0.clone();
             for b in layout.buses.iter().filter(|b| b.plate == PlateId::Front && b.net == s.net) {
                 pieces.extend(stroke_polyline(&b.points, b.width, layout.tolerance).0);

@@ -121,7 +121,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
             Some("a wider seal, a smaller lead width and gap, or fewer lines behind the front row".into()),
         ))
     })?;
-    let extra = dots::far_tier_dots(el.coms.len(), !escapes.far_arrivals.is_empty());
+    let extra = dots::far_tier_dots(el.coms.len(), el.assignment.far.iter().any(|f| *f));
     let near = Near { count: escapes.arrivals.len(), reach: carried.reach, extra: &extra };
     escapes.arrivals.extend(carried.arrivals);
     let mut leads: Vec<Lead> = user_buses(layout);
