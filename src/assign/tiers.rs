@@ -13,7 +13,6 @@
 //! Only pads on the top or bottom side have tiers; on the left or right every element is
 //! in the near tier.
 
-use crate::geom::Pt;
 use crate::glyph::Element;
 use crate::layout::{Layout, Side};
 
@@ -48,14 +47,9 @@ pub fn far_tier(layout: &Layout, elements: &[Element]) -> Vec<bool> {
         .iter()
         .map(|e| match e.digit {
             Some(_) => far.iter().any(|f| f.0 == e.key),
-            None => away * centre(e).y >= edge,
+            None => away * super::centre(e).y >= edge,
         })
         .collect()
-}
-
-fn centre(e: &Element) -> Pt {
-    use geo::Centroid;
-    e.outline.centroid().map(|p| p.0).unwrap_or_else(|| crate::geom::pt(0.0, 0.0))
 }
 
 #[cfg(test)]
