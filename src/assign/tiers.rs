@@ -65,17 +65,19 @@ mod tests {
         elements.iter().zip(far).filter(|(_, f)| *f).map(|(e, _)| e.name.clone()).collect()
     }
 
-    /// In the two-row demo (small digits `S` and a legend above large digits `T`, pads
-    /// at the bottom) the upper row and its legend are the far tier and the lower row's
-    /// legend is not; with the pads on top the lower row is; on the left nothing is.
+    /// In the two-row demo (large digits `T` with points and a legend above small digits
+    /// `S`, pads at the bottom) the upper row and its legend are the far tier and the
+    /// lower row's legend is not; with the pads on top the lower row is; on the left
+    /// nothing is.
     #[test]
     fn the_row_behind_another_is_the_far_tier() {
         let text = include_str!("../../demo-layouts/cold-store-monitor.yaml");
         let bottom = far_names(text, Side::Bottom);
-        assert_eq!(bottom.len(), 3 * 7 + 1, "{bottom:?}");
-        assert!(bottom.iter().all(|n| n.starts_with("S") || n == "SET"), "{bottom:?}");
+        assert_eq!(bottom.len(), 5 * 7 + 4 + 1, "{bottom:?}");
+        assert!(bottom.iter().any(|n| n == "T1.dp") && bottom.iter().all(|n| n.starts_with('T') || n == "DEG"), "{bottom:?}");
         let top = far_names(text, Side::Top);
-        assert!(top.iter().any(|n| n == "T1.dp") && top.iter().all(|n| n.starts_with('T') || n == "DEG"), "{top:?}");
+        assert_eq!(top.len(), 3 * 7 + 1, "{top:?}");
+        assert!(top.iter().all(|n| n.starts_with('S') || n == "SET"), "{top:?}");
         assert!(far_names(text, Side::Left).is_empty());
     }
 }

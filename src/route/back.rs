@@ -6,12 +6,14 @@
 //! liquid crystal and free under or outside the seal. A lead of one common keeps the gap
 //! from every other common's electrode and leads (facing another common's pixels would
 //! switch them with the wrong SEG line); the overlap margins give way to the passages
-//! the assignment keeps for back leads. Commons are routed one after another, islands
-//! nearest the dot first, with rip-up and a new order when one is stuck.
+//! the assignment keeps for back leads. Commons are routed one after another, each
+//! growing its tree from its dots to the island nearest by the way a lead takes (Prim's
+//! order), with rip-up and a new order when one is stuck.
 
 use super::grid::Grid;
 use super::search::{corners, Search};
 use super::corridor::{find_guided, Corridors};
+use super::pending::Pending;
 use super::target::Targets;
 use super::{Lead, TransferSite};
 use crate::electrode::Electrodes;
@@ -122,13 +124,21 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         let c = &commons[k];
         let Some(dot) = c.dots.first() else { continue };
         tree.clear();
+        let mut seeds = Vec::new();
         for d in &c.dots {
             for i in landing_cells(layout, &grid, &region_of([d.clone()]), |_| true) {
                 tree.add(i);
+                seeds.push(i);
             }
         }
+        // A common's own claims leave what it may use as it was.
+        corridors.keep_factors_for(c.owner);
+        let mut grow = Growth { seeds, tree: &mut tree, seed_tiles: Default::default() };
+        let left = grow_tree(layout, &mut grid, search, &mut corridors, c, &mut grow, &mut out);
         let mut ok = true;
-        for i in nearest_first(&c.islands, dot) {
+        // What the growth could not reach is asked for from its own side, nearest the dot
+        // first, so that each cut-off part reports what blocks it.
+        for i in nearest_first(&c.islands, dot).into_iter().filter(|i| left.contains(i)) {
             match join(layout, &mut grid, search, &mut corridors, c, &mut tree, &c.islands[i]) {
                 Ok(Some(lead)) => out.push(lead),
                 Ok(None) => {}
@@ -140,11 +150,58 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
                 }
             }
         }
+        corridors.forget();
         if !ok {
             failed.push(k);
         }
     }
     ((out, stuck_islands), failed, notes)
+}
+
+/// A common's tree while it grows: the cells a search for the next island starts from
+/// (the dots' landing cells, then one cell per corridor tile of each lead and island
+/// joined: the common's own ITO and leads, which the search may cross, join the rest)
+/// and the tree as the fallback joins see it.
+struct Growth<'a> {
+    seeds: Vec<usize>,
+    tree: &'a mut Targets,
+    /// Corridor tiles that hold a seed already.
+    seed_tiles: std::collections::HashSet<usize>,
+}
+
+/// Grows a common's tree from its dots (Prim's order by the lead's true cost): each search
+/// runs from the whole tree to the nearest island not yet joined, so the islands join in
+/// the order the ways between them allow. Joining the island nearest the dot in a straight
+/// line first (as before) joined the second digit of a row ahead of the first: its lead
+/// went round the first digit through the seal band and shut in the first digit's other
+/// common. Returns the islands it could not reach.
+fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut Corridors, c: &Common, g: &mut Growth, out: &mut Vec<Lead>) -> Vec<usize> {
+    let ends: Vec<Vec<usize>> = c
+        .islands
+        .iter()
+        .map(|isl| landing_cells(layout, grid, isl, |i| grid.owner(i) == c.owner || grid.owner(i) == super::grid::FREE))
+        .collect();
+    let mut pending = Pending::new(grid, &ends);
+    while pending.any() {
+        let Ok(path) = find_guided(search, corridors, grid, c.owner, &g.seeds, &pending) else { break };
+        let Some(k) = path.last().and_then(|&e| pending.island_at(e)) else { break };
+        pending.join(k);
+        let tiles = corridors.tiles();
+        for &i in path.iter().chain(&ends[k]) {
+            g.tree.add(i);
+            if g.seed_tiles.insert(tiles.tile_index(i)) {
+                g.seeds.push(i);
+            }
+        }
+        let pts = corners(grid, &path);
+        if pts.len() >= 2 {
+            let outline = stroke_lead(&pts, layout.rules.lead_width, layout.tolerance);
+            let h = grid.h;
+            grid.claim_near(&outline, layout.rules.min_gap + layout.rules.lead_width / 2.0 + h, c.owner);
+            out.push(Lead { net: c.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false });
+        }
+    }
+    pending.waiting()
 }
 
 /// The elements of common `k` whose pixels the island lies behind.

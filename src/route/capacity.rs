@@ -224,7 +224,7 @@ mod tests {
     }
 
     /// The two-row demo passes; with a seal of 0.5 mm, whose band holds two lanes at its
-    /// lead pitch, the far row's 6 SEG lines (3 round each end) are refused at
+    /// lead pitch, the far row's 10 SEG lines (5 round each end) are refused at
     /// `seal.width` with the width that would do.
     #[test]
     fn a_far_row_with_more_lines_than_the_seal_holds_is_refused() {
@@ -236,7 +236,7 @@ mod tests {
         let p = problems(&l);
         assert_eq!(p.len(), 1, "{p:?}");
         assert_eq!(p[0].key, "seal.width");
-        assert!(p[0].message.contains("6 SEG lines out on the far side and round the seal, 3 round each end, but the seal band holds 2"), "{}", p[0].message);
+        assert!(p[0].message.contains("10 SEG lines out on the far side and round the seal, 5 round each end, but the seal band holds 2"), "{}", p[0].message);
     }
 
     /// Three multiplexed rows, one behind another as seen from the bottom pads, are

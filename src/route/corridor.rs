@@ -85,6 +85,13 @@ pub struct Corridors {
     factor: Vec<f32>,
     parent: Vec<u32>,
     mask: Vec<u32>,
+    /// Tile factors kept across searches for one owner while the grid does not change
+    /// for it (a common joining its own islands: its own claims leave every tile's usable
+    /// cells as they were): (owner, stamp of the keeping), and per tile the stamp it was
+    /// worked out under and the factor.
+    kept: Option<(u32, u32)>,
+    kept_factor: Vec<(u32, f32)>,
+    keepings: u32,
 }
 
 
@@ -105,6 +112,9 @@ impl Corridors {
             factor: vec![0.0; n],
             parent: vec![0; n],
             mask: vec![0; n],
+            kept: None,
+            kept_factor: Vec::new(),
+            keepings: 0,
         }
     }
 
@@ -117,9 +127,36 @@ impl Corridors {
         self.tiles.tile_index(c)
     }
 
+    /// From now until [`Corridors::forget`], the caller promises that the cells `owner`
+    /// may use and their costs stay as they are, so each tile's factor is worked out once.
+    pub fn keep_factors_for(&mut self, owner: u32) {
+        self.keepings = self.keepings.wrapping_add(1).max(1);
+        if self.kept_factor.is_empty() {
+            self.kept_factor = vec![(0, 0.0); self.ntx * self.nty];
+        }
+        self.kept = Some((owner, self.keepings));
+    }
+
+    /// Ends [`Corridors::keep_factors_for`].
+    pub fn forget(&mut self) {
+        self.kept = None;
+    }
+
+    fn tile_factor(&mut self, grid: &Grid, owner: u32, t: usize) -> f32 {
+        match self.kept {
+            Some((o, k)) if o == owner => {
+                if self.kept_factor[t].0 != k {
+                    self.kept_factor[t] = (k, self.work_out_factor(grid, owner, t));
+                }
+                self.kept_factor[t].1
+            }
+            _ => self.work_out_factor(grid, owner, t),
+        }
+    }
+
     /// Mean step factor (1 + extra cost) over the cells of tile `t` that `owner` may use,
     /// or infinity when it may use none.
-    fn tile_factor(&self, grid: &Grid, owner: u32, t: usize) -> f32 {
+    fn work_out_factor(&self, grid: &Grid, owner: u32, t: usize) -> f32 {
         let (tx, ty) = (t % self.ntx, t / self.ntx);
         let (x0, y0) = (tx * TILE, ty * TILE);
         let (x1, y1) = ((x0 + TILE).min(grid.nx), (y0 + TILE).min(grid.ny));

@@ -27,6 +27,7 @@ pub mod escape;
 pub mod fanout;
 pub mod grid;
 pub mod pages;
+pub mod pending;
 pub mod retry;
 pub mod ring;
 pub mod search;

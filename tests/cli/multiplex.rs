@@ -55,9 +55,9 @@ fn assert_multiplexed_demo_with(name: &str, commons: usize, twice: usize) -> tem
     dir
 }
 
-/// Two rows with the pads on one side (large digits with points below, small digits and
-/// legends above): the SEG lines stay at ⌈S/N⌉ and the drive truth holds; the upper row's
-/// two outer commons come out on a second pin each (their own transfer dots).
+/// Two rows with the pads on one side (large digits with points and a legend above, small
+/// digits and a legend below): the SEG lines stay at ⌈S/N⌉ and the drive truth holds; the
+/// upper row's two outer commons come out on a second pin each (their own transfer dots).
 #[test]
 fn two_rows_with_the_pads_on_one_side_route_themselves() {
     let dir = assert_multiplexed_demo_with("cold-store-monitor", 4, 2);

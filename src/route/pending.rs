@@ -1,0 +1,186 @@
+//! The goal of a common's growing tree: the islands not joined yet.
+//!
+//! A common's tree grows from its dots by searches that start from the whole tree and
+//! end on any island still waiting (Prim's order by the lead's true cost). Rebuilding a
+//! set of goal cells after every join cost time quadratic in the islands of a row; here
+//! each landing cell is marked once with its island, a join only flips the island's flag,
+//! and the A* bound is the distance to the nearest waiting island's bounding box in an
+//! R-tree the join removes it from (every landing cell lies in its box, so the bound never
+//! overestimates; Hart, Nilsson & Raphael, 1968).
+
+use super::corridor::{Goal, TILE, TileGeom};
+use super::grid::Grid;
+use super::pages::{PageGeom, Scratch};
+use rstar::primitives::{GeomWithData, Rectangle};
+use rstar::{PointDistance, RTree};
+use std::cell::RefCell;
+use std::collections::HashMap;
+
+type Boxed = GeomWithData<Rectangle<[f64; 2]>, usize>;
+
+/// The islands of one common still to join, as a search goal.
+pub struct Pending {
+    nx: usize,
+    island_of: Scratch<u32>,
+    waiting: Vec<bool>,
+    boxes: Vec<Option<Boxed>>,
+    by_tile: HashMap<(usize, usize), Vec<usize>>,
+    index: RTree<Boxed>,
+    /// Per tile: (joins made when it was computed, distance from the tile's centre to the
+    /// nearest waiting box), so that one R-tree query serves a whole tile.
+    memo: RefCell<Vec<(u32, f32)>>,
+    ntx: usize,
+    joins: u32,
+}
+
+impl Pending {
+    /// The islands given by their landing cells (an island without any is never waited
+    /// for).
+    pub fn new(grid: &Grid, ends: &[Vec<usize>]) -> Pending {
+        let nx = grid.nx;
+        let mut island_of = Scratch::new(PageGeom::of(grid.nx, grid.ny), u32::MAX);
+        island_of.next_search();
+        let mut by_tile: HashMap<(usize, usize), Vec<usize>> = HashMap::new();
+        let mut boxes = Vec::with_capacity(ends.len());
+        for (k, cells) in ends.iter().enumerate() {
+            let (mut x0, mut y0, mut x1, mut y1) = (usize::MAX, usize::MAX, 0, 0);
+            for &c in cells {
+                let (x, y) = (c % nx, c / nx);
+                // Over the page budget the cell is left out: the search then ends on the
+                // island's other cells.
+                let _ = island_of.set(x, y, k as u32);
+                let tiles = by_tile.entry((x / TILE, y / TILE)).or_default();
+                if tiles.last() != Some(&k) {
+                    tiles.push(k);
+                }
+                (x0, y0, x1, y1) = (x0.min(x), y0.min(y), x1.max(x), y1.max(y));
+            }
+            boxes.push((!cells.is_empty()).then(|| {
+                GeomWithData::new(
+                    Rectangle::from_corners([x0 as f64, y0 as f64], [x1 as f64, y1 as f64]),
+                    k,
+                )
+            }));
+        }
+        let index = RTree::bulk_load(boxes.iter().flatten().cloned().collect());
+        let waiting = boxes.iter().map(Option::is_some).collect();
+        let tiles = TileGeom::of(grid);
+        let memo = RefCell::new(vec![(u32::MAX, 0.0); tiles.ntx * tiles.nty]);
+        Pending {
+            nx,
+            island_of,
+            waiting,
+            boxes,
+            by_tile,
+            index,
+            memo,
+            ntx: tiles.ntx,
+            joins: 0,
+        }
+    }
+
+    /// Whether any island is still waiting.
+    pub fn any(&self) -> bool {
+        self.index.size() > 0
+    }
+
+    /// The islands still waiting.
+    pub fn waiting(&self) -> Vec<usize> {
+        (0..self.waiting.len())
+            .filter(|&k| self.waiting[k])
+            .collect()
+    }
+
+    /// The waiting island cell `c` lands on, if any.
+    pub fn island_at(&self, c: usize) -> Option<usize> {
+        let k = self.island_of.get(c % self.nx, c / self.nx)? as usize;
+        (k < self.waiting.len() && self.waiting[k]).then_some(k)
+    }
+
+    /// Marks island `k` joined: searches no longer end on it.
+    pub fn join(&mut self, k: usize) {
+        if std::mem::take(&mut self.waiting[k]) {
+            if let Some(b) = &self.boxes[k] {
+                self.index.remove(b);
+            }
+            self.joins += 1;
+        }
+    }
+}
+
+impl Goal for Pending {
+    fn is_goal(&self, c: usize) -> bool {
+        self.island_at(c).is_some()
+    }
+    fn is_goal_tile(&self, tiles: &TileGeom, t: usize) -> bool {
+        self.by_tile
+            .get(&tiles.column_row(t))
+            .is_some_and(|ks| ks.iter().any(|&k| self.waiting[k]))
+    }
+    /// The distance from `c`'s tile centre to the nearest waiting box, less half the
+    /// tile's diagonal: never more than the distance from `c` to a waiting landing cell.
+    fn bound(&self, c: usize) -> f32 {
+        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
+        let t = ty * self.ntx + tx;
+        let mut memo = self.memo.borrow_mut();
+        if memo[t].0 != self.joins {
+            let half = (TILE - 1) as f64 / 2.0;
+            let p = [(tx * TILE) as f64 + half, (ty * TILE) as f64 + half];
+            let d = self
+                .index
+                .nearest_neighbor(&p)
+                .map(|b| b.distance_2(&p).sqrt() as f32)
+                .unwrap_or(0.0);
+            memo[t] = (self.joins, d);
+        }
+        let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
+        (memo[t].1 - half_diagonal).max(0.0)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::{pt, rect, region_of};
+
+    fn cells(g: &Grid, x0: f64, y0: f64, x1: f64, y1: f64) -> Vec<usize> {
+        let mut v = Vec::new();
+        g.for_cells_in(&region_of([rect(x0, y0, x1, y1)]), |i| v.push(i));
+        v
+    }
+
+    /// A joined island is no goal any more and no longer draws the bound; the bound never
+    /// exceeds the straight distance to a waiting island's cell.
+    #[test]
+    fn joining_an_island_takes_it_out_of_the_goal() {
+        let g = Grid::new(0.0, 0.0, 10.0, 10.0, 0.1);
+        let ends = vec![
+            cells(&g, 1.0, 1.0, 2.0, 2.0),
+            cells(&g, 7.0, 7.0, 8.0, 8.0),
+            Vec::new(),
+        ];
+        let mut p = Pending::new(&g, &ends);
+        let a = g.index_of(pt(1.5, 1.5)).unwrap();
+        let b = g.index_of(pt(7.5, 7.5)).unwrap();
+        let near_a = g.index_of(pt(2.5, 1.5)).unwrap();
+        assert_eq!(p.island_at(a), Some(0));
+        assert_eq!(
+            p.waiting(),
+            vec![0, 1],
+            "an island without landing cells is never waited for"
+        );
+        assert!(
+            p.bound(near_a) <= 5.0 + 1e-3,
+            "bound {} within the 5 cells to island 0",
+            p.bound(near_a)
+        );
+        assert!(p.bound(b) == 0.0);
+        p.join(0);
+        assert_eq!(p.island_at(a), None);
+        assert!(p.is_goal(b));
+        // Now the nearest waiting island is 1, about 50 cells away in x and y.
+        assert!(p.bound(near_a) > 35.0, "bound {}", p.bound(near_a));
+        p.join(1);
+        assert!(!p.any());
+    }
+}
