@@ -7,11 +7,17 @@ use crate::finding::Finding;
 pub type Attempt<T> = (T, Vec<usize>, Vec<Finding>);
 
 /// Runs `attempt` up to `rounds` times starting from `order`, moving the stuck nets to the
-/// front each time; returns the result with the fewest findings (the first on ties), or
-/// `None` when `rounds` is 0.
+/// front each time, and stops early when that gives an order already tried (the same
+/// order routes the same way again); returns the result with the fewest findings (the
+/// first on ties), or `None` when `rounds` is 0.
 pub fn rip_up_and_retry<T>(mut order: Vec<usize>, rounds: usize, mut attempt: impl FnMut(&[usize]) -> Attempt<T>) -> Option<(T, Vec<Finding>)> {
     let mut best: Option<(T, Vec<Finding>)> = None;
+    let mut tried: Vec<Vec<usize>> = Vec::new();
     for _ in 0..rounds {
+        if tried.contains(&order) {
+            break;
+        }
+        tried.push(order.clone());
         let (result, failed, notes) = attempt(&order);
         if best.as_ref().is_none_or(|(_, f)| notes.len() < f.len()) {
             best = Some((result, notes));
@@ -55,5 +61,29 @@ mod tests {
         });
         assert_eq!(orders, [vec![0, 1, 2], vec![2, 0, 1]]);
         assert_eq!(r.unwrap().0, vec![2, 0, 1]);
+    }
+
+    /// Two nets that each get stuck when the other goes first send the order back and
+    /// forth: the third round would repeat the first, so it is not run.
+    #[test]
+    fn an_order_already_tried_is_not_run_again() {
+        let mut orders = Vec::new();
+        let stuck = |n: usize| Finding {
+            rule: crate::finding::Rule::Unroutable,
+            severity: crate::finding::Severity::Error,
+            plate: None,
+            nets: vec![format!("N{n}")],
+            location: crate::geom::pt(0.0, 0.0),
+            measured: None,
+            required: None,
+            message: "stuck".into(),
+        };
+        let r = rip_up_and_retry(vec![0, 1], 5, |order| {
+            orders.push(order.to_vec());
+            let last = order[1];
+            (order.to_vec(), vec![last], vec![stuck(last)])
+        });
+        assert_eq!(orders, [vec![0, 1], vec![1, 0]]);
+        assert_eq!(r.unwrap().0, vec![0, 1], "the first of equal results is kept");
     }
 }
