@@ -10,10 +10,10 @@
 
 use super::corridor::{Goal, TILE, TileGeom};
 use super::grid::Grid;
+use super::target::TileBound;
 use super::pages::{PageGeom, Scratch};
 use rstar::primitives::{GeomWithData, Rectangle};
 use rstar::{PointDistance, RTree};
-use std::cell::RefCell;
 use std::collections::HashMap;
 
 type Boxed = GeomWithData<Rectangle<[f64; 2]>, usize>;
@@ -26,10 +26,8 @@ pub struct Pending {
     boxes: Vec<Option<Boxed>>,
     by_tile: HashMap<(usize, usize), Vec<usize>>,
     index: RTree<Boxed>,
-    /// Per tile: (joins made when it was computed, distance from the tile's centre to the
-    /// nearest waiting box), so that one R-tree query serves a whole tile.
-    memo: RefCell<Vec<(u32, f32)>>,
-    ntx: usize,
+    /// Distances to the nearest waiting box, one R-tree query per tile and join.
+    bound: TileBound,
     joins: u32,
 }
 
@@ -64,8 +62,6 @@ impl Pending {
         }
         let index = RTree::bulk_load(boxes.iter().flatten().cloned().collect());
         let waiting = boxes.iter().map(Option::is_some).collect();
-        let tiles = TileGeom::of(grid);
-        let memo = RefCell::new(vec![(u32::MAX, 0.0); tiles.ntx * tiles.nty]);
         Pending {
             nx,
             island_of,
@@ -73,8 +69,7 @@ impl Pending {
             boxes,
             by_tile,
             index,
-            memo,
-            ntx: tiles.ntx,
+            bound: TileBound::new(grid),
             joins: 0,
         }
     }
@@ -120,21 +115,7 @@ impl Goal for Pending {
     /// The distance from `c`'s tile centre to the nearest waiting box, less half the
     /// tile's diagonal: never more than the distance from `c` to a waiting landing cell.
     fn bound(&self, c: usize) -> f32 {
-        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
-        let t = ty * self.ntx + tx;
-        let mut memo = self.memo.borrow_mut();
-        if memo[t].0 != self.joins {
-            let half = (TILE - 1) as f64 / 2.0;
-            let p = [(tx * TILE) as f64 + half, (ty * TILE) as f64 + half];
-            let d = self
-                .index
-                .nearest_neighbor(&p)
-                .map(|b| b.distance_2(&p).sqrt() as f32)
-                .unwrap_or(0.0);
-            memo[t] = (self.joins, d);
-        }
-        let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
-        (memo[t].1 - half_diagonal).max(0.0)
+        self.bound.at(c, self.joins + 1, |p| self.index.nearest_neighbor(&p).map(|b| b.distance_2(&p).sqrt() as f32).unwrap_or(0.0))
     }
 }
 

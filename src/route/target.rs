@@ -24,13 +24,48 @@ use std::collections::HashSet;
 
 use super::corridor::{Goal, TileGeom, TILE};
 
+/// A lower bound on the distance from a cell to a goal, worked out once per tile: the
+/// distance from the centre of the cell's tile to the nearest goal shape, less half the
+/// tile's diagonal, remembered until the goal changes (its version).
+pub struct TileBound {
+    nx: usize,
+    ntx: usize,
+    /// Per tile: (version it was worked out for, distance from its centre).
+    memo: RefCell<Vec<(u32, f32)>>,
+}
+
+impl TileBound {
+    /// Bounds for the cells of `grid`.
+    pub fn new(grid: &Grid) -> TileBound {
+        let tiles = TileGeom::of(grid);
+        TileBound { nx: grid.nx, ntx: tiles.ntx, memo: RefCell::new(vec![(0, 0.0); tiles.ntx * tiles.nty]) }
+    }
+
+    /// Forgets every tile's distance (before versions start over).
+    pub fn forget(&self) {
+        self.memo.borrow_mut().iter_mut().for_each(|m| m.0 = 0);
+    }
+
+    /// The bound at cell `c` for goal version `version` (never 0), with `nearest` giving
+    /// the distance in cells from a point (cell coordinates) to the nearest goal shape.
+    pub fn at(&self, c: usize, version: u32, nearest: impl Fn([f64; 2]) -> f32) -> f32 {
+        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
+        let t = ty * self.ntx + tx;
+        let mut memo = self.memo.borrow_mut();
+        if memo[t].0 != version {
+            let half = (TILE - 1) as f64 / 2.0;
+            memo[t] = (version, nearest([(tx * TILE) as f64 + half, (ty * TILE) as f64 + half]));
+        }
+        let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
+        (memo[t].1 - half_diagonal).max(0.0)
+    }
+}
+
 /// The cells joined to one net so far.
 pub struct Targets {
     nx: usize,
-    ntx: usize,
-    /// Per tile: (version of the set it was computed for, distance from the tile's centre
-    /// to the nearest member tile), so that one R-tree query serves a whole tile.
-    memo: RefCell<Vec<(u32, f32)>>,
+    /// Distances to the nearest member tile, one R-tree query per tile.
+    bound: TileBound,
     version: u32,
     mark: Scratch<()>,
     tiles: HashSet<(usize, usize)>,
@@ -40,11 +75,9 @@ pub struct Targets {
 impl Targets {
     /// An empty set for cells of `grid` (or any grid of the same size).
     pub fn new(grid: &Grid) -> Targets {
-        let tiles = TileGeom::of(grid);
         Targets {
             nx: grid.nx,
-            ntx: tiles.ntx,
-            memo: RefCell::new(vec![(0, 0.0); tiles.ntx * tiles.nty]),
+            bound: TileBound::new(grid),
             version: 1,
             mark: Scratch::new(PageGeom::of(grid.nx, grid.ny), ()),
             tiles: HashSet::new(),
@@ -63,7 +96,7 @@ impl Targets {
     fn bump_version(&mut self) {
         self.version += 1;
         if self.version == u32::MAX {
-            self.memo.borrow_mut().iter_mut().for_each(|m| m.0 = 0);
+            self.bound.forget();
             self.version = 1;
         }
     }
@@ -108,20 +141,7 @@ impl Targets {
     /// nearest member tile, less half the tile's diagonal. Admissible; not consistent
     /// across tile borders, which the search allows for by reopening cells.
     pub fn lower_bound(&self, c: usize) -> f32 {
-        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
-        let t = ty * self.ntx + tx;
-        let mut memo = self.memo.borrow_mut();
-        if memo[t].0 != self.version {
-            let half = (TILE - 1) as f64 / 2.0;
-            let p = [(tx * TILE) as f64 + half, (ty * TILE) as f64 + half];
-            let d = match self.index.nearest_neighbor(&p) {
-                Some(r) => r.distance_2(&p).sqrt() as f32,
-                None => 0.0,
-            };
-            memo[t] = (self.version, d);
-        }
-        let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
-        (memo[t].1 - half_diagonal).max(0.0)
+        self.bound.at(c, self.version, |p| self.index.nearest_neighbor(&p).map(|r| r.distance_2(&p).sqrt() as f32).unwrap_or(0.0))
     }
 }
 
