@@ -65,14 +65,28 @@ fn check_at(dir: &Path, demo: &str, dx: f64, dy: f64) -> Result<(), String> {
     Ok(())
 }
 
+/// Checks every position, on two threads (each with its own folder): the sweeps are the
+/// longest tests, and one of them left running alone at the end of `cargo test` kept the
+/// other core idle.
 fn sweep(demo: &str) {
-    let dir = tempfile::tempdir().unwrap();
     let steps = |lo: i32, hi: i32| (lo..=hi).map(|k| k as f64 * 0.5);
-    let failures: Vec<String> = steps(-STEPS, STEPS)
+    let positions: Vec<(f64, f64)> = steps(-STEPS, STEPS)
         .map(|dx| (dx, 0.0))
         .chain(steps(-STEPS, STEPS).filter(|dy| *dy != 0.0).map(|dy| (0.0, dy)))
-        .filter_map(|(dx, dy)| check_at(dir.path(), demo, dx, dy).err())
         .collect();
+    let half = positions.len().div_ceil(2);
+    let failures: Vec<String> = std::thread::scope(|s| {
+        let runs: Vec<_> = positions
+            .chunks(half)
+            .map(|part| {
+                s.spawn(move || {
+                    let dir = tempfile::tempdir().unwrap();
+                    part.iter().filter_map(|&(dx, dy)| check_at(dir.path(), demo, dx, dy).err()).collect::<Vec<String>>()
+                })
+            })
+            .collect();
+        runs.into_iter().flat_map(|r| r.join().unwrap()).collect()
+    });
     assert!(failures.is_empty(), "{} position(s) failed:\n{}", failures.len(), failures.join("\n"));
 }
 
