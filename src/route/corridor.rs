@@ -12,7 +12,9 @@
 //! the mean cost of those cells, so costly zones (bodies, hidden crossings) steer the coarse
 //! path as they steer the fine one. The coarse graph is optimistic — a tile passable on its
 //! own may not let a lead through — so a fine search that fails inside its corridor is run
-//! again without one; the corridor only saves time, it never loses a route.
+//! again in the corridor of a stricter coarse graph (a step between two tiles only where
+//! usable cells face each other across their edge), then without one; the corridor only
+//! saves time, it never loses a route.
 //!
 //! Every buffer is allocated once per router and reset by stamp, never per search.
 
