@@ -169,9 +169,8 @@ impl Corridors {
         let (mut sum, mut n) = (0.0f32, 0u32);
         for y in y0..y1 {
             for x in x0..x1 {
-                let o = grid.owner_xy(x, y);
-                let extra = grid.cost_xy(x, y);
-                if (o == FREE || o == owner) && extra.is_finite() {
+                if usable(grid, owner, x, y) {
+                    let extra = grid.cost_xy(x, y);
                     sum += 1.0 + extra;
                     n += 1;
                 }
@@ -377,6 +376,24 @@ pub fn find_guided(
 mod tests {
     use super::*;
     use crate::geom::{pt, rect, region_of};
+
+    /// A wall 14 cells thick lying across the edge between two columns of tiles, leaving
+    /// each of them one free column: counting usable cells, both tiles are passable and
+    /// the coarse path steps across the wall; the stricter graph finds no two usable cells
+    /// facing each other across that edge and no way through.
+    #[test]
+    fn the_stricter_graph_does_not_step_over_a_wall_on_a_tile_edge() {
+        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
+        // Cells 73 to 86 across (centres at multiples of 0.1 mm), the whole height; tiles
+        // 9 (cells 72-79) and 10 (80-87) keep 72 and 87.
+        g.block(&region_of([rect(7.25, -1.0, 8.65, 21.0)]));
+        let mut c = Corridors::new(&g);
+        let start = g.index_of(pt(2.0, 10.0)).unwrap();
+        let goal_tile = c.tile_index(&g, g.index_of(pt(18.0, 10.0)).unwrap());
+        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1), "the lenient graph leaks");
+        c.strict = true;
+        assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1), "the strict graph holds");
+    }
 
     /// A wall with a gap at its top: the corridor goes through the gap, not through the
     /// wall, and leaves out the far side of the glass.
