@@ -138,9 +138,8 @@ pub fn default_rows(p: &Params) -> u32 {
 /// element and the common. Multiplexed at duty 1/N, seven-segment digits (no points)
 /// take their template's ⌈7/N⌉ SEG lines each and leave the rest of those lines' places
 /// free; icons fill the free places first and open new lines, N to a line, only when none
-/// is left. Every other element takes a free place on the nearest line and opens a line
-/// only when no line has one, so fourteen-segment digits and their icons fill their lines:
-/// N + ⌈elements / N⌉, the lower bound.
+/// is left. Fourteen-segment digits take eight lines each on the top and bottom commons
+/// and keep their free places free, so the icons open lines of their own, N to a line.
 fn pins_made(p: &Params, elements: u32) -> u32 {
     let n = p.drive.commons();
     if n == 1 {
@@ -152,7 +151,7 @@ fn pins_made(p: &Params, elements: u32) -> u32 {
             let free = p.digits * (per_digit * n - 7);
             n + p.digits * per_digit + p.icons.saturating_sub(free).div_ceil(n)
         }
-        Style::Fourteen => n + elements.div_ceil(n),
+        Style::Fourteen => n + 8 * p.digits + p.icons.div_ceil(n),
     }
 }
 

@@ -12,13 +12,16 @@ pub struct Line {
     pub fixed: Option<u32>,
     /// In the far tier (`tiers.rs`): only far elements join it.
     pub far: bool,
+    /// A line of a digit template that keeps its free places free
+    /// (`Template::lends_free_places`): no other element joins it.
+    pub closed: bool,
     sum: (f64, f64),
 }
 
 impl Line {
     /// An empty line.
     pub fn new(fixed: Option<u32>) -> Line {
-        Line { members: Vec::new(), fixed, far: false, sum: (0.0, 0.0) }
+        Line { members: Vec::new(), fixed, far: false, closed: false, sum: (0.0, 0.0) }
     }
 
     /// True when common `com` has no element on this line yet.

@@ -7,8 +7,9 @@
 //!
 //! Multiplexed, in this order:
 //! 1. elements fixed by hand keep their COM and SEG;
-//! 2. seven-segment digits take their template (`template.rs`), one set of SEG lines per
-//!    digit, so each line's segments lie together and both plates can be routed;
+//! 2. seven- and fourteen-segment digits take their template (`template.rs`), one set of
+//!    SEG lines per digit, so each line's segments lie together and both plates can be
+//!    routed;
 //! 3. every other element (legends, icons, colon dots, other digit styles, elements fixed
 //!    in one number only) takes a free common on the nearest line that has one and a
 //!    member within one and a half digit heights, so that no front join crosses the
@@ -49,6 +50,9 @@ pub struct Assignment {
     /// Per element, whether it is in the far tier (`tiers.rs`), whose leads leave on the
     /// side opposite the pads.
     pub far: Vec<bool>,
+    /// SEG lines (0-based) whose front nets the router leads before all others, in this
+    /// order (`Template::route_first`).
+    pub route_first: Vec<u32>,
 }
 
 impl Assignment {
@@ -68,7 +72,7 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
     let n = layout.drive.commons.max(1);
     if n == 1 {
         let k = elements.len();
-        return Ok(Assignment { com: vec![0; k], line: (0..k as u32).collect(), lines: k as u32, passages: Vec::new(), far: vec![false; k] });
+        return Ok(Assignment { com: vec![0; k], line: (0..k as u32).collect(), lines: k as u32, passages: Vec::new(), far: vec![false; k], route_first: Vec::new() });
     }
     let centres: Vec<Pt> = elements.iter().map(centre).collect();
     let far = tiers::far_tier(layout, elements);
@@ -92,27 +96,33 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
     // 2. Templates, digit by digit.
     let mut passages = Vec::new();
     let mut digit_slots: Vec<(String, u32, usize)> = Vec::new();
+    let mut first: Vec<(usize, usize)> = Vec::new();
     let with_points: std::collections::BTreeSet<&str> =
         elements.iter().filter(|e| e.name.rsplit('.').next() == Some("dp")).filter_map(|e| e.digit.as_deref()).collect();
     for (i, e) in elements.iter().enumerate() {
         if placed[i] || layout.fixed_lines.contains_key(&e.name) {
             continue;
         }
-        let (Some(digit), Some(t)) = (&e.digit, seven_template(layout, e)) else { continue };
+        let (Some(digit), Some(t)) = (&e.digit, digit_template(layout, e)) else { continue };
         let seg = e.name.rsplit('.').next().unwrap_or("");
         let Some((com, slot)) = t.place_for(seg, exit_of(layout, far[i]), with_points.contains(digit.as_str())) else { continue };
         let com = if far[i] { n - 1 - com } else { com };
         let l = match digit_slots.iter().find(|(d, s, _)| d == digit && *s == slot) {
             Some(x) => x.2,
             None => {
-                lines.push(Line::new(None));
-                lines.last_mut().expect("just pushed").far = far[i];
+                let mut line = Line::new(None);
+                line.far = far[i];
+                line.closed = !t.lends_free_places;
+                lines.push(line);
                 digit_slots.push((digit.clone(), slot, lines.len() - 1));
                 lines.len() - 1
             }
         };
         lines[l].add(i, com, centres[i]);
         placed[i] = true;
+        if let Some(rank) = t.route_first.iter().position(|s| *s == seg) {
+            first.push((rank, l));
+        }
         for (s, end) in t.passages {
             if *s == seg {
                 passages.push(passage(layout, e, *end));
@@ -186,13 +196,15 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
             line[e] = numbers[l];
         }
     }
-    Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages, far })
+    first.sort_by_key(|&(rank, l)| (rank, numbers[l]));
+    let route_first = first.iter().map(|&(_, l)| numbers[l]).collect();
+    Ok(Assignment { com, line, lines: lines.iter().filter(|l| !l.members.is_empty()).count() as u32, passages, far, route_first })
 }
 
 /// The common the template gives a colon dot of a seven-segment digit, if any.
 fn colon_dot_common(layout: &Layout, e: &Element) -> Option<u32> {
     let dot = crate::layout::COLON_DOTS.iter().position(|d| e.name.rsplit('.').next() == Some(*d))?;
-    seven_template(layout, e)?.colon.map(|c| c[dot])
+    digit_template(layout, e)?.colon.map(|c| c[dot])
 }
 
 /// True for the members of a bar graph or a gauge, which share one common.
@@ -213,11 +225,14 @@ fn exit_of(layout: &Layout, far: bool) -> template::Exit {
     if top != far { template::Exit::Up } else { template::Exit::Down }
 }
 
-/// The template of a seven-segment digit element at this duty.
-fn seven_template(layout: &Layout, e: &Element) -> Option<&'static template::Template> {
+/// The template of a digit element's style at this duty, if it has one.
+fn digit_template(layout: &Layout, e: &Element) -> Option<&'static template::Template> {
     let g = layout.digits.iter().find(|g| g.key == e.key)?;
-    (g.style == DigitStyle::Seven).then_some(())?;
-    template::seven_segment(layout.drive.commons)
+    match g.style {
+        DigitStyle::Seven => template::seven_segment(layout.drive.commons),
+        DigitStyle::Fourteen => template::fourteen_segment(layout.drive.commons),
+        DigitStyle::Sixteen => None,
+    }
 }
 
 /// A place kept free of front leads beside one end of a segment: a band one and a half
@@ -276,7 +291,7 @@ fn nearest_line_with_room(lines: &[Line], at: Pt, com: Option<u32>, n: u32, far:
     lines
         .iter()
         .enumerate()
-        .filter(|(_, l)| !l.members.is_empty() && l.fixed.is_none() && l.far == far)
+        .filter(|(_, l)| !l.members.is_empty() && l.fixed.is_none() && !l.closed && l.far == far)
         .filter(|(_, l)| match com {
             Some(c) => l.is_free(c),
             None => (0..n).any(|c| l.is_free(c)),

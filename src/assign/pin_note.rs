@@ -97,7 +97,7 @@ fn cause_of(layout: &Layout, elements: &[Element], members: &[usize]) -> Cause {
     if let Some(&i) = members.iter().find(|&&i| super::one_common(layout, &elements[i])) {
         return Cause::OneCommon(elements[i].key.clone());
     }
-    if let Some(&i) = members.iter().find(|&&i| super::seven_template(layout, &elements[i]).is_some() && elements[i].digit.is_some()) {
+    if let Some(&i) = members.iter().find(|&&i| super::digit_template(layout, &elements[i]).is_some() && elements[i].digit.is_some()) {
         return Cause::Template(elements[i].key.clone());
     }
     if members.iter().any(|&i| layout.fixed_lines.get(&elements[i].name).is_some_and(|f| f.seg.is_some())) {
@@ -120,9 +120,19 @@ fn entry(layout: &Layout, key: &str) -> String {
     if said.is_empty() { format!("`{key}`") } else { format!("`{key}` ({})", said.join(", ")) }
 }
 
+/// Whether the layout entry `key` is a group of fourteen-segment digits.
+fn is_fourteen(layout: &Layout, key: &str) -> bool {
+    layout.digits.iter().any(|g| g.key == key && g.style == crate::layout::DigitStyle::Fourteen)
+}
+
 fn describe(layout: &Layout, c: &Cause, free: u32, lines: u32) -> String {
     match c {
         Cause::OneCommon(key) => format!("{free} on the {lines} line(s) of {}", entry(layout, key)),
+        Cause::Template(key) if is_fourteen(layout, key) => format!(
+            "{free} on the {lines} line(s) of {}: the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM{}, eight lines a digit, because three leads cross the centre of the digit and would shut a common in between the halves; no icon or legend lies near enough to fill the places on the other commons",
+            entry(layout, key),
+            layout.drive.commons
+        ),
         Cause::Template(key) => format!(
             "{free} on the {lines} line(s) of {}: the seven-segment template gives each digit lines of its own so that both plates route, and no icon or legend lies near enough to fill them",
             entry(layout, key)

@@ -1,5 +1,5 @@
-//! Assignments for seven-segment digits at duty 1/2, 1/3 and 1/4 that leave both plates
-//! routable in a row of digits.
+//! Assignments for seven- and fourteen-segment digits at duty 1/2, 1/3 and 1/4 that leave
+//! both plates routable in a row of digits.
 //!
 //! The commons are numbered from the top of the digit down. The reasoning, for a row of
 //! digits whose leads leave at the bottom (docs/background.md,
@@ -20,6 +20,9 @@
 //!
 //! A row whose leads leave at the top (pads on the top side) takes these mirrored top to
 //! bottom ([`Exit::Up`]), except in a digit with a point, which has no mirror image.
+//!
+//! Fourteen-segment digits take the upper and lower halves on the top and bottom commons
+//! at every duty ([`fourteen_segment`]), eight lines a digit.
 
 /// One seven-segment assignment: for each segment name, (COM index, SEG slot within the
 /// digit). Slots are numbered 0 … lines-1 inside a digit; the caller numbers them globally.
@@ -36,6 +39,15 @@ pub struct Template {
     /// them: the commons that cross the gap between two digits at each dot's height, so
     /// that each dot's back electrode joins a band that passes anyway.
     pub colon: Option<[u32; 2]>,
+    /// Whether other elements (legends, icons, bar-graph steps) may take the places the
+    /// template leaves free on a digit's lines. The fourteen-segment template's free
+    /// places are on the commons between its halves, which cannot reach an element
+    /// through the digit, so they stay free.
+    pub lends_free_places: bool,
+    /// Segments whose SEG lines the front router leads first, in this order (every
+    /// digit's line of the first, then of the second, …): joins through a tight node
+    /// route before the joins that can go round them.
+    pub route_first: &'static [&'static str],
 }
 
 /// Which end of a segment's outline.
@@ -61,6 +73,8 @@ const DUTY_2: Template = Template {
     ],
     passages: &[],
     colon: None,
+    lends_free_places: true,
+    route_first: &[],
 };
 
 const DUTY_3: Template = Template {
@@ -77,6 +91,8 @@ const DUTY_3: Template = Template {
     ],
     passages: &[],
     colon: None,
+    lends_free_places: true,
+    route_first: &[],
 };
 
 const DUTY_4: Template = Template {
@@ -97,6 +113,8 @@ const DUTY_4: Template = Template {
     // `{e, c}` does. Measured on a 4-digit layout under 0.15 mm rules: these two routed
     // clean, the other pairings left commons cut off.
     colon: Some([1, 2]),
+    lends_free_places: true,
+    route_first: &[],
 };
 
 /// The seven-segment template for `commons` commons, if there is one.
@@ -105,6 +123,66 @@ pub fn seven_segment(commons: u32) -> Option<&'static Template> {
         2 => Some(&DUTY_2),
         3 => Some(&DUTY_3),
         4 => Some(&DUTY_4),
+        _ => None,
+    }
+}
+
+/// A fourteen-segment digit on two commons: the upper half (`a f b h i j g1 g2`) on the
+/// top common, the lower half (`e c d m l k dp`) on the bottom one (`$bottom`, the last
+/// at this duty), eight SEG lines a digit. Each line joins one segment of each half
+/// where they meet: `g1`–`e` at the left junction, `g2`–`c` at the right one, the three
+/// pairs `i`–`l`, `h`–`m` and `j`–`k` through the centre node (three leads side by side,
+/// hence the wider default gap, `Rules::centre_gap`), `f`–`d` and `b`–`dp` round the
+/// outside, and `a` alone. Once three leads cross the centre, a middle common would be
+/// shut in between the halves, so at 1/3 and 1/4 duty the commons in between stay free
+/// for other elements (docs/architecture.md, *Multiplexing*). Measured on two digits under
+/// 0.1/0.05 mm rules: this division routed clean at 1/2, 1/3 and 1/4 duty with gaps of
+/// 0.55 to 0.75 mm; every division on five lines a digit (the fewest at 1/3) left parts of
+/// commons cut off.
+macro_rules! fourteen {
+    ($commons:expr, $bottom:expr) => {
+        Template {
+            commons: $commons,
+            rows: &[
+                ("g1", 0, 0),
+                ("e", $bottom, 0),
+                ("g2", 0, 1),
+                ("c", $bottom, 1),
+                ("i", 0, 2),
+                ("l", $bottom, 2),
+                ("h", 0, 3),
+                ("m", $bottom, 3),
+                ("j", 0, 4),
+                ("k", $bottom, 4),
+                ("f", 0, 5),
+                ("d", $bottom, 5),
+                ("b", 0, 6),
+                ("dp", $bottom, 6),
+                ("a", 0, 7),
+            ],
+            passages: &[],
+            colon: None,
+            lends_free_places: false,
+            // The three joins through the centre node, `h`–`m` first, then `i`–`l` and
+            // `j`–`k`: routed in the order of their distance to the pads, the centre was
+            // taken by the later ones and every digit's `i`–`l` and `j`–`k` lines stuck
+            // in the first attempt, `h`–`m` in the second (six digits: three front
+            // attempts, 10 s of routing).
+            route_first: &["h", "i", "j"],
+        }
+    };
+}
+
+const FOURTEEN_2: Template = fourteen!(2, 1);
+const FOURTEEN_3: Template = fourteen!(3, 2);
+const FOURTEEN_4: Template = fourteen!(4, 3);
+
+/// The fourteen-segment template for `commons` commons, if there is one.
+pub fn fourteen_segment(commons: u32) -> Option<&'static Template> {
+    match commons {
+        2 => Some(&FOURTEEN_2),
+        3 => Some(&FOURTEEN_3),
+        4 => Some(&FOURTEEN_4),
         _ => None,
     }
 }
@@ -121,8 +199,8 @@ pub enum Exit {
 }
 
 /// The segment in the same place of a digit mirrored top to bottom (`a`↔`d`, `b`↔`c`,
-/// `f`↔`e`; `g` and the point keep their names: the point has no mirror image and
-/// takes the place left over).
+/// `f`↔`e`, and of fourteen segments `h`↔`m`, `i`↔`l`, `j`↔`k`; `g`, `g1`, `g2` and the
+/// point keep their names: the point has no mirror image and takes the place left over).
 fn mirrored(segment: &str) -> &str {
     match segment {
         "a" => "d",
@@ -131,6 +209,12 @@ fn mirrored(segment: &str) -> &str {
         "c" => "b",
         "f" => "e",
         "e" => "f",
+        "h" => "m",
+        "m" => "h",
+        "i" => "l",
+        "l" => "i",
+        "j" => "k",
+        "k" => "j",
         other => other,
     }
 }
@@ -182,6 +266,37 @@ mod tests {
             }
         }
         assert!(seven_segment(1).is_none());
+    }
+
+    /// The fourteen-segment template is a valid multiplex at every duty it serves: each
+    /// (COM, slot) pair once, all fifteen segments (with the point) placed, on the top
+    /// and bottom commons only, in eight slots, which at 1/2 duty is the fewest, ⌈15/2⌉
+    /// (docs/background.md, *Drive and pin count*). Mirrored for pads on top it stays valid
+    /// and keeps each half on its common.
+    #[test]
+    fn the_fourteen_segment_template_uses_the_outer_commons() {
+        let names = ["a", "b", "c", "d", "e", "f", "g1", "g2", "h", "i", "j", "k", "l", "m", "dp"];
+        for n in 2..=4 {
+            let t = fourteen_segment(n).unwrap();
+            assert_eq!(t.commons, n);
+            let mut pairs = std::collections::BTreeSet::new();
+            let mut mirrored_pairs = std::collections::BTreeSet::new();
+            for s in names {
+                let (c, slot) = t.place(s).unwrap_or_else(|| panic!("{s} missing at 1/{n}"));
+                assert!(c == 0 || c == n - 1, "{s} on COM{} at 1/{n}", c + 1);
+                assert!(slot < 8 && pairs.insert((c, slot)), "{s} at 1/{n}");
+                if s != "dp" {
+                    let up = t.place_for(s, Exit::Up, false).unwrap();
+                    assert!(mirrored_pairs.insert(up), "{s} mirrored at 1/{n}");
+                }
+            }
+            let upper = ["a", "b", "f", "g1", "g2", "h", "i", "j"];
+            assert!(upper.iter().all(|s| t.place(s).unwrap().0 == 0), "upper half at 1/{n}");
+            assert_eq!(t.place_for("a", Exit::Up, false).unwrap().0, 0);
+            assert_eq!(t.place_for("d", Exit::Up, false).unwrap().0, n - 1);
+        }
+        assert_eq!(15u32.div_ceil(2), 8);
+        assert!(fourteen_segment(1).is_none());
     }
 
     /// Leaving at the top, a digit without a point keeps a valid multiplex, keeps `a` on

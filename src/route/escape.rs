@@ -39,6 +39,8 @@ pub struct Escapes {
 
 struct NetPieces {
     name: String,
+    /// SEG line (0-based).
+    line: u32,
     pieces: Vec<Polygon>,
     /// In the far tier: leaves on the side opposite the pads (`assign::tiers`).
     far: bool,
@@ -58,8 +60,11 @@ pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, far_frame
     // Passages the assignment keeps for back leads stay free of front leads.
     base.block(&crate::geom::region_of(el.assignment.passages.iter().cloned()));
     base.compact();
+    // The lines the assignment leads first (joins through a tight node), then the rest
+    // nearest the pad side first.
+    let rank = |i: usize| el.assignment.route_first.iter().position(|&l| l == nets[i].line).unwrap_or(usize::MAX);
     let mut order: Vec<usize> = (0..nets.len()).collect();
-    order.sort_by(|&a, &b| nearest_v(frames.of(&nets[a]), &nets[a]).total_cmp(&nearest_v(frames.of(&nets[b]), &nets[b])));
+    order.sort_by(|&a, &b| rank(a).cmp(&rank(b)).then(nearest_v(frames.of(&nets[a]), &nets[a]).total_cmp(&nearest_v(frames.of(&nets[b]), &nets[b]))));
     let mut search = Search::new(&base);
     let (esc, notes) = super::retry::rip_up_and_retry(order, ATTEMPTS, |order| {
         attempt(layout, &frames, &nets, order, base.clone(), &mut search)
@@ -91,7 +96,7 @@ fn collect_pieces(layout: &Layout, el: &Electrodes) -> Vec<NetPieces> {
             for b in layout.buses.iter().filter(|b| b.plate == PlateId::Front && b.net == s.net) {
                 pieces.extend(stroke_polyline(&b.points, b.width, layout.tolerance).0);
             }
-            NetPieces { name: s.net.clone(), pieces: nearest_chain(pieces), far }
+            NetPieces { name: s.net.clone(), line: s.index, pieces: nearest_chain(pieces), far }
         })
         .collect()
 }

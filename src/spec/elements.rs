@@ -25,12 +25,13 @@ const GROUP_NAME: &str = "a letter, then letters, digits or `_`, not ending in a
 /// Characters allowed in a legend or icon name.
 pub const NET_NAME: &str = "a letter, then letters, digits, `_`, `-` or `.`; not COM followed by a number";
 
-/// `digits:`; the rules give the default segment gap ([`Rules::passing_gap`]).
-pub fn digit_groups(p: &mut Problems, raw: &[RawDigits], rules: &Rules) -> Vec<DigitGroup> {
-    raw.iter().enumerate().map(|(i, d)| digit_group(p, d, &format!("digits[{i}]"), rules)).collect()
+/// `digits:`; the rules give the default segment gap ([`Rules::passing_gap`], or
+/// [`Rules::centre_gap`] for fourteen-segment digits under multiplexed drive, `commons` > 1).
+pub fn digit_groups(p: &mut Problems, raw: &[RawDigits], rules: &Rules, commons: u32) -> Vec<DigitGroup> {
+    raw.iter().enumerate().map(|(i, d)| digit_group(p, d, &format!("digits[{i}]"), rules, commons)).collect()
 }
 
-fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules) -> DigitGroup {
+fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, commons: u32) -> DigitGroup {
     let k = |f: &str| format!("{key}.{f}");
     let name = p.text(d.name.as_ref(), &k("name"), None, GROUP_NAME);
     if !name.is_empty() && !group_name_ok(&name) {
@@ -56,7 +57,9 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules) -> Dig
         p.bad(&k("slant"), format!("{slant}° is too steep"), &format!("-{MAX_SLANT} to {MAX_SLANT} degrees"));
     }
     let stroke = p.length(d.stroke.as_ref(), &k("stroke"), Some(height / 10.0), Sign::Positive);
-    let gap_default = rules.passing_gap();
+    // Multiplexed, three leads cross the centre of a fourteen-segment digit side by side
+    // (`assign::template::fourteen_segment`).
+    let gap_default = if style == DigitStyle::Fourteen && commons > 1 { rules.centre_gap() } else { rules.passing_gap() };
     let gap = p.length(d.gap.as_ref(), &k("gap"), Some(gap_default), Sign::NonNegative);
     let count_u = super::resolve::clamp_u32(count);
     let decimal_points = indices(p, d.decimal_points.as_ref(), &k("decimal_points"), count_u);

@@ -150,7 +150,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path, opts: &Input
     let pads = resolve::pads(p, raw.pads.as_ref());
     let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
     let drive = resolve::drive(p, raw.drive.as_ref());
-    let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules);
+    let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules, drive.commons);
     let legends = elements::legends(p, raw.legends.as_deref().unwrap_or(&[]));
     let extra_fonts = resolve::fonts(p, raw.fonts.as_ref(), path, &opts.font_dirs);
     let icons = elements::icons(p, raw.icons.as_deref().unwrap_or(&[]), &gauges::icon_names(&extra_fonts));

@@ -70,7 +70,11 @@ fn drawn(svg: &str, glass: Bbox) -> Vec<(String, Bbox)> {
         if attr(tag, "fill") != Some("none") && overlap(whole, glass) {
             continue; // the etched layers
         }
-        if attr(tag, "stroke-width") == Some("0.15") {
+        // Corner marks: short axis-parallel strokes 0.15 mm wide, each checked on its own
+        // (they sit in pairs near the glass corners). Stroke text whose height gives the
+        // same width is one item, like any other label: its letters' strokes touch.
+        let axis_parallel = |p: &Vec<(f64, f64)>| p.len() == 2 && ((p[0].0 - p[1].0).abs() < 1e-9 || (p[0].1 - p[1].1).abs() < 1e-9);
+        if attr(tag, "stroke-width") == Some("0.15") && parts.iter().all(axis_parallel) {
             out.extend(parts.into_iter().enumerate().map(|(j, p)| (format!("corner mark line {j}"), bbox(p, half))));
         } else {
             out.push((format!("path {i}"), whole));

@@ -66,6 +66,37 @@ fn two_rows_with_the_pads_on_one_side_route_themselves() {
     assert_eq!(twice, BTreeSet::from(["COM3", "COM4"]));
 }
 
+/// Six fourteen-segment characters with points, a ten-step meter and two gauges at 1/3
+/// duty: clean, drive truth holding, each (COM, SEG) pair once; the characters on COM1
+/// (upper half) and COM3 (lower half) only, eight lines each, the meter and gauges on
+/// COM2; the pins above N + ⌈S/N⌉ (Alt & Pleshko, as above) are explained in one note
+/// that names the fourteen-segment template.
+#[test]
+fn fourteen_segments_at_third_duty_route_on_the_outer_commons() {
+    let dir = tempfile::tempdir().unwrap();
+    let (code, err) = build(&root().join("demo-layouts/borehole-pump.yaml"), dir.path());
+    assert_eq!(code, Some(0), "{err}");
+    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
+    let segmap = rows(&dir.path().join("borehole-pump.segmap.csv"));
+    let pins = rows(&dir.path().join("borehole-pump.pins.csv"));
+    assert_eq!(segmap.len(), 6 * 15 + 10 + 4 + 4);
+    let mut pairs = BTreeSet::new();
+    for r in &segmap {
+        assert!(pairs.insert((r[2].clone(), r[5].clone())), "pair COM{} SEG{} used twice", r[2], r[5]);
+        let upper = ["a", "b", "f", "g1", "g2", "h", "i", "j"];
+        let want = match r[0].split_once('.') {
+            Some((d, seg)) if d.starts_with('T') => if upper.contains(&seg) { "1" } else { "3" },
+            _ => "2",
+        };
+        assert_eq!(r[2], want, "{} on COM{}", r[0], r[2]);
+    }
+    let lines: BTreeSet<&str> = segmap.iter().filter(|r| r[0].starts_with('T')).map(|r| r[5].as_str()).collect();
+    assert_eq!(lines.len(), 6 * 8, "eight SEG lines a character");
+    assert_eq!(pins.len(), 3 + 48 + 18);
+    assert!(err.contains("69 pins (3 COM + 66 SEG) where 3 + ⌈108/3⌉ = 39 is the fewest"), "{err}");
+    assert!(err.contains("the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM3"), "{err}");
+}
+
 #[test]
 fn four_digit_quarter_duty_demo_routes_itself() {
     assert_multiplexed_demo("kiln-controller", 4);
