@@ -229,9 +229,9 @@ impl Rules {
     /// drive: three leads cross the centre node side by side (`i`–`l`, `h`–`m`, `j`–`k`,
     /// `assign::template::fourteen_segment`), each with a gap on both sides and two
     /// routing-grid cells of slack, as [`Rules::passing_gap`] gives one lead. Measured on
-    /// two digits 12 mm high under 0.1/0.05 mm rules (grid 25 µm): gaps of 0.45 mm and less
-    /// left SEG lines unjoined at the centre, 0.55 to 0.75 mm routed (with single
-    /// failures at 0.62, 0.64 and 0.73 mm for a 1.0 mm stroke, none for 1.2 mm).
+    /// two digits 12 mm high with points under 0.1/0.05 mm rules (grid 25 µm, default
+    /// 0.68 mm), strokes 1.0 and 1.2 mm: gaps of 0.5 mm and less left SEG lines unjoined
+    /// at the centre, every gap from 0.55 to 0.8 mm routed clean.
     pub fn centre_gap(&self) -> f64 {
         3.0 * self.lead_width + 4.0 * self.min_gap + 6.0 * self.grid_step()
     }

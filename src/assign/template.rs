@@ -48,6 +48,9 @@ pub struct Template {
     /// digit's line of the first, then of the second, …): joins through a tight node
     /// route before the joins that can go round them.
     pub route_first: &'static [&'static str],
+    /// Whether a digit with a point takes the template mirrored too when its leads leave
+    /// at the top (see [`Template::place_for`]).
+    pub mirrors_with_point: bool,
 }
 
 /// Which end of a segment's outline.
@@ -75,6 +78,7 @@ const DUTY_2: Template = Template {
     colon: None,
     lends_free_places: true,
     route_first: &[],
+    mirrors_with_point: false,
 };
 
 const DUTY_3: Template = Template {
@@ -93,6 +97,7 @@ const DUTY_3: Template = Template {
     colon: None,
     lends_free_places: true,
     route_first: &[],
+    mirrors_with_point: false,
 };
 
 const DUTY_4: Template = Template {
@@ -115,6 +120,7 @@ const DUTY_4: Template = Template {
     colon: Some([1, 2]),
     lends_free_places: true,
     route_first: &[],
+    mirrors_with_point: false,
 };
 
 /// The seven-segment template for `commons` commons, if there is one.
@@ -163,12 +169,17 @@ macro_rules! fourteen {
             passages: &[],
             colon: None,
             lends_free_places: false,
-            // The three joins through the centre node, `h`–`m` first, then `i`–`l` and
-            // `j`–`k`: routed in the order of their distance to the pads, the centre was
-            // taken by the later ones and every digit's `i`–`l` and `j`–`k` lines stuck
-            // in the first attempt, `h`–`m` in the second (six digits: three front
-            // attempts, 10 s of routing).
-            route_first: &["h", "i", "j"],
+            // `g2`–`c` and `f`–`d` first, then the three joins through the centre node
+            // (`h`–`m`, `i`–`l`, `j`–`k`). Routed by their distance to the pads, the
+            // later ones found the centre or the sides taken: on the six-digit demo
+            // every digit's `f`–`d` line stuck in the first attempt and its `g2`–`c`
+            // line in the second (three front attempts, 10 s of routing, one attempt and
+            // 1.4-1.9 s in this order at every position of its sweep).
+            route_first: &["g2", "f", "h", "i", "j"],
+            // Mirrored, the point takes the top common's free place beside `c`; two
+            // digits with points and the pads on top routed clean that way and left a
+            // SEG line unjoined with the template as written.
+            mirrors_with_point: true,
         }
     };
 }
@@ -231,12 +242,13 @@ impl Template {
     /// Leaving at the top, a digit without a point takes the template mirrored top to
     /// bottom with the commons renumbered from the top again: the place the point would
     /// take falls on the top common, beside the pads, where legends and icons between
-    /// the digits and the pads can use it. A digit with a point keeps the template as
-    /// written: mirrored, the point would sit on the top common, which cannot reach it.
+    /// the digits and the pads can use it. A seven-segment digit with a point keeps the
+    /// template as written: mirrored, the point would sit on the top common, which cannot
+    /// reach it; a fourteen-segment one takes it mirrored ([`Template::mirrors_with_point`]).
     /// Both keep the same commons at the same heights across the gaps between digits.
     pub fn place_for(&self, segment: &str, exit: Exit, has_point: bool) -> Option<(u32, u32)> {
         match exit {
-            Exit::Up if !has_point => self.place(mirrored(segment)).map(|(com, slot)| (self.commons - 1 - com, slot)),
+            Exit::Up if !has_point || self.mirrors_with_point => self.place(mirrored(segment)).map(|(com, slot)| (self.commons - 1 - com, slot)),
             _ => self.place(segment),
         }
     }

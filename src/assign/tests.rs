@@ -162,3 +162,27 @@ fn bar_steps_and_gauge_parts_keep_one_common() {
         }
     }
 }
+
+/// Fourteen-segment digits at 1/3 duty: eight lines a digit on COM1 and COM3 only; an
+/// icon beside them opens a line of its own rather than take a free COM2 place on a
+/// digit's line (those places are shut in by the digit); the router is told to lead the
+/// lines of `g2`, `f`, `h`, `i` and `j` first, each kind for every digit before the next.
+#[test]
+fn fourteen_segment_digits_keep_to_the_outer_commons_and_their_own_lines() {
+    let mut l = layout(2, 3, vec![]);
+    l.digits[0].style = DigitStyle::Fourteen;
+    l.digits[0].gap = 0.6;
+    icon(&mut l, "I0", 30.0, 17.0);
+    let e = build_elements(&l).unwrap();
+    let a = assign(&l, &e).unwrap();
+    assert_pairs_once(&a, 3);
+    assert_eq!(a.lines, 2 * 8 + 1);
+    let icon_at = e.iter().position(|x| x.name == "I0").unwrap();
+    assert!((0..e.len()).all(|i| i == icon_at || a.line[i] != a.line[icon_at]), "the icon shares a digit's line");
+    for (i, x) in e.iter().enumerate().filter(|(i, _)| *i != icon_at) {
+        assert!(a.com[i] == 0 || a.com[i] == 2, "{} on COM{}", x.name, a.com[i] + 1);
+    }
+    let line_of = |name: &str| a.line[e.iter().position(|x| x.name == name).unwrap()];
+    let want: Vec<u32> = ["g2", "f", "h", "i", "j"].iter().flat_map(|s| [line_of(&format!("D1.{s}")), line_of(&format!("D2.{s}"))]).collect();
+    assert_eq!(a.route_first, want);
+}
