@@ -39,6 +39,12 @@ pub struct DigitSize {
 /// to be led out between two others.
 const GAP: f64 = 0.35;
 
+/// Gap between the segments of a fourteen-segment digit: under multiplexed drive three
+/// leads cross its centre side by side (segmask's default for such digits,
+/// `3·lead_width + 4·min_gap + 6·grid` = 0.33 + 0.2 + 0.15 mm); static layouts take it
+/// too, so that both drives draw the same digit.
+const FOURTEEN_GAP: f64 = 0.68;
+
 impl Style {
     /// Reads `seven` or `fourteen`.
     pub fn parse(s: &str) -> Result<Style, String> {
@@ -74,7 +80,7 @@ impl Style {
     pub fn size(self) -> DigitSize {
         match self {
             Style::Seven => DigitSize { height: 10.0, width: 6.0, stroke: 1.0, gap: GAP, slant: 4.0 },
-            Style::Fourteen => DigitSize { height: 10.0, width: 8.0, stroke: 0.9, gap: GAP, slant: 4.0 },
+            Style::Fourteen => DigitSize { height: 10.0, width: 8.0, stroke: 1.0, gap: FOURTEEN_GAP, slant: 4.0 },
         }
     }
 }
