@@ -73,10 +73,10 @@ impl Style {
 
     /// Size, stroke, gap and slant of one digit.
     ///
-    /// Seven segments: 10 × 6 mm, stroke 1 mm. Fourteen: as tall but 8 mm wide and a
-    /// 0.9 mm stroke, so each of the four counters the middle bar and the inner verticals
-    /// leave (about 2.6 × 3.7 mm upright) still holds its diagonal with a gap on both
-    /// sides of it and room to lead it out.
+    /// Seven segments: 10 × 6 mm, stroke 1 mm. Fourteen: as tall but 8 mm wide, so each
+    /// of the four counters the middle bar and the inner verticals leave still holds its
+    /// diagonal with a gap on both sides, at the default stroke (height / 10: with
+    /// 0.9 mm, the six-digit preset left the left junction's join of two digits unrouted).
     pub fn size(self) -> DigitSize {
         match self {
             Style::Seven => DigitSize { height: 10.0, width: 6.0, stroke: 1.0, gap: GAP, slant: 4.0 },
