@@ -139,7 +139,9 @@ pub fn default_rows(p: &Params) -> u32 {
 /// take their template's ⌈7/N⌉ SEG lines each and leave the rest of those lines' places
 /// free; icons fill the free places first and open new lines, N to a line, only when none
 /// is left. Fourteen-segment digits take eight lines each on the top and bottom commons
-/// and keep their free places free, so the icons open lines of their own, N to a line.
+/// and keep their free places free, so the icons (all near the digits) open lines of
+/// their own on the N − 2 commons in between, or on all N at 1/2 duty, where the digits
+/// leave none.
 fn pins_made(p: &Params, elements: u32) -> u32 {
     let n = p.drive.commons();
     if n == 1 {
@@ -151,7 +153,7 @@ fn pins_made(p: &Params, elements: u32) -> u32 {
             let free = p.digits * (per_digit * n - 7);
             n + p.digits * per_digit + p.icons.saturating_sub(free).div_ceil(n)
         }
-        Style::Fourteen => n + 8 * p.digits + p.icons.div_ceil(n),
+        Style::Fourteen => n + 8 * p.digits + p.icons.div_ceil(if n > 2 { n - 2 } else { n }),
     }
 }
 

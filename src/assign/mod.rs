@@ -15,7 +15,8 @@
 //!    member within one and a half digit heights, so that no front join crosses the
 //!    glass (a colon dot the common its digit's template names for it, if any); when no
 //!    line has room it opens a new line, on the common of its height in the window (top
-//!    band → COM1). Filling free places first keeps the pin count at N + ⌈S/N⌉
+//!    band → COM1); beside digits whose template keeps its lines closed (fourteen
+//!    segments), on the nearest common those digits leave free. Filling free places first keeps the pin count at N + ⌈S/N⌉
 //!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
 //!    places free to others. The steps of a bar graph and the parts of a gauge all take
 //!    the common the first of them took, each on its own line: side by side in a row (or nested in a shell), neighbours on different
@@ -151,7 +152,19 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
             fixed.com = colon_dot_common(layout, e).map(|c| if far[i] { n - c } else { c + 1 });
         }
         let height = band(layout, centres[i], n);
-        let want = fixed.com.map(|c| c - 1).unwrap_or(if far[i] { n - 1 - height } else { height });
+        let mut want = fixed.com.map(|c| c - 1).unwrap_or(if far[i] { n - 1 - height } else { height });
+        if fixed.com.is_none() {
+            // Beside digits whose template keeps its lines closed (fourteen segments), a
+            // common those digits use could only reach the element through them: take
+            // the open common nearest the wanted one, if there is one.
+            let shut = shut_commons(layout, &lines, &centres, centres[i], n);
+            if let Some(c) = (0..n).filter(|c| !shut[*c as usize]).min_by_key(|c| (c.abs_diff(want), *c)) {
+                if shut.iter().any(|s| *s) {
+                    want = c;
+                    fixed.com = Some(c + 1);
+                }
+            }
+        }
         let l = match fixed.seg {
             Some(s) => line_numbered(&mut lines, s - 1),
             None => nearest_line_with_room(&lines, centres[i], fixed.com.map(|c| c - 1), n, far[i])
@@ -284,6 +297,17 @@ fn within_reach(layout: &Layout, line: &Line, centres: &[Pt], at: Pt) -> bool {
         let c = centres[e];
         (c.x - at.x).hypot(c.y - at.y) <= reach
     })
+}
+
+/// Per common, whether closed digit lines (`Line::closed`) within reach of `at` use it.
+fn shut_commons(layout: &Layout, lines: &[Line], centres: &[Pt], at: Pt, n: u32) -> Vec<bool> {
+    let mut shut = vec![false; n as usize];
+    for l in lines.iter().filter(|l| l.closed && within_reach(layout, l, centres, at)) {
+        for &(_, c) in &l.members {
+            shut[c as usize] = true;
+        }
+    }
+    shut
 }
 
 fn nearest_line_with_room(lines: &[Line], at: Pt, com: Option<u32>, n: u32, far: bool) -> Option<usize> {

@@ -165,7 +165,8 @@ fn bar_steps_and_gauge_parts_keep_one_common() {
 
 /// Fourteen-segment digits at 1/3 duty: eight lines a digit on COM1 and COM3 only; an
 /// icon beside them opens a line of its own rather than take a free COM2 place on a
-/// digit's line (those places are shut in by the digit); the router is told to lead the
+/// digit's line (those places are shut in by the digit), on COM2, the common the digits
+/// leave free (its height alone would give COM3); the router is told to lead the
 /// lines of `g2`, `f`, `h`, `i` and `j` first, each kind for every digit before the next.
 #[test]
 fn fourteen_segment_digits_keep_to_the_outer_commons_and_their_own_lines() {
@@ -179,6 +180,7 @@ fn fourteen_segment_digits_keep_to_the_outer_commons_and_their_own_lines() {
     assert_eq!(a.lines, 2 * 8 + 1);
     let icon_at = e.iter().position(|x| x.name == "I0").unwrap();
     assert!((0..e.len()).all(|i| i == icon_at || a.line[i] != a.line[icon_at]), "the icon shares a digit's line");
+    assert_eq!(a.com[icon_at], 1, "the icon takes the common the digits leave free");
     for (i, x) in e.iter().enumerate().filter(|(i, _)| *i != icon_at) {
         assert!(a.com[i] == 0 || a.com[i] == 2, "{} on COM{}", x.name, a.com[i] + 1);
     }
