@@ -16,7 +16,8 @@
 //!    glass (a colon dot the common its digit's template names for it, if any); when no
 //!    line has room it opens a new line, on the common of its height in the window (top
 //!    band → COM1); beside digits whose template keeps its lines closed (fourteen
-//!    segments), on the nearest common those digits leave free. Filling free places first keeps the pin count at N + ⌈S/N⌉
+//!    segments), on the nearest common those digits leave free. Filling free places
+//!    first keeps the pin count at N + ⌈S/N⌉
 //!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
 //!    places free to others. The steps of a bar graph and the parts of a gauge all take
 //!    the common the first of them took, each on its own line: side by side in a row (or nested in a shell), neighbours on different

@@ -129,7 +129,7 @@ fn describe(layout: &Layout, c: &Cause, free: u32, lines: u32) -> String {
     match c {
         Cause::OneCommon(key) => format!("{free} on the {lines} line(s) of {}", entry(layout, key)),
         Cause::Template(key) if is_fourteen(layout, key) => format!(
-            "{free} on the {lines} line(s) of {}: the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM{}, eight lines a digit, because three leads cross the centre of the digit and would shut a common in between the halves; no icon or legend lies near enough to fill the places on the other commons",
+            "{free} on the {lines} line(s) of {}: the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM{}, eight lines a digit, because three leads cross the centre of the digit and would shut a common in between the halves; no other element takes these places",
             entry(layout, key),
             layout.drive.commons
         ),

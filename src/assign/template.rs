@@ -141,10 +141,10 @@ pub fn seven_segment(commons: u32) -> Option<&'static Template> {
 /// hence the wider default gap, `Rules::centre_gap`), `f`–`d` and `b`–`dp` round the
 /// outside, and `a` alone. Once three leads cross the centre, a middle common would be
 /// shut in between the halves, so at 1/3 and 1/4 duty the commons in between stay free
-/// for other elements (docs/architecture.md, *Multiplexing*). Measured on two digits under
-/// 0.1/0.05 mm rules: this division routed clean at 1/2, 1/3 and 1/4 duty with gaps of
-/// 0.55 to 0.75 mm; every division on five lines a digit (the fewest at 1/3) left parts of
-/// commons cut off.
+/// (other elements take them on lines of their own; docs/architecture.md,
+/// *Multiplexing*). Measured on two digits under 0.1/0.05 mm rules: this division routed
+/// clean at 1/2, 1/3 and 1/4 duty with gaps of 0.55 to 0.8 mm; every division on five
+/// lines a digit (the fewest at 1/3) left parts of commons cut off.
 macro_rules! fourteen {
     ($commons:expr, $bottom:expr) => {
         Template {
