@@ -73,25 +73,39 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
         // Dots must keep the gap from this digit, the next one and each other.
         let (has_dp, has_colon) = (g.decimal_points.contains(&i), g.colons.contains(&i));
         let mut near: Vec<Polygon> = Vec::new();
+        let mut next_digit: Vec<Polygon> = Vec::new();
         if has_dp || has_colon {
             near.extend(outlines.iter().map(|s| s.1.clone()));
             if i < g.count
                 && let Ok(next) = segs_of(i + 1, g.gap)
             {
-                near.extend(next.into_iter().map(|s| s.1));
+                next_digit.extend(next.into_iter().map(|s| s.1));
             }
         }
+        let own: Vec<Polygon> = near.clone();
+        near.extend(next_digit.iter().cloned());
         let mut dots: Vec<Polygon> = Vec::new();
         if has_dp {
             let dp = decimal_point(skel, &cell, tol);
             if let Some(d) = too_close(&dp, &near, g.gap) {
+                // The point stands a fixed number of strokes right of its own digit, so a
+                // wider gap needs a thicker stroke there; the next digit needs more pitch.
+                let fix = if too_close(&dp, &own, g.gap).is_some() {
+                    format!(
+                        "a thicker stroke (the point stands {} strokes right of its digit: a stroke of at least {:.3} mm), or a smaller gap",
+                        skel.dp.space,
+                        g.gap / skel.dp.space.max(1e-9)
+                    )
+                } else {
+                    "a larger pitch, or a thinner stroke".to_string()
+                };
                 problems.push(layout.problem(
                     &format!("{}.decimal_points", g.key),
                     format!(
                         "the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {} mm",
                         g.gap
                     ),
-                    Some("a larger pitch, or a thinner stroke".into()),
+                    Some(fix),
                 ));
             }
             dots.push(dp.clone());

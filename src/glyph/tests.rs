@@ -185,11 +185,20 @@ fn dots_keep_the_gap_or_the_pitch_is_reported() {
             }
         }
     }
-    // Digits nearly touching: no room for the dots.
+    // Digits nearly touching: no room for the dots; the point's message asks for pitch.
     l.digits[0].pitch = 6.6;
     let p = problems(&l);
-    assert!(p.iter().any(|p| p.key == "digits[0].decimal_points"), "{p:?}");
+    let dp = p.iter().find(|p| p.key == "digits[0].decimal_points").unwrap_or_else(|| panic!("{p:?}"));
+    assert!(dp.allowed.as_deref().is_some_and(|a| a.contains("a larger pitch")), "{dp:?}");
     assert!(p.iter().any(|p| p.key == "digits[0].colons"), "{p:?}");
+    // A gap wider than the point stands from its own digit (0.75 stroke: 0.75 mm): the
+    // message asks for the stroke that keeps the gap, gap / 0.75.
+    l.digits[0].pitch = 9.0;
+    l.digits[0].colons.clear();
+    l.digits[0].gap = 0.9;
+    let p = problems(&l);
+    let dp = p.iter().find(|p| p.key == "digits[0].decimal_points").unwrap_or_else(|| panic!("{p:?}"));
+    assert!(dp.allowed.as_deref().is_some_and(|a| a.contains("a thicker stroke") && a.contains("at least 1.200 mm")), "{dp:?}");
 }
 
 fn legend(text: &str) -> Legend {
