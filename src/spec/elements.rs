@@ -61,6 +61,20 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, common
     // (`assign::template::fourteen_segment`).
     let gap_default = if style == DigitStyle::Fourteen && commons > 1 { rules.centre_gap() } else { rules.passing_gap() };
     let gap = p.length(d.gap.as_ref(), &k("gap"), Some(gap_default), Sign::NonNegative);
+    let three_leads = 3.0 * rules.lead_width + 4.0 * rules.min_gap;
+    if style == DigitStyle::Fourteen && commons > 1 && gap < three_leads - 1e-9 && p.clean(&[&k("gap")]) {
+        p.bad(
+            &k("gap"),
+            format!(
+                "gap {} is too narrow for fourteen-segment digits under multiplexed drive: three leads cross the centre of each digit side by side (3 × {} lead + 4 × {} gap = {})",
+                mm(gap),
+                mm(rules.lead_width),
+                mm(rules.min_gap),
+                mm(three_leads)
+            ),
+            &format!("at least {}; leave `gap` out for {}, which gives the router room", mm(three_leads), mm(rules.centre_gap())),
+        );
+    }
     let count_u = super::resolve::clamp_u32(count);
     let decimal_points = indices(p, d.decimal_points.as_ref(), &k("decimal_points"), count_u);
     let colons = indices(p, d.colons.as_ref(), &k("colons"), count_u);

@@ -21,6 +21,7 @@ const CASES: &[Case] = &[
     Case("unknown-style", "digits[0].style", 16, "unknown style `nine` (allowed: seven, fourteen, sixteen)"),
     Case("bad-point", "digits[0].origin", 18, "a point needs 2 coordinates, got 1"),
     Case("digit-outside-window", "digits[0].origin", 18, "digit 1 of `D`"),
+    Case("fourteen-gap-too-narrow", "digits[0].gap", 23, "three leads cross the centre of each digit side by side"),
     Case("overlapping-digits", "digits[0].pitch", 21, "digit 2 of `D` overlaps digit 1 of `D`"),
     Case(
         "overlapping-groups",
