@@ -84,7 +84,7 @@ const SCHEMA_TAKES: &[(&str, &[&str])] = &[
             "bus-unknown-net", "decimal-point-index", "digit-outside-window", "digit-over-icon",
             "duplicate-net", "fill-port-in-corner", "fill-port-on-pad-side", "film-below-process",
             "fixed-com-beyond-duty", "fixed-pin-off-row", "fixed-pin-twice",
-            "fixed-unknown-element", "gauge-parts-touch", "gauge-unknown", "glass-grid-too-big",
+            "fixed-unknown-element", "fourteen-gap-too-narrow", "gauge-parts-touch", "gauge-unknown", "glass-grid-too-big",
             "icon-two-shapes", "legend-wider-than-window", "missing-key", "no-ledge",
             "overlapping-digits", "overlapping-groups", "pads-count-too-small", "pads-dont-fit",
             "panel-lane-wide", "panel-substrate-small", "ring-inner", "saturation-below-threshold",
