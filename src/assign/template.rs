@@ -167,7 +167,10 @@ macro_rules! fourteen {
                 ("a", 0, 7),
             ],
             passages: &[],
-            colon: None,
+            // A colon's upper dot beside the upper halves, on their common; the lower
+            // dot on the lower halves' (on the common between, each dot would be shut in
+            // by the leads that run down between the digits).
+            colon: Some([0, $bottom]),
             lends_free_places: false,
             // `g2`–`c` and `f`–`d` first, then the three joins through the centre node
             // (`h`–`m`, `i`–`l`, `j`–`k`). Routed by their distance to the pads, the

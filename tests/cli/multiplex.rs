@@ -97,6 +97,30 @@ fn fourteen_segments_at_third_duty_route_on_the_outer_commons() {
     assert!(err.contains("the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM3"), "{err}");
 }
 
+/// A colon after a fourteen-segment character routes at 1/2, 1/3 and 1/4 duty: its upper
+/// dot on the upper halves' common (COM1), its lower dot on the lower halves' (the last),
+/// both on one SEG line of their own. On a middle common either dot would be shut in by
+/// the leads that run down between the characters.
+#[test]
+fn colon_beside_fourteen_segments_routes_on_the_outer_commons() {
+    let base = std::fs::read_to_string(root().join("tests/fixtures/fourteen/clock.yaml")).unwrap();
+    for commons in [2, 3, 4] {
+        let dir = tempfile::tempdir().unwrap();
+        let layout = dir.path().join("fourteen-clock.yaml");
+        std::fs::write(&layout, base.replace("DUTY", &format!("1/{commons}"))).unwrap();
+        let (code, err) = build(&layout, dir.path());
+        assert_eq!(code, Some(0), "1/{commons}: {err}");
+        assert!(err.contains("0 error(s), 0 warning(s)"), "1/{commons}: {err}");
+        let segmap = rows(&dir.path().join("fourteen-clock.segmap.csv"));
+        let dot = |name: &str| segmap.iter().find(|r| r[0] == name).unwrap_or_else(|| panic!("{name} missing: {segmap:?}")).clone();
+        let (top, bottom) = (dot("T2.col_top"), dot("T2.col_bottom"));
+        assert_eq!((top[2].as_str(), bottom[2].clone()), ("1", commons.to_string()), "1/{commons}");
+        assert_eq!(top[5], bottom[5], "1/{commons}: both dots on one SEG line");
+        let others = segmap.iter().filter(|r| r[5] == top[5]).count();
+        assert_eq!(others, 2, "1/{commons}: the colon's line carries nothing else");
+    }
+}
+
 #[test]
 fn four_digit_quarter_duty_demo_routes_itself() {
     assert_multiplexed_demo("kiln-controller", 4);
