@@ -161,6 +161,16 @@ pub enum Side {
 }
 
 impl Side {
+    /// The side across the glass.
+    pub fn opposite(self) -> Side {
+        match self {
+            Side::Bottom => Side::Top,
+            Side::Top => Side::Bottom,
+            Side::Left => Side::Right,
+            Side::Right => Side::Left,
+        }
+    }
+
     /// Lower-case name as written in layouts.
     pub fn name(self) -> &'static str {
         match self {
@@ -299,12 +309,26 @@ pub struct Pads {
     pub edge_margin: f64,
     /// Number of the first pin.
     pub first_pin: u32,
+    /// A second row whose `first_pin` was not given: its pins follow on from the first
+    /// row's last pad position (numbered in the route stage, which knows that).
+    pub pins_follow: bool,
     /// Centre of the first pad along the side; `None` centres the row on the back plate.
     pub start: Option<f64>,
     /// Number of pad positions; `None` makes exactly as many as there are nets.
     pub count: Option<u32>,
-    /// Fixed pins: net name → pin number.
+    /// Fixed pins: net name → pin number (on either row).
     pub fixed: BTreeMap<String, u32>,
+    /// A second pad row on the opposite side, for the SEG lines of the digits behind
+    /// another row as seen from this one (`assign::tiers`), which would otherwise go
+    /// round the seal; `None` for one row.
+    pub second_row: Option<Box<Pads>>,
+}
+
+impl Pads {
+    /// The rows: this one, then the second row if any.
+    pub fn rows(&self) -> impl Iterator<Item = &Pads> {
+        std::iter::once(self).chain(self.second_row.as_deref())
+    }
 }
 
 /// Which side of the display the viewer looks from, as a clock face on the glass seen

@@ -2,14 +2,16 @@
 //!
 //! Takes the artwork's pins and nets, gives a CSV table (RFC 4180: comma separated,
 //! CRLF-free `\n` line ends, fields with commas, quotes or line breaks quoted and inner
-//! quotes doubled) with header `pin,net,plate,role,index,drives`, one row per pin, sorted
-//! by pin. `role` is `COM` or `SEG`; `index` is the 1-based COM index or SEG line.
+//! quotes doubled) with header `pin,net,plate,role,index,drives,side`, one row per pin,
+//! sorted by pin. `role` is `COM` or `SEG`; `index` is the 1-based COM index or SEG line;
+//! `side` is the ledge the pad lies on, read from where the pad lies off the back glass
+//! (with two pad rows, which connector the pin is on).
 
 use super::csv::field;
 use crate::artwork::{Artwork, NetKind};
 
 /// Header line of the pin map.
-pub const HEADER: &str = "pin,net,plate,role,index,drives\n";
+pub const HEADER: &str = "pin,net,plate,role,index,drives,side\n";
 
 /// Name of a net kind in the pin and segment maps.
 pub fn role_name(kind: NetKind) -> &'static str {
@@ -31,9 +33,25 @@ pub fn render_pins(art: &Artwork) -> Vec<u8> {
         let role = net.map(|n| role_name(n.kind)).unwrap_or("");
         let index = net.map(|n| (n.index + 1).to_string()).unwrap_or_default();
         let drives = net.map(|n| n.drives.as_str()).unwrap_or("");
-        out.push_str(&format!("{},{},{plate},{role},{index},{}\n", p.number, field(&p.net), field(drives)));
+        let side = ledge_side(art, &p.pad);
+        out.push_str(&format!("{},{},{plate},{role},{index},{},{side}\n", p.number, field(&p.net), field(drives)));
     }
     out.into_bytes()
+}
+
+/// The side of the glass whose ledge holds `pad`: where its centre lies off the back
+/// glass's bounding box (the side it lies farthest beyond); empty for a pad over the
+/// back glass, which no layout makes.
+fn ledge_side(art: &Artwork, pad: &crate::geom::Polygon) -> &'static str {
+    use geo::{BoundingRect, Centroid};
+    let (Some(b), Some(c)) = (art.back_glass.bounding_rect(), pad.centroid()) else { return "" };
+    let beyond = [
+        ("bottom", b.min().y - c.y()),
+        ("top", c.y() - b.max().y),
+        ("left", b.min().x - c.x()),
+        ("right", c.x() - b.max().x),
+    ];
+    beyond.into_iter().filter(|(_, d)| *d > 0.0).max_by(|a, b| a.1.total_cmp(&b.1)).map(|(s, _)| s).unwrap_or("")
 }
 
 #[cfg(test)]
@@ -51,11 +69,11 @@ mod tests {
         art.nets[0].drives = "digit 1, segment a".into();
         let csv = String::from_utf8(render_pins(&art)).unwrap();
         let want = concat!(
-            "pin,net,plate,role,index,drives\n",
-            "1,S1,front,SEG,1,\"digit 1, segment a\"\n",
-            "2,S2,front,SEG,2,fixture S2\n",
-            "3,COM1,back,COM,1,fixture COM1\n",
-            "9,stray,,,,\n",
+            "pin,net,plate,role,index,drives,side\n",
+            "1,S1,front,SEG,1,\"digit 1, segment a\",bottom\n",
+            "2,S2,front,SEG,2,fixture S2,bottom\n",
+            "3,COM1,back,COM,1,fixture COM1,bottom\n",
+            "9,stray,,,,,bottom\n",
         );
         assert_eq!(csv, want);
     }

@@ -102,7 +102,7 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
                 problems.push(layout.problem(
                     &format!("{}.decimal_points", g.key),
                     format!(
-                        "the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {} mm",
+                        "the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {:.4} mm",
                         g.gap
                     ),
                     Some(fix),

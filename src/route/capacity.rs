@@ -19,7 +19,8 @@
 //!    spacing `dots::place_transfer_dots` uses.
 //! 3. *Room in the ring*: the far tier's SEG lines, half round each end of the glass,
 //!    fit the seal band at the lead pitch (`ring::lanes_that_fit`, what `ring::carry`
-//!    places).
+//!    places). With a second pad row on the far side (`pads.second_row`) they go to it
+//!    instead and there is no ring.
 
 use super::side::SideFrame;
 use crate::electrode::Electrodes;
@@ -117,6 +118,9 @@ fn rows_in_the_way(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Vec<I
 /// Check 3: the far tier's SEG lines fit the seal band round each end, as
 /// `ring::carry` splits and places them.
 fn ring_room(layout: &Layout, el: &Electrodes) -> Option<InputProblem> {
+    if layout.pads.second_row.is_some() {
+        return None;
+    }
     let a = &el.assignment;
     let far_lines = el.segs.iter().filter(|s| a.far_line(s.index)).count();
     let lanes = far_lines.div_ceil(2);
@@ -140,7 +144,8 @@ fn ring_room(layout: &Layout, el: &Electrodes) -> Option<InputProblem> {
 /// Check 2: the transfer dots fit in the seal beside the pad row, spaced as
 /// `dots::place_transfer_dots` spaces them, whatever the row's position.
 fn dot_room(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Option<InputProblem> {
-    let any_far = el.assignment.far.iter().any(|f| *f);
+    // With a second pad row the far tier's own dots go beside it, on the far side.
+    let any_far = el.assignment.far.iter().any(|f| *f) && layout.pads.second_row.is_none();
     let commons = el.coms.len() + super::dots::far_tier_dots(el.coms.len(), any_far).len();
     if commons == 0 {
         return None;
@@ -173,9 +178,12 @@ fn fmt_mm(v: f64) -> String {
     format!("{v:.3} mm")
 }
 
-/// Pads the row holds: every net (SEG lines and commons), or the count the layout fixes.
+/// Pads the row holds: every net (SEG lines and commons; with a second row, not the far
+/// tier's lines), or the count the layout fixes.
 fn pad_count(layout: &Layout, el: &Electrodes) -> usize {
-    let nets = el.segs.len() + el.coms.len();
+    let second = layout.pads.second_row.is_some();
+    let segs = el.segs.iter().filter(|s| !(second && el.assignment.far_line(s.index))).count();
+    let nets = segs + el.coms.len();
     layout.pads.count.map(|c| (c as usize).max(nets)).unwrap_or(nets)
 }
 

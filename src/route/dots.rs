@@ -13,16 +13,17 @@ use super::side::SideFrame;
 use crate::geom::{pt, Pt};
 use crate::layout::Layout;
 
-/// Local (u, v) centre of each common's dot, in common order, then of each extra dot in
+/// Local (u, v) centre of each common's dot (`commons` of them, none beside a second
+/// pad row), in common order, then of each extra dot in
 /// `extra` order; `None` when they do not fit in the seal on the pad side. `us` are the
 /// `u` of every lead arrival and pad that comes straight from the window; `reach` is how
 /// far the ring's lanes (`ring.rs`) come in from each end of the side, which the dots
 /// keep a pitch clear of. `extra` are second dots for commons of the far tier, each
 /// `(common, at the low-u end)`, placed outermost (see [`far_tier_dots`]).
-pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch: f64, commons: usize, reach: (f64, f64), extra: &[(usize, bool)]) -> Option<Vec<Pt>> {
+pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, pad_width: f64, us: &[f64], pitch: f64, commons: usize, reach: (f64, f64), extra: &[(usize, bool)]) -> Option<Vec<Pt>> {
     let tpad = layout.transfer.pad;
     let (lo, hi) = us.iter().fold((f64::MAX, f64::MIN), |(a, b), u| (a.min(*u), b.max(*u)));
-    let clear = tpad / 2.0 + pitch + layout.pads.width / 2.0;
+    let clear = tpad / 2.0 + pitch + pad_width / 2.0;
     let min_u = (frame.u_back.0 + layout.seal.inset).max(reach.0 + pitch) + tpad / 2.0;
     let max_u = (frame.u_back.1 - layout.seal.inset).min(reach.1 - pitch) - tpad / 2.0;
     let step = tpad + pitch;
@@ -33,7 +34,10 @@ pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, us: &[f64], pitch
     let top = frame.side == crate::layout::Side::Top;
     let mirror = |c: usize| if top { commons - 1 - c } else { c };
     // Each side's dots, innermost first.
-    let (mut left, mut right): (Vec<usize>, Vec<usize>) = if commons == 1 {
+    let (mut left, mut right): (Vec<usize>, Vec<usize>) = if commons == 0 {
+        // A second pad row: only the far tier's own dots (`extra`) go beside it.
+        (vec![], vec![])
+    } else if commons == 1 {
         (vec![0], vec![])
     } else {
         let right = vec![mirror(commons - 1), mirror(0)];
@@ -110,11 +114,11 @@ mod tests {
         let layout = crate::layout::fixture::tiny_layout();
         let frame = SideFrame::of(&layout);
         let us = [12.0, 18.0];
-        let at = place_transfer_dots(&layout, &frame, &us, 0.3, 4, frame.u_back, &[]).unwrap();
+        let at = place_transfer_dots(&layout, &frame, layout.pads.width, &us, 0.3, 4, frame.u_back, &[]).unwrap();
         assert!(at[0].x > at[3].x && at[3].x > 18.0);
         assert!(at[1].x < at[2].x && at[2].x < 12.0);
         assert!((at[0].x - at[3].x - (layout.transfer.pad + 0.3)).abs() < 1e-9);
-        let one = place_transfer_dots(&layout, &frame, &us, 0.3, 1, frame.u_back, &[]).unwrap();
+        let one = place_transfer_dots(&layout, &frame, layout.pads.width, &us, 0.3, 1, frame.u_back, &[]).unwrap();
         assert!(one[0].x < 12.0);
     }
 
@@ -135,12 +139,12 @@ mod tests {
                 let (first_min, last_max) = (edge, frame.side_length() - edge - span);
                 let placed = (0..=400).any(|i| {
                     let lo = first_min + (last_max - first_min) * i as f64 / 400.0;
-                    place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons, frame.u_back, &[]).is_some()
+                    place_transfer_dots(&layout, &frame, layout.pads.width, &[lo, lo + span], 0.3, commons, frame.u_back, &[]).is_some()
                 }) || [first_min, last_max]
                     .into_iter()
                     .chain(tight_starts(&layout, &frame, commons))
                     .filter(|lo| (first_min..=last_max).contains(lo))
-                    .any(|lo| place_transfer_dots(&layout, &frame, &[lo, lo + span], 0.3, commons, frame.u_back, &[]).is_some());
+                    .any(|lo| place_transfer_dots(&layout, &frame, layout.pads.width, &[lo, lo + span], 0.3, commons, frame.u_back, &[]).is_some());
                 assert_eq!(placed, fits, "{commons} commons, span {span}");
             }
         }

@@ -112,21 +112,34 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let mut findings = Vec::new();
     let far_frame = SideFrame::opposite(layout);
     let mut escapes = escape::escape_all(layout, el, &frame, &far_frame, &mut findings);
-    let carried = ring::carry(layout, &frame, &escapes.far_arrivals).map_err(|r| {
-        crate::Error::input(layout.problem(
-            "seal.width",
-            format!(
-                "the digits behind another row lead {} SEG lines round each end of the glass in the seal band, which holds {} at this lead width and gap",
-                r.lanes, r.room
-            ),
-            Some("a wider seal, a smaller lead width and gap, or fewer lines behind the front row".into()),
-        ))
-    })?;
     let extra = dots::far_tier_dots(el.coms.len(), el.assignment.far.iter().any(|f| *f));
-    let near = Near { count: escapes.arrivals.len(), reach: carried.reach, extra: &extra };
+    let second = layout.pads.second_row.as_deref();
+    // Without a second pad row the far tier's leads go round the seal to the pad side
+    // and its own dots sit beside the one row; with one, both go to the second row.
+    let (carried, near_extra, far_extra) = match second {
+        None => (ring_carry(layout, &frame, &escapes.far_arrivals)?, extra.clone(), Vec::new()),
+        Some(_) => (ring::Carried { arrivals: Vec::new(), reach: frame.u_back }, Vec::new(), extra.clone()),
+    };
+    let near = Near { count: escapes.arrivals.len(), reach: carried.reach, extra: &near_extra };
     escapes.arrivals.extend(carried.arrivals);
     let mut leads: Vec<Lead> = user_buses(layout);
-    let (pads, transfers, fan) = plan_pads_and_fanout(layout, el, &frame, &escapes, near, &mut findings)?;
+    let near_lines = el.segs.iter().filter(|s| second.is_none() || !el.assignment.far_line(s.index)).count();
+    let first_row = RowPlan { pads: &layout.pads, frame: &frame, commons: el.coms.len(), lines: near_lines };
+    let (mut pads, mut transfers, mut fan) = plan_pads_and_fanout(layout, el, first_row, &escapes.arrivals, near, &mut findings)?;
+    if let Some(row) = second {
+        let mut row = row.clone();
+        if row.pins_follow {
+            row.first_pin = first_row_end(layout, &pads);
+        }
+        let far = Near { count: escapes.far_arrivals.len(), reach: far_frame.u_back, extra: &far_extra };
+        let plan = RowPlan { pads: &row, frame: &far_frame, commons: 0, lines: el.segs.len() - near_lines };
+        let (p2, t2, f2) = plan_pads_and_fanout(layout, el, plan, &escapes.far_arrivals, far, &mut findings)?;
+        check_row_fits(layout, &row, &far_frame, &p2)?;
+        pads.extend(p2);
+        transfers.extend(t2);
+        fan.extend(f2);
+        check_fixed_pins(layout, &pads, &mut findings);
+    }
     for (net, path) in escapes.joins.iter().chain(fan.iter()) {
         leads.push(front_lead(layout, net, path.clone()));
     }
@@ -137,6 +150,72 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let back = back::route_commons(layout, el, &front_leads, &transfers, &mut findings);
     leads.extend(back.leads);
     Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings })
+}
+
+/// The far tier's leads carried round the seal ([`ring::carry`]), or the located reason
+/// they do not fit.
+fn ring_carry(layout: &Layout, frame: &SideFrame, far: &[(String, Vec<Pt>)]) -> Result<ring::Carried> {
+    ring::carry(layout, frame, far).map_err(|r| {
+        crate::Error::input(layout.problem(
+            "seal.width",
+            format!(
+                "the digits behind another row lead {} SEG lines round each end of the glass in the seal band, which holds {} at this lead width and gap",
+                r.lanes, r.room
+            ),
+            Some("a wider seal, a smaller lead width and gap, a second pad row on the far side (`pads.second_row`), or fewer lines behind the front row".into()),
+        ))
+    })
+}
+
+/// The pin after the first row's last pad position (the second row's pins follow on).
+fn first_row_end(layout: &Layout, pads: &[PadSite]) -> u32 {
+    let p = &layout.pads;
+    let placed = pads.iter().map(|s| s.pin + 1).max().unwrap_or(p.first_pin);
+    placed.max(p.first_pin + p.count.unwrap_or(0))
+}
+
+/// The second row's pads lie on its ledge, `edge_margin` clear of both ends of the glass
+/// (the spec stage checks this for the first row, whose length it knows).
+fn check_row_fits(layout: &Layout, row: &crate::layout::Pads, frame: &SideFrame, pads: &[PadSite]) -> Result<()> {
+    let (lo, hi) = (row.edge_margin - 1e-9, frame.side_length() - row.edge_margin + 1e-9);
+    let out = pads.iter().any(|s| s.outline.exterior().0.iter().any(|q| !(lo..=hi).contains(&frame.to_local(*q).x)));
+    if !out {
+        return Ok(());
+    }
+    let n = pads.len();
+    Err(crate::Error::input(layout.problem(
+        "pads.second_row.pitch",
+        format!(
+            "the {n} pads of the second row (the lines of the digits behind the front row) do not fit on the {} ledge at pitch {:.3} mm ({:.3} mm of glass, edge_margin {:.3} mm at each end)",
+            row.side.name(),
+            row.pitch,
+            frame.side_length(),
+            row.edge_margin
+        ),
+        Some("a smaller pitch for the second row, or fewer lines behind the front row".into()),
+    )))
+}
+
+/// A fixed pin whose net's lead reaches the other row (or no pad) is reported: the rows
+/// are chosen by where each line's digits lie (`assign::tiers`), and a fixed pin on the
+/// other row would need its lead to cross the glass.
+fn check_fixed_pins(layout: &Layout, pads: &[PadSite], findings: &mut Vec<Finding>) {
+    for (net, &pin) in &layout.pads.fixed {
+        let Some(site) = pads.iter().find(|s| &s.net == net) else { continue };
+        if site.pin != pin {
+            let c = site.outline.exterior().0.first().copied().unwrap_or(crate::geom::pt(0.0, 0.0));
+            findings.push(Finding {
+                rule: Rule::Unroutable,
+                severity: Severity::Error,
+                plate: Some(PlateId::Front),
+                nets: vec![net.clone()],
+                location: c,
+                measured: None,
+                required: None,
+                message: format!("`{net}` is fixed to pin {pin} but its lead reaches pin {} on the other pad row: lines of the digits behind the front row go to the second row", site.pin),
+            });
+        }
+    }
 }
 
 /// The note saying which commons come out on a second pin ([`dots::far_tier_dots`]) and
@@ -157,12 +236,13 @@ fn second_pins_note(layout: &Layout, el: &Electrodes, extra: &[(usize, bool)], t
         measured: None,
         required: None,
         message: format!(
-            "{} pins ({} COM + {segs} SEG) where {n} + ⌈{s}/{n}⌉ = {} is the fewest for {s} elements at 1/{n} duty: {} of the row behind the front row as seen from the pads, {}, reach a transfer dot of their own round the seal, so each comes out on a second pin; join each pair on the board the glass plugs into",
+            "{} pins ({} COM + {segs} SEG) where {n} + ⌈{s}/{n}⌉ = {} is the fewest for {s} elements at 1/{n} duty: {} of the row behind the front row as seen from the pads, {}, reach a transfer dot of their own {}, so each comes out on a second pin; join each pair on the board the glass plugs into",
             n + extra.len() + segs,
             n + extra.len(),
             n + s.div_ceil(n),
             nets.join(" and "),
             far_rows(layout, el),
+            if layout.pads.second_row.is_some() { "beside the second pad row" } else { "round the seal" },
         ),
     })
 }
@@ -243,8 +323,7 @@ struct FanLevels {
 /// a row off to one side, or out of step with the leads, needs more levels than the
 /// ledge holds (moving the rain-gauge demo's digits 0.5 mm sideways did that). When the
 /// row cannot move it stays centred on the back glass.
-fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize, arrivals: &[fanout::Arrival], levels: impl Fn(f64, usize) -> usize) -> Vec<(f64, Polygon)> {
-    let p = &layout.pads;
+fn pad_row(p: &crate::layout::Pads, frame: &SideFrame, needed: usize, arrivals: &[fanout::Arrival], levels: impl Fn(f64, usize) -> usize) -> Vec<(f64, Polygon)> {
     let n = p.count.map(|c| c as usize).unwrap_or(needed).max(needed);
     let row = (n as f64 - 1.0) * p.pitch;
     let first = match p.start {
@@ -279,12 +358,12 @@ fn pad_row(layout: &Layout, frame: &SideFrame, needed: usize, arrivals: &[fanout
 /// The deepest level the fan-out from `arrivals` plus the transfer dots placed beside them
 /// needs onto a row of `n` pads from `first` at `pitch` (`usize::MAX` when the dots do not
 /// fit).
-fn fan_levels(layout: &Layout, frame: &SideFrame, arrivals: &[fanout::Arrival], near: Near<'_>, commons: usize, first: f64, n: usize, fan: FanLevels) -> usize {
-    let pitch = layout.pads.pitch;
+fn fan_levels(layout: &Layout, row: RowPlan<'_>, arrivals: &[fanout::Arrival], near: Near<'_>, first: f64, n: usize, fan: FanLevels) -> usize {
+    let (frame, commons, pitch) = (row.frame, row.commons, row.pads.pitch);
     let pads: Vec<f64> = (0..n).map(|i| first + i as f64 * pitch).collect();
     let mut arrivals = arrivals.to_vec();
     let us: Vec<f64> = arrivals[..near.count].iter().map(|a| a.u).chain(pads.iter().copied()).collect();
-    let Some(dots) = dots::place_transfer_dots(layout, frame, &us, fan.pitch, commons, near.reach, near.extra) else { return usize::MAX };
+    let Some(dots) = dots::place_transfer_dots(layout, frame, row.pads.width, &us, fan.pitch, commons, near.reach, near.extra) else { return usize::MAX };
     arrivals.extend(dots.iter().map(|d| fanout::Arrival { u: d.x, v: d.y }));
     arrivals.sort_by(|a, b| a.u.total_cmp(&b.u));
     let us: Vec<f64> = arrivals.iter().map(|a| a.u).collect();
@@ -295,32 +374,41 @@ fn fan_levels(layout: &Layout, frame: &SideFrame, arrivals: &[fanout::Arrival], 
 
 type Planned = (Vec<PadSite>, Vec<TransferSite>, Vec<(String, Vec<Pt>)>);
 
+/// One pad row to plan: its pads, its side's frame, how many of the commons' transfer
+/// dots go beside it (the first row: all; a second row: none, only the far tier's own)
+/// and how many SEG lines it takes.
+#[derive(Clone, Copy)]
+struct RowPlan<'a> {
+    pads: &'a crate::layout::Pads,
+    frame: &'a SideFrame,
+    commons: usize,
+    lines: usize,
+}
+
 fn plan_pads_and_fanout(
     layout: &Layout,
     el: &Electrodes,
-    frame: &SideFrame,
-    escapes: &escape::Escapes,
+    row_plan: RowPlan<'_>,
+    escaped: &[(String, Vec<Pt>)],
     near: Near<'_>,
     findings: &mut Vec<Finding>,
 ) -> Result<Planned> {
-    let p = &layout.pads;
-    let nets_needed = el.segs.len() + el.coms.len() + near.extra.len();
+    let (p, frame, commons) = (row_plan.pads, row_plan.frame, row_plan.commons);
+    let nets_needed = row_plan.lines + commons + near.extra.len();
     let pitch = lead_pitch(layout);
     // With several transfer dots side by side in the seal, horizontal runs stay below the
     // seal band so that no lead passes under another common's dot.
-    let v_top = if el.coms.len() > 1 { frame.v_lc - layout.seal.width - pitch } else { frame.v_lc - pitch };
-    let seg_arrivals: Vec<fanout::Arrival> = escapes
-        .arrivals
+    let v_top = if commons + near.extra.len() > 1 { frame.v_lc - layout.seal.width - pitch } else { frame.v_lc - pitch };
+    let seg_arrivals: Vec<fanout::Arrival> = escaped
         .iter()
         .filter_map(|(_, path)| path.last())
         .map(|q| frame.to_local(*q))
         .map(|q| fanout::Arrival { u: q.x, v: q.y })
         .collect();
     let fan = FanLevels { v_top, pitch };
-    let row = pad_row(layout, frame, nets_needed, &seg_arrivals, |first, n| fan_levels(layout, frame, &seg_arrivals, near, el.coms.len(), first, n, fan));
+    let row = pad_row(p, frame, nets_needed, &seg_arrivals, |first, n| fan_levels(layout, row_plan, &seg_arrivals, near, first, n, fan));
     // Arrivals in local (u, v) with their nets; the common's arrival is its transfer dot.
-    let mut arrivals: Vec<(String, Vec<Pt>, fanout::Arrival)> = escapes
-        .arrivals
+    let mut arrivals: Vec<(String, Vec<Pt>, fanout::Arrival)> = escaped
         .iter()
         .map(|(net, path)| {
             let end = frame.to_local(*path.last().expect("escape paths are never empty"));
@@ -329,15 +417,15 @@ fn plan_pads_and_fanout(
         .collect();
     let tpad = layout.transfer.pad;
     let us: Vec<f64> = arrivals[..near.count].iter().map(|a| a.2.u).chain(row.iter().map(|r| r.0)).collect();
-    let dots = dots::place_transfer_dots(layout, frame, &us, pitch, el.coms.len(), near.reach, near.extra).ok_or_else(|| {
+    let dots = dots::place_transfer_dots(layout, frame, p.width, &us, pitch, commons, near.reach, near.extra).ok_or_else(|| {
         crate::Error::input(layout.problem(
             "pads",
-            format!("no room in the seal beside the pad row for the {} transfer dot(s) of the common electrodes", el.coms.len()),
+            format!("no room in the seal beside the pad row for the {} transfer dot(s) of the common electrodes", commons + near.extra.len()),
             Some("a shorter pad row (`pads.start`, `pads.pitch`) or a wider back plate".into()),
         ))
     })?;
     let mut transfers = Vec::new();
-    let common_of = |i: usize| if i < el.coms.len() { &el.coms[i] } else { &el.coms[near.extra[i - el.coms.len()].0] };
+    let common_of = |i: usize| if i < commons { &el.coms[i] } else { &el.coms[near.extra[i - commons].0] };
     for (i, dot) in dots.into_iter().enumerate() {
         let c = common_of(i);
         let dot_at = frame.to_global(dot);
@@ -357,7 +445,7 @@ fn plan_pads_and_fanout(
     let mut pad_of: Vec<Option<usize>> = vec![None; arrivals.len()];
     let mut taken = vec![false; row.len()];
     for (i, (net, _, _)) in arrivals.iter().enumerate() {
-        if let Some(&pin) = p.fixed.get(net) {
+        if let Some(&pin) = layout.pads.fixed.get(net).filter(|&&pin| pin >= p.first_pin) {
             let k = (pin - p.first_pin) as usize;
             if k < row.len() {
                 pad_of[i] = Some(k);

@@ -16,8 +16,8 @@ pub fn check_fit(p: &mut Problems, l: &Layout) {
     if p.clean(&["glass", "seal.inset", "seal.width"]) && seal_region(p, l) && p.clean(&["window"]) {
         window_inside(p, l);
     }
-    if p.clean(&["glass", "pads.side", "pads.length", "pads.edge_margin"])
-        && ledge(p, l)
+    if p.clean(&["glass", "pads.side", "pads.length", "pads.edge_margin", "pads.second_row"])
+        && l.pads.rows().zip(ROW_KEYS).all(|(row, key)| ledge(p, l, row, key))
         && p.clean(&["pads", "drive", "digits", "legends", "icons", "bars"])
     {
         pad_row(p, l);
@@ -92,31 +92,59 @@ pub fn ledge_depth(l: &Layout, s: Side) -> f64 {
     }
 }
 
-fn ledge(p: &mut Problems, l: &Layout) -> bool {
-    let need = l.pads.length + l.pads.edge_margin;
-    let depth = ledge_depth(l, l.pads.side);
+/// The keys of the first and second pad rows.
+const ROW_KEYS: [&str; 2] = ["pads", "pads.second_row"];
+
+fn ledge(p: &mut Problems, l: &Layout, row: &crate::layout::Pads, key: &str) -> bool {
+    let need = row.length + row.edge_margin;
+    let depth = ledge_depth(l, row.side);
     if depth + 1e-9 >= need {
         return true;
     }
     let fits: Vec<&str> = SIDES.iter().filter(|(_, s)| ledge_depth(l, *s) + 1e-9 >= need).map(|(n, _)| *n).collect();
     let allowed = if fits.is_empty() {
         format!("none: no side of the front glass extends {} beyond the back glass", mm(need))
-    } else {
+    } else if key == "pads" {
         fits.join(", ")
+    } else {
+        format!("a front glass extending {} beyond the back glass on the {} side", mm(need), row.side.name())
     };
     p.add(
-        "pads.side",
+        &format!("{key}.side"),
         format!(
             "the front glass extends {} beyond the back glass on the {} side; pads need a ledge of {} (length {} + edge_margin {})",
             mm(depth.max(0.0)),
-            l.pads.side.name(),
+            row.side.name(),
             mm(need),
-            mm(l.pads.length),
-            mm(l.pads.edge_margin)
+            mm(row.length),
+            mm(row.edge_margin)
         ),
         Some(allowed),
     );
     false
+}
+
+/// Where a row of `n` pads starts (its given start, or centred on the back glass) and
+/// how many pads fit from there (or centred) within the edge margins.
+fn row_room(l: &Layout, row: &crate::layout::Pads, n: u32) -> (f64, bool, u64) {
+    let side_len = side_length(&l.glass.front, row.side);
+    let back = &l.glass.back;
+    let back_centre = match row.side {
+        Side::Bottom | Side::Top => back.x + back.width / 2.0,
+        Side::Left | Side::Right => back.y + back.height / 2.0,
+    };
+    let span = f64::from(n.saturating_sub(1)) * row.pitch;
+    let first = row.start.unwrap_or(back_centre - span / 2.0);
+    let (lo, hi) = (first - row.width / 2.0, first + span + row.width / 2.0);
+    let m = row.edge_margin;
+    let fits_all = lo >= m - 1e-9 && hi <= side_len - m + 1e-9;
+    let room = match row.start {
+        Some(s) if s - row.width / 2.0 >= m => side_len - m - row.width / 2.0 - s,
+        Some(_) => -1.0,
+        None => 2.0 * (back_centre - m).min(side_len - m - back_centre) - row.width,
+    };
+    let fit = if room < 0.0 { 0 } else { (room / row.pitch + 1e-9).floor() as u64 + 1 };
+    (first, fits_all, fit)
 }
 
 fn pad_row(p: &mut Problems, l: &Layout) {
@@ -128,31 +156,30 @@ fn pad_row(p: &mut Problems, l: &Layout) {
     } else {
         format!("{} commons + {elements} elements shared {} to a line", l.drive.commons, l.drive.commons)
     };
+    if let Some(second) = pads.second_row.as_deref() {
+        // Which row each line takes is known only after assignment; here both rows
+        // together must hold what is needed (the route stage checks each row).
+        let rows = [pads, second];
+        let fit: u64 = rows.iter().map(|r| r.count.map(u64::from).unwrap_or_else(|| row_room(l, r, 1).2)).sum();
+        if fit < u64::from(needed) {
+            p.bad(
+                "pads.pitch",
+                format!("{needed} pads are needed ({why}) but only {fit} fit on the {} and {} ledges at these pitches", pads.side.name(), second.side.name()),
+                "a smaller pitch, fewer elements, multiplexed drive or longer ledges",
+            );
+        }
+        return;
+    }
     if let Some(c) = pads.count.filter(|c| *c < needed) {
         p.bad("pads.count", format!("{c} pads given but {needed} are needed ({why})"), &format!("at least {needed}"));
         return;
     }
     let n = pads.count.unwrap_or(needed);
-    let side_len = side_length(&l.glass.front, pads.side);
-    let back = &l.glass.back;
-    let back_centre = match pads.side {
-        Side::Bottom | Side::Top => back.x + back.width / 2.0,
-        Side::Left | Side::Right => back.y + back.height / 2.0,
-    };
-    let row = f64::from(n.saturating_sub(1)) * pads.pitch;
-    let first = pads.start.unwrap_or(back_centre - row / 2.0);
-    let (lo, hi) = (first - pads.width / 2.0, first + row + pads.width / 2.0);
-    let m = pads.edge_margin;
-    if lo >= m - 1e-9 && hi <= side_len - m + 1e-9 {
+    let (first, fits_all, fit) = row_room(l, pads, n);
+    if fits_all {
         return;
     }
-    // How many would fit from the same start (or centred on the back glass).
-    let room = match pads.start {
-        Some(s) if s - pads.width / 2.0 >= m => side_len - m - pads.width / 2.0 - s,
-        Some(_) => -1.0,
-        None => 2.0 * (back_centre - m).min(side_len - m - back_centre) - pads.width,
-    };
-    let fit = if room < 0.0 { 0 } else { (room / pads.pitch + 1e-9).floor() as u64 + 1 };
+    let side_len = side_length(&l.glass.front, pads.side);
     let placed =
         if pads.start.is_some() { format!("from start {}", mm(first)) } else { "centred on the back glass".into() };
     let key = if pads.start.is_some() { "pads.start" } else { "pads.pitch" };
@@ -163,7 +190,7 @@ fn pad_row(p: &mut Problems, l: &Layout) {
             pads.side.name(),
             mm(pads.pitch),
             mm(side_len),
-            mm(m)
+            mm(pads.edge_margin)
         ),
         "a smaller pitch, fewer elements, multiplexed drive or a longer ledge",
     );
@@ -171,8 +198,8 @@ fn pad_row(p: &mut Problems, l: &Layout) {
 
 fn fill_port(p: &mut Problems, l: &Layout) {
     let s = &l.seal;
-    if s.port_side == l.pads.side {
-        let others: Vec<&str> = SIDES.iter().filter(|(_, x)| *x != l.pads.side).map(|(n, _)| *n).collect();
+    if l.pads.rows().any(|r| r.side == s.port_side) {
+        let others: Vec<&str> = SIDES.iter().filter(|(_, x)| l.pads.rows().all(|r| r.side != *x)).map(|(n, _)| *n).collect();
         p.bad(
             "seal.fill_port.side",
             format!("the fill port cannot open onto the pad side ({})", s.port_side.name()),

@@ -148,7 +148,7 @@ fn resolve_all(p: &mut Problems, raw: &raw::RawLayout, path: &Path, opts: &Input
     let rules = resolve::rules(p, raw.rules.as_ref(), masks.process);
     masks.panel = raw.panel.as_ref().and_then(|r| panel::panel(p, r, &glass, &rules));
     let pads = resolve::pads(p, raw.pads.as_ref());
-    let seal = resolve::seal(p, raw.seal.as_ref(), pads.side, &glass.back);
+    let seal = resolve::seal(p, raw.seal.as_ref(), &pads, &glass.back);
     let drive = resolve::drive(p, raw.drive.as_ref());
     let digits = elements::digit_groups(p, raw.digits.as_deref().unwrap_or(&[]), &rules, drive.commons);
     let legends = elements::legends(p, raw.legends.as_deref().unwrap_or(&[]));

@@ -183,6 +183,7 @@ pub struct RawPads {
     pub start: Option<Scalar>,
     pub count: Option<Scalar>,
     pub fixed: Option<Entries<Scalar>>,
+    pub second_row: Option<Box<RawPads>>,
 }
 
 /// `drive:` — the word `static`, or a mapping with duty and bias.

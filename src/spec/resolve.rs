@@ -179,27 +179,23 @@ pub fn rules(p: &mut Problems, r: Option<&RawRules>, process: Process) -> Rules 
     rules
 }
 
-/// `seal:`; the fill port defaults to the side opposite the pads, centred on the back
-/// glass, 3 mm wide.
-pub fn seal(p: &mut Problems, s: Option<&RawSeal>, pad_side: Side, back: &Rect) -> Seal {
+/// `seal:`; the fill port defaults to the side opposite the pads (with a second pad row
+/// there, the left side, or the bottom when the pads are left and right), centred on the
+/// back glass, 3 mm wide.
+pub fn seal(p: &mut Problems, s: Option<&RawSeal>, pads: &Pads, back: &Rect) -> Seal {
+    let port_default = match (&pads.second_row, pads.side) {
+        (None, side) => side.opposite(),
+        (Some(_), Side::Bottom | Side::Top) => Side::Left,
+        (Some(_), Side::Left | Side::Right) => Side::Bottom,
+    };
     let width = p.length(s.and_then(|s| s.width.as_ref()), "seal.width", Some(1.0), Sign::Positive);
     let inset = p.length(s.and_then(|s| s.inset.as_ref()), "seal.inset", Some(1.5), Sign::NonNegative);
     let port = s.and_then(|s| s.fill_port.as_ref());
-    let port_side = p.word(port.and_then(|f| f.side.as_ref()), "seal.fill_port.side", &SIDES, Some(opposite(pad_side)));
+    let port_side = p.word(port.and_then(|f| f.side.as_ref()), "seal.fill_port.side", &SIDES, Some(port_default));
     let run = side_length(back, port_side);
     let port_at = p.length(port.and_then(|f| f.at.as_ref()), "seal.fill_port.at", Some(run / 2.0), Sign::NonNegative);
     let port_width = p.length(port.and_then(|f| f.width.as_ref()), "seal.fill_port.width", Some(3.0), Sign::Positive);
     Seal { width, inset, port_side, port_at, port_width }
-}
-
-/// The side facing `s`.
-pub fn opposite(s: Side) -> Side {
-    match s {
-        Side::Bottom => Side::Top,
-        Side::Top => Side::Bottom,
-        Side::Left => Side::Right,
-        Side::Right => Side::Left,
-    }
 }
 
 /// Length of side `s` of `r`.
@@ -224,37 +220,74 @@ pub fn transfer(p: &mut Problems, t: Option<&RawTransfer>) -> Transfer {
     Transfer { diameter, pad }
 }
 
-/// `pads:`; side and pitch are required.
+/// `pads:`; side and pitch are required. `pads.second_row`, if given, takes the side
+/// opposite (the only one allowed), and the first row's pitch, width, length and edge
+/// margin unless it gives its own; its pins are numbered on from the first row's unless
+/// it gives `first_pin`. Fixed pins are given once, under `pads.fixed`, for both rows.
 pub fn pads(p: &mut Problems, r: Option<&RawPads>) -> Pads {
     if r.is_none() {
         p.missing("pads", "a mapping with at least side and pitch");
     }
-    let get = |f: fn(&RawPads) -> &Option<Scalar>| r.and_then(|r| f(r).as_ref());
-    let side = if r.is_some() { p.word(get(|r| &r.side), "pads.side", &SIDES, None) } else { Side::Bottom };
-    let pitch = if r.is_some() { p.length(get(|r| &r.pitch), "pads.pitch", None, Sign::Positive) } else { 1.0 };
-    let width = p.length(get(|r| &r.width), "pads.width", Some(0.6 * pitch), Sign::Positive);
-    let length = p.length(get(|r| &r.length), "pads.length", Some(3.0), Sign::Positive);
-    let edge_margin = p.length(get(|r| &r.edge_margin), "pads.edge_margin", Some(0.3), Sign::NonNegative);
-    let first_pin = p.int(get(|r| &r.first_pin), "pads.first_pin", Some(1), 0);
-    let start = get(|r| &r.start).map(|v| p.length(Some(v), "pads.start", None, Sign::NonNegative));
-    let count = get(|r| &r.count).map(|v| p.int(Some(v), "pads.count", None, 1));
-    if let Some(n) = count.filter(|n| *n > super::limits::MAX_PADS) {
-        p.bad("pads.count", format!("{n} pads are more than one pad row takes"), &format!("1 to {}", super::limits::MAX_PADS));
-    }
-    let mut fixed = BTreeMap::new();
+    let mut first = pad_row(p, r, "pads", None);
     for (net, pin) in r.and_then(|r| r.fixed.as_ref()).map(|e| e.0.as_slice()).unwrap_or(&[]) {
         let key = format!("pads.fixed.{}", net.text);
         let n = p.int(Some(pin), &key, None, 0);
-        if fixed.insert(net.text.clone(), clamp_u32(n)).is_some() {
+        if first.fixed.insert(net.text.clone(), clamp_u32(n)).is_some() {
             p.repeated(&key, format!("net `{}` is given a pin twice", net.text), "each net once");
         }
     }
-    if p.clean(&["pads.pitch", "pads.width"]) && width >= pitch {
-        p.bad(
-            "pads.width",
-            format!("pads {} wide at pitch {} would touch", mm(width), mm(pitch)),
-            &format!("less than the pitch, {}", mm(pitch)),
-        );
+    if let Some(second) = r.and_then(|r| r.second_row.as_deref()) {
+        if second.fixed.is_some() {
+            p.bad("pads.second_row.fixed", "fixed pins of both rows are given once, under `pads.fixed`", "`pads.fixed`");
+        }
+        if second.second_row.is_some() {
+            p.bad("pads.second_row.second_row", "a layout has at most two pad rows", "one `second_row`");
+        }
+        first.second_row = Some(Box::new(pad_row(p, Some(second), "pads.second_row", Some(&first))));
+    }
+    first
+}
+
+/// One pad row under `key`; `first` is the first row when this is the second, which
+/// gives the side (opposite) and the defaults.
+fn pad_row(p: &mut Problems, r: Option<&RawPads>, key: &str, first: Option<&Pads>) -> Pads {
+    let get = |f: fn(&RawPads) -> &Option<Scalar>| r.and_then(|r| f(r).as_ref());
+    let k = |leaf: &str| format!("{key}.{leaf}");
+    let side = match first {
+        None if r.is_some() => p.word(get(|r| &r.side), &k("side"), &SIDES, None),
+        None => Side::Bottom,
+        Some(f) => {
+            let want = f.side.opposite();
+            let side = p.word(get(|r| &r.side), &k("side"), &SIDES, Some(want));
+            if side != want {
+                p.bad(&k("side"), format!("the second pad row must face the first, which is on the {} side", f.side.name()), want.name());
+            }
+            want
+        }
+    };
+    let pitch = match first {
+        None if r.is_none() => 1.0,
+        None => p.length(get(|r| &r.pitch), &k("pitch"), None, Sign::Positive),
+        Some(f) => p.length(get(|r| &r.pitch), &k("pitch"), Some(f.pitch), Sign::Positive),
+    };
+    let inherited = |f: fn(&Pads) -> f64, own: f64| first.map(f).unwrap_or(own);
+    let width_default = if first.is_some() && get(|r| &r.pitch).is_none() { inherited(|f| f.width, 0.6 * pitch) } else { 0.6 * pitch };
+    let width = p.length(get(|r| &r.width), &k("width"), Some(width_default), Sign::Positive);
+    let length = p.length(get(|r| &r.length), &k("length"), Some(inherited(|f| f.length, 3.0)), Sign::Positive);
+    let edge_margin = p.length(get(|r| &r.edge_margin), &k("edge_margin"), Some(inherited(|f| f.edge_margin, 0.3)), Sign::NonNegative);
+    // The second row's pins follow the first row's unless given (0 here, numbered when
+    // the first row's length is known, in the route stage).
+    let first_pin = match (first, get(|r| &r.first_pin)) {
+        (Some(_), None) => 0,
+        _ => clamp_u32(p.int(get(|r| &r.first_pin), &k("first_pin"), Some(1), 0)),
+    };
+    let start = get(|r| &r.start).map(|v| p.length(Some(v), &k("start"), None, Sign::NonNegative));
+    let count = get(|r| &r.count).map(|v| p.int(Some(v), &k("count"), None, 1));
+    if let Some(n) = count.filter(|n| *n > super::limits::MAX_PADS) {
+        p.bad(&k("count"), format!("{n} pads are more than one pad row takes"), &format!("1 to {}", super::limits::MAX_PADS));
+    }
+    if p.clean(&[&k("pitch"), &k("width")]) && width >= pitch {
+        p.bad(&k("width"), format!("pads {} wide at pitch {} would touch", mm(width), mm(pitch)), &format!("less than the pitch, {}", mm(pitch)));
     }
     Pads {
         side,
@@ -262,10 +295,12 @@ pub fn pads(p: &mut Problems, r: Option<&RawPads>) -> Pads {
         width,
         length,
         edge_margin,
-        first_pin: clamp_u32(first_pin),
+        first_pin,
+        pins_follow: first.is_some() && get(|r| &r.first_pin).is_none(),
         start,
         count: count.map(clamp_u32),
-        fixed,
+        fixed: BTreeMap::new(),
+        second_row: None,
     }
 }
 

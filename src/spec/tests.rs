@@ -298,3 +298,44 @@ fn process_profiles_set_the_default_rules() {
     let zero = problems(&edit("name: minimal\n", "name: minimal\nmasks: {copies: 0}\n"));
     assert_eq!(zero[0].key, "masks.copies");
 }
+
+/// The minimal layout with a 5 mm ledge on top as well, and `second_row` as given.
+fn two_ledges(second: &str) -> String {
+    edit("front: {width: 30, height: 30}", "front: {width: 30, height: 35}")
+        .replace("pads: {side: bottom, pitch: 1.8}", &format!("pads: {{side: bottom, pitch: 1.8, first_pin: 3, {second}}}"))
+}
+
+/// `second_row: {}` takes the opposite side and the first row's sizes, numbers its pins
+/// on from the first row's (in the route stage), and moves the fill port's default off
+/// both pad sides (docs/layout-format.md, `pads`).
+#[test]
+fn second_pad_row_takes_the_opposite_side_and_the_first_rows_sizes() {
+    let l = parse(&two_ledges("second_row: {}")).unwrap();
+    let s = l.pads.second_row.as_deref().expect("a second row");
+    assert_eq!(s.side, Side::Top);
+    assert_eq!((s.pitch, s.width, s.length, s.edge_margin), (l.pads.pitch, l.pads.width, l.pads.length, l.pads.edge_margin));
+    assert!(s.pins_follow && !l.pads.pins_follow);
+    assert_eq!(l.seal.port_side, Side::Left);
+    assert_eq!(l.pads.rows().count(), 2);
+    // Its own pitch gives its own default width; its own first pin is kept.
+    let own = parse(&two_ledges("second_row: {pitch: 1.0, first_pin: 40}")).unwrap();
+    let s = own.pads.second_row.as_deref().unwrap();
+    assert!(close(s.width, 0.6) && s.first_pin == 40 && !s.pins_follow);
+}
+
+/// A second row on any side but the opposite one, with fixed pins or a row of its own,
+/// or without a ledge on its side, is refused at its key.
+#[test]
+fn second_pad_row_mistakes_are_refused_at_their_keys() {
+    let keys = |text: &str| problems(text).into_iter().map(|p| p.key).collect::<Vec<_>>();
+    assert_eq!(keys(&two_ledges("second_row: {side: left}")), ["pads.second_row.side"]);
+    assert_eq!(keys(&two_ledges("second_row: {fixed: {COM1: 1}}")), ["pads.second_row.fixed"]);
+    assert_eq!(keys(&two_ledges("second_row: {second_row: {}}")), ["pads.second_row.second_row"]);
+    let no_ledge = MINIMAL.replace("pads: {side: bottom, pitch: 1.8}", "pads: {side: bottom, pitch: 1.8, second_row: {}}");
+    let v = problems(&no_ledge);
+    assert_eq!(v.len(), 1, "{v:?}");
+    assert_eq!(v[0].key, "pads.second_row.side");
+    assert!(v[0].message.contains("on the top side"), "{}", v[0].message);
+    let port = two_ledges("second_row: {}").replace("name: minimal", "name: minimal\nseal: {fill_port: {side: top}}");
+    assert_eq!(keys(&port), ["seal.fill_port.side"]);
+}

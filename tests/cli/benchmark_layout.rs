@@ -95,7 +95,8 @@ fn out_of_range_parameters_are_refused_with_a_reason() {
 }
 
 /// Checks what the spec stage resolved against what was asked for: digit count, rows,
-/// style, icons, the generator's pad count; multiplexed icons all below the bottom row.
+/// style, icons, the generator's pad count; multiplexed icons below the bottom row or in
+/// columns right of the digits.
 fn resolve_as_asked(p: &Params) -> Layout {
     let layout = resolve(p);
     let g = layout_gen::generate(p).expect("generated");
@@ -108,10 +109,12 @@ fn resolve_as_asked(p: &Params) -> Layout {
     assert!(layout.digits.iter().all(|d| d.style == style), "{p:?}");
     assert_eq!(layout.icons.len(), p.icons as usize, "{p:?}");
     if p.drive != Drive::Static {
+        // Below the bottom row, or in the columns right of every digit cell.
         let bottom = layout.digits.iter().map(|d| d.origin.y).fold(f64::MAX, f64::min);
+        let right = layout.digits.iter().map(|d| d.origin.x + f64::from(d.count - 1) * d.pitch + d.width + d.height * d.slant.to_radians().tan()).fold(f64::MIN, f64::max);
         for icon in &layout.icons {
             let IconShape::Named { at, size, .. } = &icon.shape else { panic!("{} is not a named icon", icon.name) };
-            assert!(at.y + size < bottom, "{} reaches into the bottom row ({p:?})", icon.name);
+            assert!(at.y + size < bottom || at.x > right, "{} reaches into the digits ({p:?})", icon.name);
         }
     }
     layout
@@ -144,7 +147,7 @@ fn assert_pins_and_dots_fit(layout: &Layout, pins: usize) {
     let mut us: Vec<f64> = (0..pins).map(|k| first + k as f64 * pads.pitch).collect();
     us.extend([layout.window.x, layout.window.x1()]);
     let pitch = segmask::route::lead_pitch(layout);
-    let dots = segmask::route::dots::place_transfer_dots(layout, &frame, &us, pitch, layout.drive.commons as usize, frame.u_back, &[]);
+    let dots = segmask::route::dots::place_transfer_dots(layout, &frame, layout.pads.width, &us, pitch, layout.drive.commons as usize, frame.u_back, &[]);
     assert!(dots.is_some(), "{}: no room for {} transfer dots beside {pins} pads", layout.name, layout.drive.commons);
 }
 

@@ -97,7 +97,7 @@ fn report_holds_rules_nets_findings_and_summary() {
 fn pin_map_is_sorted_by_pin() {
     let files = render_outputs(&artwork(), &[], &opts()).unwrap();
     let csv = std::str::from_utf8(output(&files, "pins.csv")).unwrap();
-    assert_eq!(csv, "pin,net,plate,role,index,drives\n1,S1,front,SEG,1,square S1\n2,COM1,back,COM,1,common electrode 1\n");
+    assert_eq!(csv, "pin,net,plate,role,index,drives,side\n1,S1,front,SEG,1,square S1,bottom\n2,COM1,back,COM,1,common electrode 1,bottom\n");
 }
 
 #[test]

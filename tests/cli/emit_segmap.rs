@@ -23,8 +23,9 @@ fn json(path: &Path) -> Value {
 fn segment_map_pin_map_and_drive_summary_agree() {
     let (_dir, out) = build();
     let (pin_header, pins) = demo_build::read_csv(&out.join(format!("{DEMO}.pins.csv")));
-    assert_eq!(pin_header, ["pin", "net", "plate", "role", "index", "drives"]);
+    assert_eq!(pin_header, ["pin", "net", "plate", "role", "index", "drives", "side"]);
     let pin_of: BTreeMap<&str, &str> = pins.iter().map(|p| (p["net"].as_str(), p["pin"].as_str())).collect();
+    assert!(pins.iter().all(|p| p["side"] == "bottom"), "one pad row, on the bottom ledge: {pins:?}");
     assert_eq!(pin_of.len(), pins.len(), "one pin per net");
 
     let (seg_header, rows) = demo_build::read_csv(&out.join(format!("{DEMO}.segmap.csv")));
