@@ -14,8 +14,8 @@
 //!    in one number only) takes a free common on the nearest line that has one and a
 //!    member within one and a half digit heights, so that no front join crosses the
 //!    glass (a colon dot the common its digit's template names for it, if any); when no
-//!    line has room it opens a new line, on the common of its height in the window (top
-//!    band → COM1); beside digits whose template keeps its lines closed (fourteen
+//!    line has room it opens a new line, on the common of its height in the row of
+//!    digits it stands level with, else in the window (top band → COM1); beside digits whose template keeps its lines closed (fourteen
 //!    segments), on the nearest common those digits leave free. Filling free places
 //!    first keeps the pin count at N + ⌈S/N⌉
 //!    (docs/background.md, *Drive and pin count*) whenever the templates leave their
@@ -78,6 +78,7 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
     }
     let centres: Vec<Pt> = elements.iter().map(centre).collect();
     let far = tiers::far_tier(layout, elements);
+    let rows = digit_rows(elements);
     let mut lines: Vec<Line> = Vec::new();
     let mut placed = vec![false; elements.len()];
     let mut problems = Vec::new();
@@ -152,7 +153,7 @@ pub fn assign(layout: &Layout, elements: &[Element]) -> Result<Assignment> {
         if fixed.com.is_none() {
             fixed.com = colon_dot_common(layout, e).map(|c| if far[i] { n - c } else { c + 1 });
         }
-        let height = band(layout, centres[i], n);
+        let height = band(layout, &rows, centres[i], n);
         let mut want = fixed.com.map(|c| c - 1).unwrap_or(if far[i] { n - 1 - height } else { height });
         if fixed.com.is_none() {
             // Beside digits whose template keeps its lines closed (fourteen segments), a
@@ -269,10 +270,39 @@ fn passage(layout: &Layout, e: &Element, end: template::End) -> Polygon {
     band.0.into_iter().next().unwrap_or_else(|| circle(tip, gap, layout.tolerance))
 }
 
-/// Common of an element's height in the window: the top band is COM1 (index 0).
-fn band(layout: &Layout, at: Pt, n: u32) -> u32 {
-    let w = layout.window;
-    let t = ((w.y1() - at.y) / w.height.max(1e-9) * n as f64).floor();
+/// The box of each digit group's bodies: (x range, y range).
+fn digit_rows(elements: &[Element]) -> Vec<((f64, f64), (f64, f64))> {
+    let mut rows: Vec<(&str, (f64, f64), (f64, f64))> = Vec::new();
+    for e in elements.iter().filter(|e| e.digit.is_some()) {
+        for p in e.body.0.iter().flat_map(|p| p.exterior().0.iter()) {
+            match rows.iter_mut().find(|r| r.0 == e.key) {
+                Some(r) => {
+                    r.1 = (r.1 .0.min(p.x), r.1 .1.max(p.x));
+                    r.2 = (r.2 .0.min(p.y), r.2 .1.max(p.y));
+                }
+                None => rows.push((&e.key, (p.x, p.x), (p.y, p.y))),
+            }
+        }
+    }
+    rows.into_iter().map(|r| (r.1, r.2)).collect()
+}
+
+/// Common of an element's height: level with a row of digits (within one and a half of
+/// its heights along it), its height in that row, so that an icon stacked beside the
+/// digits takes the common they have at its height and joins it there; elsewhere its
+/// height in the window. The top band is COM1 (index 0).
+fn band(layout: &Layout, rows: &[((f64, f64), (f64, f64))], at: Pt, n: u32) -> u32 {
+    let beside = rows
+        .iter()
+        .filter(|(_, y)| (y.0..=y.1).contains(&at.y))
+        .map(|(x, y)| ((x.0 - at.x).max(at.x - x.1).max(0.0), *y))
+        .filter(|(d, y)| *d <= 1.5 * (y.1 - y.0))
+        .min_by(|a, b| a.0.total_cmp(&b.0));
+    let (top, height) = match beside {
+        Some((_, y)) => (y.1, y.1 - y.0),
+        None => (layout.window.y1(), layout.window.height),
+    };
+    let t = ((top - at.y) / height.max(1e-9) * n as f64).floor();
     t.clamp(0.0, (n - 1) as f64) as u32
 }
 
