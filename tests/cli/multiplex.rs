@@ -66,6 +66,43 @@ fn two_rows_with_the_pads_on_one_side_route_themselves() {
     assert_eq!(twice, BTreeSet::from(["COM3", "COM4"]));
 }
 
+/// Forty digits with points in two rows and 60 icons at 1/4 duty, with a second pad row
+/// on top: clean, at N + ⌈S/N⌉ pins plus the upper row's two outer commons (Alt &
+/// Pleshko, as above); the upper row's lines and those two commons' second pins on the
+/// top ledge, everything else on the bottom one, pins numbered on from the bottom row;
+/// every icon stacked beside a row takes the common of its height in that row (its
+/// neighbours in the digits), so each column of four icons is one SEG line.
+#[test]
+fn forty_digits_in_two_rows_route_to_two_pad_rows() {
+    let dir = assert_multiplexed_demo_with("germination-cabinet", 4, 2);
+    let pins = rows(&dir.path().join("germination-cabinet.pins.csv"));
+    let segmap = rows(&dir.path().join("germination-cabinet.segmap.csv"));
+    let (top, bottom): (Vec<&Vec<String>>, Vec<&Vec<String>>) = pins.iter().partition(|p| p[6] == "top");
+    assert!(bottom.iter().all(|p| p[6] == "bottom"), "{bottom:?}");
+    let last_bottom = bottom.iter().map(|p| p[0].parse::<u32>().unwrap()).max().unwrap();
+    let first_top = top.iter().map(|p| p[0].parse::<u32>().unwrap()).min().unwrap();
+    assert_eq!(first_top, last_bottom + 1, "the top row's pins follow on");
+    let upper = |element: &str| element.starts_with('T') || ["HEAT", "COOL", "HOLD", "FAULT"].iter().any(|n| element.ends_with(n));
+    for r in &segmap {
+        let side = &pins.iter().find(|p| p[1] == r[6]).unwrap()[6];
+        assert_eq!(side, if upper(&r[0]) { "top" } else { "bottom" }, "{} on {}", r[0], r[6]);
+    }
+    let top_commons: BTreeSet<&str> = top.iter().filter(|p| p[3] == "COM").map(|p| p[1].as_str()).collect();
+    assert_eq!(top_commons, BTreeSet::from(["COM3", "COM4"]));
+    // Each icon column: four icons on one line, COM1 at the top in the lower row (pads
+    // below) and COM4 at the top in the upper row (its commons numbered from the row
+    // below outwards).
+    for (column, top_com) in [(["MIST", "DRY", "FAN", "DOOR"], 1), (["HEAT", "COOL", "HOLD", "FAULT"], 4)] {
+        for c in 1..=5 {
+            let cells: Vec<&Vec<String>> = column.iter().map(|n| segmap.iter().find(|r| r[0] == format!("C{c}_{n}")).unwrap()).collect();
+            assert!(cells.iter().all(|r| r[6] == cells[0][6]), "chamber {c}: {column:?} on one line");
+            let coms: Vec<u32> = cells.iter().map(|r| r[2].parse().unwrap()).collect();
+            let want: Vec<u32> = if top_com == 1 { vec![1, 2, 3, 4] } else { vec![4, 3, 2, 1] };
+            assert_eq!(coms, want, "chamber {c}: {column:?}");
+        }
+    }
+}
+
 /// Six fourteen-segment characters with points, a ten-step meter and two gauges at 1/3
 /// duty: clean, drive truth holding, each (COM, SEG) pair once; the characters on COM1
 /// (upper half) and COM3 (lower half) only, eight lines each, the meter and gauges on

@@ -139,7 +139,7 @@ fn moving_shifts_only_points() {
 const SWEPT: [&str; 6] = ["kiln-controller", "rain-gauge", "darkroom-timer", "greenhouse-humidity", "cold-store-monitor", "borehole-pump"];
 
 /// Multiplexed demos not swept yet, each with the reason.
-const NOT_YET_SWEPT: [(&str, &str); 0] = [];
+const NOT_YET_SWEPT: [(&str, &str); 1] = [("germination-cabinet", "forty digits in two rows and 60 icons take 6 s a build; 49 builds would take longer than the rest of the suite (swept by hand, see docs/performance.md)")];
 
 /// Whether a layout's `drive` names a duty, written inline (`drive: {duty: 1/4}`) or as a
 /// block (`drive:` then `  duty: 1/4`).
