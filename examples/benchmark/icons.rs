@@ -6,10 +6,15 @@
 //! - Multiplexed, no more icons than digits in the bottom row: one under each digit, from
 //!   the left. The icon takes the free place its digit's template leaves on the bottom
 //!   common (docs/architecture.md, *Multiplexing*), so the pin count stays N + ⌈S/N⌉.
-//! - Multiplexed, more icons than that: a band under the bottom row, spread evenly along
-//!   it, in as many band rows as it takes to keep the columns `BAND_PITCH` apart. The
-//!   icons still sit below every digit, on the bottom common's side, and their leads go
-//!   straight down to the ledge.
+//! - Multiplexed seven-segment digits, more icons than that: one under each digit as
+//!   above, the rest in columns of N (the number of commons) at the right end of the
+//!   rows, each icon level with one of the commons of its row, so that a column is one
+//!   SEG line whose icons meet the digits' commons at their own heights (with a second
+//!   pad row, half the columns beside each row). A band of icons under a row, as the
+//!   generator wrote before, does not route (docs/performance.md).
+//! - Multiplexed fourteen-segment digits, more icons than digits: a band under the bottom
+//!   row, spread evenly along it, in as many band rows as it takes to keep the columns
+//!   `BAND_PITCH` apart; their leads go straight down to the ledge.
 //!
 //! Uses only `std`; part of the generator (`layout_gen.rs`).
 
@@ -51,7 +56,24 @@ pub struct Area {
     pub above: f64,
     /// Static: icons in each band row.
     pub icons_per_row: u32,
+    /// Multiplexed: the columns of icons beside the rows.
+    pub columns: Columns,
 }
+
+/// Columns of stacked icons at the right end of the rows.
+#[derive(Debug, Clone, Copy)]
+pub struct Columns {
+    /// Left edge of the first column.
+    pub x: f64,
+    /// Columns beside the bottom row and beside the top row.
+    pub split: [u32; 2],
+    /// Origin y of the bottom row and of the top row.
+    pub row_y: [f64; 2],
+}
+
+/// Distance between columns of stacked icons: an icon and room for the column's own
+/// lead and the back leads beside it.
+pub const COLUMN_PITCH: f64 = 2.8;
 
 /// Band rows a multiplexed layout needs under its bottom row for `icons` icons, the
 /// bottom row holding `bottom` digits in a content box `width` wide.
@@ -83,9 +105,36 @@ pub fn write_icons(y: &mut String, p: &Params, a: &Area) -> std::fmt::Result {
         band_above(y, p.icons, a)
     } else if p.icons <= a.bottom_digits {
         under_digits(y, p.icons, a)
+    } else if a.columns.split != [0, 0] {
+        under_digits(y, a.bottom_digits, a)?;
+        columns_beside(y, a.bottom_digits, p.icons - a.bottom_digits, p.drive.commons(), a)
     } else {
         band_below(y, p.icons, a)
     }
+}
+
+/// `count` icons from number `first` in columns of `n`, top to bottom, beside the bottom
+/// row and then beside the top row; each icon centred in one of `n` equal bands of the
+/// digit height.
+fn columns_beside(y: &mut String, first: u32, count: u32, n: u32, a: &Area) -> std::fmt::Result {
+    let c = &a.columns;
+    let h = a.digit.height;
+    let band = h / f64::from(n);
+    let size = (band * 0.7).min(2.0);
+    let mut k = first;
+    let mut left = count;
+    for (row, &cols) in c.split.iter().enumerate() {
+        for col in 0..cols {
+            let x = c.x + f64::from(col) * COLUMN_PITCH;
+            for i in 0..n.min(left) {
+                let v = c.row_y[row] + h - (f64::from(i) + 0.5) * band - size / 2.0;
+                icon_line(y, k, (x, v), size, size / 10.0)?;
+                k += 1;
+            }
+            left = left.saturating_sub(n);
+        }
+    }
+    Ok(())
 }
 
 fn icon_line(y: &mut String, k: u32, at: (f64, f64), size: f64, stroke: f64) -> std::fmt::Result {

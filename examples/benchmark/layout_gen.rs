@@ -8,6 +8,8 @@
 //! Only the sizes matter: the glass, window, seal and pad row are computed from the
 //! element count so that leads from the upper rows have channels between the digits of
 //! the rows below, and the pad row sits under the digits on the bottom ledge.
+//! Multiplexed with two rows, the upper row's lines go to a second pad row on a ledge
+//! on top (`pads.second_row`).
 //!
 //! This file and the two it includes (`digit_style.rs`, `icons.rs`) use only `std`, so
 //! `tests/cli/benchmark_layout.rs` includes it with `#[path]` and checks that what it writes
@@ -124,7 +126,7 @@ pub fn generate(p: &Params) -> Result<Generated, String> {
     let mut y = String::new();
     header(&mut y, &name, p, &g).map_err(|e| e.to_string())?;
     digit_rows(&mut y, p, &g).map_err(|e| e.to_string())?;
-    icons::write_icons(&mut y, p, &g.icon_area()).map_err(|e| e.to_string())?;
+    icons::write_icons(&mut y, p, &g.icon_area(p)).map_err(|e| e.to_string())?;
     Ok(Generated { name, yaml: y, elements: g.elements, pads: g.pads, pins: g.pins })
 }
 
@@ -149,12 +151,27 @@ fn pins_made(p: &Params, elements: u32) -> u32 {
     }
     match p.style {
         Style::Seven => {
+            // One icon under each digit of the bottom row takes a free place there; the
+            // rest stand in columns of N beside the rows, N to a new line
+            // (`icons::columns_beside`).
             let per_digit = 7u32.div_ceil(n);
-            let free = p.digits * (per_digit * n - 7);
-            n + p.digits * per_digit + p.icons.saturating_sub(free).div_ceil(n)
+            n + p.digits * per_digit + column_icons(p, bottom_digits(p)).div_ceil(n)
         }
         Style::Fourteen => n + 8 * p.digits + p.icons.div_ceil(if n > 2 { n - 2 } else { n }),
     }
+}
+
+/// Digits in the bottom row when the digits are split into rows (as `Geometry::plan`).
+fn bottom_digits(p: &Params) -> u32 {
+    let rows = p.rows.unwrap_or_else(|| default_rows(p)).max(1);
+    p.digits / rows + u32::from(rows - 1 < p.digits % rows)
+}
+
+/// Icons standing in columns beside the rows rather than one under each digit of the
+/// bottom row (`bottom` digits): multiplexed seven-segment digits only, the rest beyond
+/// one per digit.
+fn column_icons(p: &Params, bottom: u32) -> u32 {
+    if p.drive.commons() > 1 && p.style == Style::Seven { p.icons.saturating_sub(bottom) } else { 0 }
 }
 
 /// Every size derived from the parameters.
@@ -186,6 +203,11 @@ struct Geometry {
     glass_w: f64,
     glass_h: f64,
     ledge: f64,
+    /// Ledge on top for a second pad row (0 when there is none): multiplexed with two
+    /// rows of digits, the upper row's lines go to pads on the top side.
+    top_ledge: f64,
+    /// Columns of icons beside the bottom row and beside the top row.
+    column_split: [u32; 2],
 }
 
 impl Geometry {
@@ -216,7 +238,10 @@ impl Geometry {
         // Leads that must pass the bottom row: the rows above (a digit's segments shared
         // N to a line) and the icons, spread over the channels, plus the bottom row's own.
         let own = segments.div_ceil(n);
-        let above = (rows - 1) * per_row * own + lines(p.icons);
+        // Multiplexed with two rows, the upper row's leads go up to a second pad row.
+        let pads_on_top = n > 1 && rows == 2;
+        let through = if pads_on_top { 0 } else { rows - 1 };
+        let above = through * per_row * own + lines(p.icons);
         let per_channel = above.div_ceil(per_row + 1) + own;
         let channel = (f64::from(per_channel) * LEAD_PITCH * 1.6 + 0.8).max(1.5);
         let cell = size.width + size.height * size.slant.to_radians().tan() + 1.5 * size.stroke;
@@ -229,12 +254,18 @@ impl Geometry {
             turn += 2.0 * f64::from(n) * LEAD_PITCH + 1.0;
         }
         let row_gap = round_up(turn.max(2.5), 0.05);
-        let cw = f64::from(per_row) * digit_pitch + channel;
+        // Multiplexed seven-segment digits: the icons beyond one under each digit of the
+        // bottom row stand in columns of N at the right end of the rows (with a second pad
+        // row, half of the columns beside each row).
+        let bottom = row_counts[rows as usize - 1];
+        let columns = column_icons(p, bottom).div_ceil(n);
+        let column_split = [columns, 0];
+        let cw = f64::from(per_row) * digit_pitch + channel + f64::from(column_split[0].max(column_split[1])) * icons::COLUMN_PITCH;
         let icons_per_row = ((cw / ICON_PITCH).floor() as u32).max(1);
         // Multiplexed: icons below the bottom row (each takes a free place on the bottom
         // common); static: bands above the digits.
-        let bottom = row_counts[rows as usize - 1];
-        let icon_rows = if n > 1 { icons::rows_below(p.icons, bottom, cw) } else { p.icons.div_ceil(icons_per_row) };
+        let under = p.icons - column_icons(p, bottom);
+        let icon_rows = if n > 1 { icons::rows_below(under, bottom, cw) } else { p.icons.div_ceil(icons_per_row) };
         let ch = f64::from(rows) * (size.height + row_gap) + f64::from(icon_rows) * ICON_PITCH;
         let pad_pitch = PAD_PITCHES.iter().copied().find(|q| f64::from(pins) * q <= cw).unwrap_or(0.5);
         let pad_row = f64::from(pins) * PAD_SPARE * pad_pitch + 2.0 * (PAD_EDGE + SEAL + 1.5);
@@ -249,15 +280,16 @@ impl Geometry {
         let ledge = round_up((PAD_LENGTH + PAD_EDGE + levels * LEAD_PITCH - SEAL + 1.0).max(5.0), 0.5);
         let cx = (glass_w - cw) / 2.0;
         let cy = ledge + SEAL + 2.0 * MARGIN;
-        let glass_h = round_up(cy + ch + 2.0 * MARGIN + SEAL, 0.5);
+        let top_ledge = if pads_on_top { ledge } else { 0.0 };
+        let glass_h = round_up(cy + ch + 2.0 * MARGIN + SEAL, 0.5) + top_ledge;
         Ok(Geometry {
             rows, row_counts, size, elements, pads, pins, pad_pitch, channel, digit_pitch, row_gap, icons_per_row,
-            icon_rows, cx, cy, cw, ch, glass_w, glass_h, ledge,
+            icon_rows, cx, cy, cw, ch, glass_w, glass_h, ledge, top_ledge, column_split,
         })
     }
 
     /// Where the icons go, for `icons.rs`.
-    fn icon_area(&self) -> icons::Area {
+    fn icon_area(&self, p: &Params) -> icons::Area {
         icons::Area {
             x: self.cx,
             y: self.cy,
@@ -268,7 +300,18 @@ impl Geometry {
             bottom_digits: self.row_counts[self.rows as usize - 1],
             above: self.cy + f64::from(self.rows) * (self.size.height + self.row_gap),
             icons_per_row: self.icons_per_row,
+            columns: icons::Columns {
+                x: self.cx + self.channel + f64::from(self.row_counts[0]) * self.digit_pitch,
+                split: self.column_split,
+                row_y: [self.row_origin_y(p, self.rows - 1), self.row_origin_y(p, 0)],
+            },
         }
+    }
+
+    /// Origin y of row `r` (0 = the top row): above the icon rows when multiplexed.
+    fn row_origin_y(&self, p: &Params, r: u32) -> f64 {
+        let below = if p.drive.commons() > 1 { f64::from(self.icon_rows) * ICON_PITCH } else { 0.0 };
+        self.cy + below + f64::from(self.rows - 1 - r) * (self.size.height + self.row_gap)
     }
 }
 
@@ -293,18 +336,24 @@ fn header(y: &mut String, name: &str, p: &Params, g: &Geometry) -> std::fmt::Res
     writeln!(y, "name: {name}")?;
     writeln!(y, "glass:")?;
     writeln!(y, "  front: {{width: {}, height: {}}}", mm(g.glass_w), mm(g.glass_h))?;
-    writeln!(y, "  back: {{width: {}, height: {}, x: 0, y: {}}}", mm(g.glass_w), mm(g.glass_h - g.ledge), mm(g.ledge))?;
+    let back_h = g.glass_h - g.ledge - g.top_ledge;
+    writeln!(y, "  back: {{width: {}, height: {}, x: 0, y: {}}}", mm(g.glass_w), mm(back_h), mm(g.ledge))?;
     let wx = g.cx - MARGIN;
     let wy = g.cy - MARGIN;
     writeln!(y, "window: {{x: {}, y: {}, width: {}, height: {}}}", mm(wx), mm(wy), mm(g.cw + 2.0 * MARGIN), mm(g.ch + 2.0 * MARGIN))?;
     writeln!(y, "cell_gap: 7um")?;
     writeln!(y, "resist: positive")?;
     writeln!(y, "rules: {{min_width: 0.1, min_gap: 0.05, undercut: 5um}}")?;
-    writeln!(y, "seal: {{width: 1.0, inset: 1.5, fill_port: {{side: top, at: {}, width: 3}}}}", mm(g.glass_w / 2.0))?;
+    if g.top_ledge > 0.0 {
+        writeln!(y, "seal: {{width: 1.0, inset: 1.5, fill_port: {{side: left, at: {}, width: 3}}}}", mm(back_h / 2.0))?;
+    } else {
+        writeln!(y, "seal: {{width: 1.0, inset: 1.5, fill_port: {{side: top, at: {}, width: 3}}}}", mm(g.glass_w / 2.0))?;
+    }
     let pw = g.pad_pitch * 0.6;
+    let second = if g.top_ledge > 0.0 { ", second_row: {}" } else { "" };
     writeln!(
         y,
-        "pads: {{side: bottom, pitch: {}, width: {}, length: {}, edge_margin: {}}}",
+        "pads: {{side: bottom, pitch: {}, width: {}, length: {}, edge_margin: {}{second}}}",
         mm(g.pad_pitch),
         mm(pw),
         mm(PAD_LENGTH),
@@ -323,8 +372,7 @@ fn digit_rows(y: &mut String, p: &Params, g: &Geometry) -> std::fmt::Result {
     for (r, &count) in g.row_counts.iter().enumerate() {
         let r = r as u32;
         let name = format!("R{}", char::from(b'A' + r as u8));
-        let below = if p.drive.commons() > 1 { f64::from(g.icon_rows) * ICON_PITCH } else { 0.0 };
-        let oy = g.cy + below + f64::from(g.rows - 1 - r) * (s.height + g.row_gap);
+        let oy = g.row_origin_y(p, r);
         writeln!(y, "  - name: {name}")?;
         writeln!(y, "    style: {}", p.style.word())?;
         writeln!(y, "    count: {count}")?;
