@@ -103,6 +103,22 @@ fn forty_digits_in_two_rows_route_to_two_pad_rows() {
     }
 }
 
+/// A second pad row on a layout with one row of digits would take no line: refused at
+/// `pads.second_row` (exit 2, nothing written), saying what the row is for.
+#[test]
+fn a_second_pad_row_with_nothing_behind_the_front_row_is_refused() {
+    let text = std::fs::read_to_string(root().join("demo-layouts/kiln-controller.yaml")).unwrap();
+    let text = text.replace("front: {width: 56, height: 36}", "front: {width: 56, height: 40}").replace("  side: bottom\n", "  side: bottom\n  second_row: {}\n").replace("fill_port: {side: top, at: 28", "fill_port: {side: left, at: 18");
+    assert!(text.contains("second_row"), "the demo's pads changed");
+    let dir = tempfile::tempdir().unwrap();
+    let layout = dir.path().join("kiln-two-pad-rows.yaml");
+    std::fs::write(&layout, text).unwrap();
+    let (code, err) = build(&layout, &dir.path().join("out"));
+    assert_eq!(code, Some(2), "{err}");
+    assert!(err.contains("error in `pads.second_row`") && err.contains("no SEG line goes to the second pad row"), "{err}");
+    assert!(!dir.path().join("out").exists() || std::fs::read_dir(dir.path().join("out")).unwrap().next().is_none(), "nothing written");
+}
+
 /// Six fourteen-segment characters with points, a ten-step meter and two gauges at 1/3
 /// duty: clean, drive truth holding, each (COM, SEG) pair once; the characters on COM1
 /// (upper half) and COM3 (lower half) only, eight lines each, the meter and gauges on
