@@ -486,6 +486,32 @@ mod tests {
         assert!(!c.allows(&g, g.index_of(pt(19.5, 19.5)).unwrap()));
     }
 
+    /// Round a wall the hop bound exceeds the straight distance, and it never exceeds
+    /// the cost of the cheapest path the fine search finds in the corridor (it is a lower
+    /// bound at every cell of that path).
+    #[test]
+    fn the_hop_bound_goes_round_the_wall_and_stays_below_the_path() {
+        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
+        g.block(&region_of([rect(9.5, 0.0, 10.5, 17.0)]));
+        let mut c = Corridors::new(&g);
+        let start = g.index_of(pt(2.0, 2.0)).unwrap();
+        let goal_cell = g.index_of(pt(18.0, 2.0)).unwrap();
+        let goal_tile = c.tile_index(&g, goal_cell);
+        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, MARGIN));
+        c.count_hops(|t| t == goal_tile);
+        let straight = 160.0;
+        assert!(c.hop_bound(start) > 1.3 * straight, "{} cells", c.hop_bound(start));
+        let mut search = Search::new(&g);
+        let path = search.find_within(&g, 1, &[start], |i| i == goal_cell, |_| 0.0, |i| c.allows(&g, i)).unwrap();
+        // Walking the path back from the goal, the cost still to go (at least the steps
+        // left) is never below the bound.
+        for (k, &cell) in path.iter().enumerate() {
+            let steps_left = (path.len() - 1 - k) as f32;
+            assert!(c.hop_bound(cell) <= steps_left + 1e-3, "cell {k}: bound {} over {steps_left} steps", c.hop_bound(cell));
+        }
+        assert_eq!(c.hop_bound(g.index_of(pt(1.0, 19.5)).unwrap()), f32::INFINITY, "outside the corridor");
+    }
+
     /// A closed box around the start: no coarse path.
     #[test]
     fn no_corridor_out_of_a_closed_box() {
