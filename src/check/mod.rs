@@ -34,16 +34,24 @@ pub fn check_artwork(art: &Artwork) -> Vec<Finding> {
 
 /// Runs every rule on an artwork whose connectivity is already extracted.
 pub fn check_extracted(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
-    let mut out = shorts::check_shorts(art, ex);
-    out.extend(opens::check_opens(art, ex));
-    out.extend(width::check_width(art, ex));
-    out.extend(gap::check_gap(art, ex));
-    out.extend(ghost::check_ghosts(art, ex));
-    out.extend(pads::check_pads(art));
-    out.extend(edge::check_edge(art, ex));
-    out.extend(drive_truth::check_drive_truth(art, ex));
-    out.extend(registration::check_registration(art, ex));
-    out
+    // The rules read the same geometry and nothing else: each runs on its own (rayon
+    // spreads them over the cores), and their findings are joined in this order, so the
+    // report is the same as one rule after another.
+    type Rule = fn(&Artwork, &Extraction) -> Vec<Finding>;
+    const RULES: [Rule; 9] = [
+        shorts::check_shorts,
+        opens::check_opens,
+        width::check_width,
+        gap::check_gap,
+        ghost::check_ghosts,
+        |art, _| pads::check_pads(art),
+        edge::check_edge,
+        drive_truth::check_drive_truth,
+        registration::check_registration,
+    ];
+    use rayon::prelude::*;
+    let found: Vec<Vec<Finding>> = RULES.par_iter().map(|rule| rule(art, ex)).collect();
+    found.into_iter().flatten().collect()
 }
 
 #[cfg(test)]

@@ -204,11 +204,14 @@ pub fn render_outputs_planned(
     let masks = errors == 0 || opts.masks_despite_errors;
     let name = file_stem(&art.name);
     let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan, png_dpi: opts.png_dpi, rows: Default::default() };
-    OUTPUTS
-        .iter()
-        .filter(|o| (masks || !o.mask) && (!o.panel || art.panel.is_some()))
-        .map(|o| Ok(OutputFile { name: format!("{name}.{}", o.suffix), bytes: (o.render)(&ctx)? }))
-        .collect()
+    // Each output is rendered on its own (rayon spreads them over the cores); collected in
+    // the table's order, and the first failure in that order is the one reported, so the
+    // files and messages are the same as one after another.
+    use rayon::prelude::*;
+    let chosen: Vec<&Output> = OUTPUTS.iter().filter(|o| (masks || !o.mask) && (!o.panel || art.panel.is_some())).collect();
+    let rendered: Vec<Result<OutputFile>> =
+        chosen.par_iter().map(|o| Ok(OutputFile { name: format!("{name}.{}", o.suffix), bytes: (o.render)(&ctx)? })).collect();
+    rendered.into_iter().collect()
 }
 
 /// True when `render_outputs` would withhold the mask files for these findings.

@@ -187,8 +187,11 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
     let all_front = geom::intersection(&plate_ito(PlateId::Front), &lc);
     let all_back = geom::intersection(&plate_ito(PlateId::Back), &lc);
     let period = 1.0 / cell.frame_rate;
-    let mut lines = Vec::new();
-    for net in &art.nets {
+    // Each line is measured on its own (its lead pieces open the whole net's ITO, the
+    // plan's largest cost), spread over the cores by rayon; collected in net order and
+    // then sorted, so the plan is the same as one net after another.
+    use rayon::prelude::*;
+    let mut lines: Vec<Line> = art.nets.par_iter().map(|net| {
         let (plate, other, kind) = match net.kind {
             crate::artwork::NetKind::Segment => (PlateId::Front, &all_back, "seg"),
             crate::artwork::NetKind::Common => (PlateId::Back, &all_front, "com"),
@@ -204,7 +207,7 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
         let c_off = plate_capacitance(facing, cell.gap, cell.permittivity_perpendicular);
         let c_on = plate_capacitance(facing, cell.gap, cell.permittivity_parallel);
         let r = cell.sheet_resistance * squares;
-        lines.push(Line {
+        Line {
             net: net.name.clone(),
             kind,
             lead_squares: round(squares, 2),
@@ -214,8 +217,8 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
             capacitance_on_pf: round(c_on * 1e12, 2),
             rc_us: round(r * c_on * 1e6, 4),
             rc_of_frame: r * c_on / period,
-        });
-    }
+        }
+    }).collect();
     lines.sort_by(|a, b| b.kind.cmp(a.kind).then_with(|| a.net.cmp(&b.net)));
     let pixels = art
         .pixels

@@ -63,9 +63,12 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     let bare = difference(&leads, &electrodes);
     let cuts = difference(&offset_round(&bare, layout.rules.min_gap, tol), &electrodes);
     let passages = region_of(el.assignment.passages.iter().cloned());
+    // Each common's islands are cut on their own (offsets of the whole common, the
+    // larger part of this step), spread over the cores; collected in common order.
+    use rayon::prelude::*;
     let commons: Vec<Common> = el
         .coms
-        .iter()
+        .par_iter()
         .enumerate()
         .map(|(k, c)| {
             let pixels = union_all(
