@@ -29,11 +29,20 @@ pub fn split_commons(bodies: &[Region], margin: f64, gap: f64, tol: f64) -> Vec<
     }
     let reach = margin + gap / 2.0;
     let mut out: Vec<Vec<Polygon>> = vec![Vec::new(); bodies.len()];
-    for cluster in clusters(bodies, reach + tol) {
-        let local: Vec<Region> = (0..bodies.len())
-            .map(|k| union_all(cluster.iter().filter(|(c, _)| *c == k).map(|(_, i)| bodies[k].0[*i].clone())))
-            .collect();
-        for (k, cell) in split_cluster(&local, reach, gap, tol).into_iter().enumerate() {
+    // Clusters are split on their own (rayon spreads them over the cores) and joined in
+    // cluster order, so the commons are the same as one cluster after another.
+    use rayon::prelude::*;
+    let split: Vec<Vec<Region>> = clusters(bodies, reach + tol)
+        .par_iter()
+        .map(|cluster| {
+            let local: Vec<Region> = (0..bodies.len())
+                .map(|k| union_all(cluster.iter().filter(|(c, _)| *c == k).map(|(_, i)| bodies[k].0[*i].clone())))
+                .collect();
+            split_cluster(&local, reach, gap, tol)
+        })
+        .collect();
+    for cells in split {
+        for (k, cell) in cells.into_iter().enumerate() {
             out[k].extend(cell.0);
         }
     }
