@@ -158,7 +158,19 @@ fn pad_row(p: &mut Problems, l: &Layout) {
     };
     if let Some(second) = pads.second_row.as_deref() {
         // Which row each line takes is known only after assignment; here both rows
-        // together must hold what is needed (the route stage checks each row).
+        // together must hold what is needed (the route stage checks each row), and a
+        // given start must put at least the first pad on the glass.
+        for (row, key) in [(pads, "pads.start"), (second, "pads.second_row.start")] {
+            let side_len = side_length(&l.glass.front, row.side);
+            if let Some(s) = row.start.filter(|s| s - row.width / 2.0 < row.edge_margin - 1e-9 || s + row.width / 2.0 > side_len - row.edge_margin + 1e-9) {
+                p.bad(
+                    key,
+                    format!("a pad centred at {} does not fit on the {} ledge ({} of glass, edge_margin {} at each end)", mm(s), row.side.name(), mm(side_len), mm(row.edge_margin)),
+                    &format!("{} to {}", mm(row.edge_margin + row.width / 2.0), mm(side_len - row.edge_margin - row.width / 2.0)),
+                );
+                return;
+            }
+        }
         let rows = [pads, second];
         let fit: u64 = rows.iter().map(|r| r.count.map(u64::from).unwrap_or_else(|| row_room(l, r, 1).2)).sum();
         if fit < u64::from(needed) {

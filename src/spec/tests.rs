@@ -336,6 +336,7 @@ fn second_pad_row_mistakes_are_refused_at_their_keys() {
     assert_eq!(v.len(), 1, "{v:?}");
     assert_eq!(v[0].key, "pads.second_row.side");
     assert!(v[0].message.contains("on the top side"), "{}", v[0].message);
+    assert_eq!(keys(&two_ledges("second_row: {start: 500}")), ["pads.second_row.start"]);
     let port = two_ledges("second_row: {}").replace("name: minimal", "name: minimal\nseal: {fill_port: {side: top}}");
     assert_eq!(keys(&port), ["seal.fill_port.side"]);
 }
