@@ -468,16 +468,23 @@ mod tests {
         assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1), "the strict graph holds");
     }
 
+    /// A 20 mm glass at 0.1 mm cells with a wall up the middle, open above 17 mm; the
+    /// start and goal cells low on either side of it, and the goal's tile.
+    fn wall_with_a_gap_at_its_top() -> (Grid, Corridors, usize, usize, usize) {
+        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
+        g.block(&region_of([rect(9.5, 0.0, 10.5, 17.0)]));
+        let c = Corridors::new(&g);
+        let start = g.index_of(pt(2.0, 2.0)).unwrap();
+        let goal_cell = g.index_of(pt(18.0, 2.0)).unwrap();
+        let goal_tile = c.tile_index(&g, goal_cell);
+        (g, c, start, goal_cell, goal_tile)
+    }
+
     /// A wall with a gap at its top: the corridor goes through the gap, not through the
     /// wall, and leaves out the far side of the glass.
     #[test]
     fn corridor_follows_the_gap() {
-        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
-        g.block(&region_of([rect(9.5, 0.0, 10.5, 17.0)]));
-        let mut c = Corridors::new(&g);
-        let start = g.index_of(pt(2.0, 2.0)).unwrap();
-        let goal_cell = g.index_of(pt(18.0, 2.0)).unwrap();
-        let goal_tile = c.tile_index(&g, goal_cell);
+        let (g, mut c, start, _, goal_tile) = wall_with_a_gap_at_its_top();
         assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1));
         assert!(c.allows(&g, g.index_of(pt(10.0, 18.0)).unwrap()), "through the gap above the wall");
         assert!(!c.allows(&g, g.index_of(pt(10.0, 5.0)).unwrap()), "not through the wall");
@@ -491,12 +498,7 @@ mod tests {
     /// bound at every cell of that path).
     #[test]
     fn the_hop_bound_goes_round_the_wall_and_stays_below_the_path() {
-        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
-        g.block(&region_of([rect(9.5, 0.0, 10.5, 17.0)]));
-        let mut c = Corridors::new(&g);
-        let start = g.index_of(pt(2.0, 2.0)).unwrap();
-        let goal_cell = g.index_of(pt(18.0, 2.0)).unwrap();
-        let goal_tile = c.tile_index(&g, goal_cell);
+        let (g, mut c, start, goal_cell, goal_tile) = wall_with_a_gap_at_its_top();
         assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, MARGIN));
         c.count_hops(|t| t == goal_tile);
         let straight = 160.0;
