@@ -119,6 +119,31 @@ fn a_second_pad_row_with_nothing_behind_the_front_row_is_refused() {
     assert!(!dir.path().join("out").exists() || std::fs::read_dir(dir.path().join("out")).unwrap().next().is_none(), "nothing written");
 }
 
+/// The cold-store demo with a ledge on top and a second pad row there: the upper row's
+/// lines go to it; a line of the upper row fixed to a pin of the bottom row is reported
+/// as `unroutable`, naming the pin it reached instead.
+#[test]
+fn a_pin_fixed_on_the_other_pad_row_is_reported() {
+    let text = std::fs::read_to_string(root().join("demo-layouts/cold-store-monitor.yaml")).unwrap();
+    let text = text
+        .replace("front: {width: 72, height: 50}", "front: {width: 72, height: 55}")
+        .replace("  fill_port: {side: top, at: 36, width: 3}\n", "")
+        .replace("  edge_margin: 0.3\ndrive", "  edge_margin: 0.3\n  second_row: {}\n  fixed: {SEG1: 1}\ndrive");
+    assert!(text.contains("second_row") && text.contains("SEG1: 1") && !text.contains("fill_port"), "the demo changed");
+    let dir = tempfile::tempdir().unwrap();
+    let layout = dir.path().join("cold-store-two-pad-rows.yaml");
+    let build_with = |text: &str| {
+        std::fs::write(&layout, text).unwrap();
+        build(&layout, &dir.path().join("out"))
+    };
+    let (code, err) = build_with(&text.replace("  fixed: {SEG1: 1}\n", ""));
+    assert_eq!(code, Some(0), "{err}");
+    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
+    let (code, err) = build_with(&text);
+    assert_eq!(code, Some(1), "{err}");
+    assert!(err.contains("error[unroutable]") && err.contains("`SEG1` is fixed to pin 1 but its lead reaches pin"), "{err}");
+}
+
 /// Six fourteen-segment characters with points, a ten-step meter and two gauges at 1/3
 /// duty: clean, drive truth holding, each (COM, SEG) pair once; the characters on COM1
 /// (upper half) and COM3 (lower half) only, eight lines each, the meter and gauges on
