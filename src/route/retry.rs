@@ -10,7 +10,18 @@ pub type Attempt<T> = (T, Vec<usize>, Vec<Finding>);
 /// front each time, and stops early when that gives an order already tried (the same
 /// order routes the same way again); returns the result with the fewest findings (the
 /// first on ties), or `None` when `rounds` is 0.
-pub fn rip_up_and_retry<T>(mut order: Vec<usize>, rounds: usize, mut attempt: impl FnMut(&[usize]) -> Attempt<T>) -> Option<(T, Vec<Finding>)> {
+pub fn rip_up_and_retry<T>(order: Vec<usize>, rounds: usize, attempt: impl FnMut(&[usize]) -> Attempt<T>) -> Option<(T, Vec<Finding>)> {
+    rip_up_and_retry_arranged(order, rounds, |_| {}, attempt)
+}
+
+/// As [`rip_up_and_retry`], with `arrange` putting the stuck nets of a round in the order
+/// they lead the next one.
+pub fn rip_up_and_retry_arranged<T>(
+    mut order: Vec<usize>,
+    rounds: usize,
+    arrange: impl Fn(&mut Vec<usize>),
+    mut attempt: impl FnMut(&[usize]) -> Attempt<T>,
+) -> Option<(T, Vec<Finding>)> {
     let mut best: Option<(T, Vec<Finding>)> = None;
     let mut tried: Vec<Vec<usize>> = Vec::new();
     for _ in 0..rounds {
@@ -27,6 +38,7 @@ pub fn rip_up_and_retry<T>(mut order: Vec<usize>, rounds: usize, mut attempt: im
         }
         order.retain(|i| !failed.contains(i));
         let mut next = failed;
+        arrange(&mut next);
         next.extend(order);
         order = next;
     }
@@ -37,38 +49,9 @@ pub fn rip_up_and_retry<T>(mut order: Vec<usize>, rounds: usize, mut attempt: im
 mod tests {
     use super::*;
 
-    /// Net 2 fails unless it goes first: the second round puts it first and succeeds.
-    #[test]
-    fn stuck_nets_go_first_next_time() {
-        let mut orders = Vec::new();
-        let r = rip_up_and_retry(vec![0, 1, 2], 5, |order| {
-            orders.push(order.to_vec());
-            let failed = if order[0] == 2 { vec![] } else { vec![2] };
-            let notes = failed
-                .iter()
-                .map(|_| Finding {
-                    rule: crate::finding::Rule::Unroutable,
-                    severity: crate::finding::Severity::Error,
-                    plate: None,
-                    nets: vec!["N2".into()],
-                    location: crate::geom::pt(0.0, 0.0),
-                    measured: None,
-                    required: None,
-                    message: "stuck".into(),
-                })
-                .collect();
-            (order.to_vec(), failed, notes)
-        });
-        assert_eq!(orders, [vec![0, 1, 2], vec![2, 0, 1]]);
-        assert_eq!(r.unwrap().0, vec![2, 0, 1]);
-    }
-
-    /// Two nets that each get stuck when the other goes first send the order back and
-    /// forth: the third round would repeat the first, so it is not run.
-    #[test]
-    fn an_order_already_tried_is_not_run_again() {
-        let mut orders = Vec::new();
-        let stuck = |n: usize| Finding {
+    /// The finding of net `n` stuck.
+    fn stuck(n: usize) -> Finding {
+        Finding {
             rule: crate::finding::Rule::Unroutable,
             severity: crate::finding::Severity::Error,
             plate: None,
@@ -77,7 +60,43 @@ mod tests {
             measured: None,
             required: None,
             message: "stuck".into(),
-        };
+        }
+    }
+
+    /// Net 2 fails unless it goes first: the second round puts it first and succeeds.
+    #[test]
+    fn stuck_nets_go_first_next_time() {
+        let mut orders = Vec::new();
+        let r = rip_up_and_retry(vec![0, 1, 2], 5, |order| {
+            orders.push(order.to_vec());
+            let failed = if order[0] == 2 { vec![] } else { vec![2] };
+            let notes = failed.iter().map(|&n| stuck(n)).collect();
+            (order.to_vec(), failed, notes)
+        });
+        assert_eq!(orders, [vec![0, 1, 2], vec![2, 0, 1]]);
+        assert_eq!(r.unwrap().0, vec![2, 0, 1]);
+    }
+
+    /// The stuck nets lead the next round in the order `arrange` gives them: here the
+    /// higher-numbered first, which is the only order that succeeds.
+    #[test]
+    fn stuck_nets_lead_in_the_arranged_order() {
+        let mut orders = Vec::new();
+        let r = rip_up_and_retry_arranged(vec![0, 1, 2], 5, |s| s.sort_unstable_by(|a, b| b.cmp(a)), |order| {
+            orders.push(order.to_vec());
+            let failed: Vec<usize> = if order[..2] == [2, 1] { vec![] } else { vec![1, 2] };
+            let notes = failed.iter().map(|&n| stuck(n)).collect();
+            (order.to_vec(), failed, notes)
+        });
+        assert_eq!(orders, [vec![0, 1, 2], vec![2, 1, 0]]);
+        assert_eq!(r.unwrap().0, vec![2, 1, 0]);
+    }
+
+    /// Two nets that each get stuck when the other goes first send the order back and
+    /// forth: the third round would repeat the first, so it is not run.
+    #[test]
+    fn an_order_already_tried_is_not_run_again() {
+        let mut orders = Vec::new();
         let r = rip_up_and_retry(vec![0, 1], 5, |order| {
             orders.push(order.to_vec());
             let last = order[1];
