@@ -85,9 +85,10 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
         .collect();
     let base = back_grid(layout, &leads, &commons);
     let mut search = Search::new(&base);
-    // Stuck commons lead the next attempt, the higher-numbered first: the commons are
-    // numbered down a row, so of two stuck ones the lower, whose way out to the seal runs
-    // beneath the other's, is laid first and the upper one goes round it. A column of
+    // Stuck commons lead the next attempt, the higher-numbered first: in the row nearest
+    // the pads the commons are numbered down the row (the far tier counts the other way),
+    // so there of two stuck ones the lower, whose way out to the seal runs beneath the
+    // other's, is laid first and the upper one goes round it. A column of
     // stacked icons at the end of a row, moved 5 mm left, left COM3 and COM4 shut in by
     // COM2 and every later order worse with COM3 first; with COM4 first it routed.
     let stuck_order = |stuck: &mut Vec<usize>| stuck.sort_unstable_by(|a, b| b.cmp(a));
