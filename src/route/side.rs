@@ -35,13 +35,7 @@ impl SideFrame {
     /// The frame of the side opposite the pads, where the far tier's leads leave
     /// (`assign::tiers`).
     pub fn opposite(layout: &Layout) -> SideFrame {
-        let side = match layout.pads.side {
-            Side::Bottom => Side::Top,
-            Side::Top => Side::Bottom,
-            Side::Left => Side::Right,
-            Side::Right => Side::Left,
-        };
-        SideFrame::of_side(layout, side)
+        SideFrame::of_side(layout, layout.pads.side.opposite())
     }
 
     /// The frame of one side of the glass.
