@@ -127,7 +127,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let first_row = RowPlan { pads: &layout.pads, frame: &frame, commons: el.coms.len(), lines: near_lines };
     let (mut pads, mut transfers, mut fan) = plan_pads_and_fanout(layout, el, first_row, &escapes.arrivals, near, &mut findings)?;
     if let Some(row) = second {
-        if escapes.far_arrivals.is_empty() && far_extra.is_empty() && !el.segs.iter().any(|s| el.assignment.far_line(s.index)) {
+        if !el.assignment.far.iter().any(|f| *f) {
             return Err(crate::Error::input(layout.problem(
                 "pads.second_row",
                 "no SEG line goes to the second pad row: it takes the lines of a row of multiplexed digits that lies behind another as seen from the first row (pads on the top or bottom), and this layout has none".to_string(),
