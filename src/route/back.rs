@@ -40,10 +40,14 @@ struct Common {
     net: String,
     owner: u32,
     islands: Vec<Region>,
+    /// Per island, where a lead may end on it ([`landing_area`]).
+    landings: Vec<Region>,
     /// Per island, the indices of the elements (pixels) it lies behind, for messages.
     behind: Vec<Vec<usize>>,
     /// Its transfer dots' pads (the far tier's commons may have two).
     dots: Vec<Polygon>,
+    /// Per dot, where a lead may end on it.
+    dot_landings: Vec<Region>,
 }
 
 /// An island that could not be joined: its common, the island and what blocked it.
@@ -78,9 +82,12 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
             for b in layout.buses.iter().filter(|b| b.plate == PlateId::Back && b.net == c.net) {
                 islands.push(stroke_polyline(&b.points, b.width, tol));
             }
-            let dots = transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
+            let dots: Vec<Polygon> = transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
             let behind = islands.iter().map(|isl| elements_behind(el, k as u32, isl)).collect();
-            Common { net: c.net.clone(), owner: k as u32 + 1, islands, behind, dots }
+            // Worked out once here, on all cores, not in every attempt.
+            let landings = islands.iter().map(|isl| landing_area(layout, isl)).collect();
+            let dot_landings = dots.iter().map(|d| landing_area(layout, &region_of([d.clone()]))).collect();
+            Common { net: c.net.clone(), owner: k as u32 + 1, islands, landings, behind, dots, dot_landings }
         })
         .collect();
     let base = back_grid(layout, &leads, &commons);
@@ -135,8 +142,8 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         let Some(dot) = c.dots.first() else { continue };
         tree.clear();
         let mut seeds = Vec::new();
-        for d in &c.dots {
-            for i in landing_cells(layout, &grid, &region_of([d.clone()]), |_| true) {
+        for (d, inner) in c.dots.iter().zip(&c.dot_landings) {
+            for i in landing_cells(&grid, &region_of([d.clone()]), inner, |_| true) {
                 tree.add(i);
                 seeds.push(i);
             }
@@ -149,7 +156,7 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         // What the growth could not reach is asked for from its own side, nearest the dot
         // first, so that each cut-off part reports what blocks it.
         for i in nearest_first(&c.islands, dot).into_iter().filter(|i| left.contains(i)) {
-            match join(layout, &mut grid, search, &mut corridors, c, &mut tree, &c.islands[i]) {
+            match join(layout, &mut grid, search, &mut corridors, c, &mut tree, i) {
                 Ok(Some(lead)) => out.push(lead),
                 Ok(None) => {}
                 Err((at, blockers)) => {
@@ -189,7 +196,8 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
     let ends: Vec<Vec<usize>> = c
         .islands
         .iter()
-        .map(|isl| landing_cells(layout, grid, isl, |i| grid.owner(i) == c.owner || grid.owner(i) == super::grid::FREE))
+        .zip(&c.landings)
+        .map(|(isl, inner)| landing_cells(grid, isl, inner, |i| grid.owner(i) == c.owner || grid.owner(i) == super::grid::FREE))
         .collect();
     let mut pending = Pending::new(grid, &ends);
     while pending.any() {
@@ -287,10 +295,9 @@ fn by_cause(layout: &Layout, el: &Electrodes, commons: &[Common], islands: &[Stu
 /// lead lies inside (a lead ending on the edge leaves part of its end outside, a notch
 /// narrower than the lead — 0.1617 mm for a 0.17 mm lead under laser-film rules); all its
 /// usable cells when it is too small for that.
-fn landing_cells(layout: &Layout, grid: &Grid, piece: &Region, usable: impl Fn(usize) -> bool) -> Vec<usize> {
-    let inner = offset_round(piece, -layout.rules.lead_width / 2.0, layout.tolerance.max(grid.h / 4.0));
+fn landing_cells(grid: &Grid, piece: &Region, inner: &Region, usable: impl Fn(usize) -> bool) -> Vec<usize> {
     let mut cells = Vec::new();
-    grid.for_cells_in(&inner, |i| {
+    grid.for_cells_in(inner, |i| {
         if usable(i) {
             cells.push(i)
         }
@@ -305,9 +312,16 @@ fn landing_cells(layout: &Layout, grid: &Grid, piece: &Region, usable: impl Fn(u
     cells
 }
 
-/// Joins one island to the tree; the lead drawn, if one was needed, or the place where
+/// The part of a piece of ITO where a lead's centre may end ([`landing_cells`]): half a
+/// lead width in from its edge.
+fn landing_area(layout: &Layout, piece: &Region) -> Region {
+    offset_round(piece, -layout.rules.lead_width / 2.0, layout.tolerance.max(super::grid_step(layout) / 4.0))
+}
+
+/// Joins island `k` of a common to the tree; the lead drawn, if one was needed, or the place where
 /// the search stopped.
-fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut Corridors, c: &Common, tree: &mut Targets, isl: &Region) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
+fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut Corridors, c: &Common, tree: &mut Targets, k: usize) -> Result<Option<Lead>, (Pt, Vec<u32>)> {
+    let isl = &c.islands[k];
     let usable = |i: usize| grid.owner(i) == c.owner || grid.owner(i) == super::grid::FREE;
     let mut cells = Vec::new();
     grid.for_cells_in(isl, |i| {
@@ -315,7 +329,7 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
             cells.push(i)
         }
     });
-    let ends = landing_cells(layout, grid, isl, usable);
+    let ends = landing_cells(grid, isl, &c.landings[k], usable);
     if cells.is_empty() || cells.iter().any(|&i| tree.contains(i)) {
         for &i in &ends {
             tree.add(i);

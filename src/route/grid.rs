@@ -166,21 +166,18 @@ impl Grid {
     /// Claims every cell inside `region` for `owner` (id + 1); cells already claimed by
     /// another owner become `BLOCKED`.
     pub fn claim(&mut self, region: &Region, owner: u32) {
-        let mut cells = Vec::new();
-        self.for_cells_in(region, |i| cells.push(i));
-        self.claim_cells(cells, owner);
+        let mut spans = Vec::new();
+        self.for_spans_in(region, |r, c0, c1| spans.push((r, c0, c1)));
+        self.claim_spans(&spans, owner);
     }
 
-    /// Claims `cells` for `owner`: free ones become its, another owner's become
-    /// `BLOCKED` (claiming a cell twice for one owner changes nothing).
-    fn claim_cells(&mut self, cells: Vec<usize>, owner: u32) {
-        for i in cells {
-            let o = self.owner.get(i);
-            if o == FREE {
-                self.owner.set(i, owner);
-            } else if o != owner {
-                self.owner.set(i, BLOCKED);
-            }
+    /// Claims the runs of cells `spans` (row, first column, last column) for `owner`:
+    /// free cells become its, another owner's become `BLOCKED` (claiming a cell twice for
+    /// one owner changes nothing, so runs may overlap).
+    fn claim_spans(&mut self, spans: &[(usize, usize, usize)], owner: u32) {
+        let claimed = |o: u32| if o == FREE || o == owner { owner } else { BLOCKED };
+        for &(r, c0, c1) in spans {
+            self.owner.update_run(r, c0, c1, claimed);
         }
     }
 
@@ -192,11 +189,17 @@ impl Grid {
     /// visited more than once.
     pub fn for_cells_near(&self, region: &Region, d: f64, mut f: impl FnMut(usize)) {
         let nx = self.nx;
-        self.for_spans_in(region, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
+        self.for_spans_near(region, d, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
+    }
+
+    /// [`Grid::for_cells_near`] by runs of cells in a row (row, first column, last
+    /// column); runs may overlap.
+    pub fn for_spans_near(&self, region: &Region, d: f64, mut f: impl FnMut(usize, usize, usize)) {
+        self.for_spans_in(region, &mut f);
         for p in &region.0 {
             for ring in std::iter::once(p.exterior()).chain(p.interiors()) {
                 for w in ring.0.windows(2) {
-                    self.for_capsule_spans(w[0], w[1], d, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
+                    self.for_capsule_spans(w[0], w[1], d, &mut f);
                 }
             }
         }
@@ -271,17 +274,17 @@ impl Grid {
 
     /// [`Grid::claim`] of `region` grown by `d` ([`Grid::for_cells_near`]).
     pub fn claim_near(&mut self, region: &Region, d: f64, owner: u32) {
-        let mut cells = Vec::new();
-        self.for_cells_near(region, d, |i| cells.push(i));
-        self.claim_cells(cells, owner);
+        let mut spans = Vec::new();
+        self.for_spans_near(region, d, |r, c0, c1| spans.push((r, c0, c1)));
+        self.claim_spans(&spans, owner);
     }
 
     /// Blocks every cell inside `region`.
     pub fn block(&mut self, region: &Region) {
-        let mut cells = Vec::new();
-        self.for_cells_in(region, |i| cells.push(i));
-        for i in cells {
-            self.owner.set(i, BLOCKED);
+        let mut spans = Vec::new();
+        self.for_spans_in(region, |r, c0, c1| spans.push((r, c0, c1)));
+        for (r, c0, c1) in spans {
+            self.owner.update_run(r, c0, c1, |_| BLOCKED);
         }
     }
 
@@ -293,23 +296,23 @@ impl Grid {
             row.sort_unstable();
             let mut next = 0;
             for &(c0, c1) in row.iter() {
-                for c in next..c0.max(next) {
-                    self.owner.set(r * self.nx + c, BLOCKED);
+                if c0 > next {
+                    self.owner.update_run(r, next, c0 - 1, |_| BLOCKED);
                 }
                 next = next.max(c1 + 1);
             }
-            for c in next..self.nx {
-                self.owner.set(r * self.nx + c, BLOCKED);
+            if next < self.nx {
+                self.owner.update_run(r, next, self.nx - 1, |_| BLOCKED);
             }
         }
     }
 
     /// Adds `extra` to the cost of every cell inside `region`.
     pub fn add_cost(&mut self, region: &Region, extra: f32) {
-        let mut cells = Vec::new();
-        self.for_cells_in(region, |i| cells.push(i));
-        for i in cells {
-            self.cost.set(i, self.cost.get(i) + extra);
+        let mut spans = Vec::new();
+        self.for_spans_in(region, |r, c0, c1| spans.push((r, c0, c1)));
+        for (r, c0, c1) in spans {
+            self.cost.update_run(r, c0, c1, |c| c + extra);
         }
     }
 }

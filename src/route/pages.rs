@@ -122,6 +122,37 @@ impl<T: Copy + PartialEq> PagedCells<T> {
         }
     }
 
+    /// Sets each cell of the run `x0..=x1` of row `y` to `f` of its value, page by page: a
+    /// uniform page that `f` leaves as it is stays uniform, and a page is looked up (and
+    /// made its own) once per run, not once per cell.
+    pub fn update_run(&mut self, y: usize, x0: usize, x1: usize, f: impl Fn(T) -> T) {
+        let row = (y & MASK) << SHIFT;
+        for px in (x0 >> SHIFT)..=(x1 >> SHIFT) {
+            let p = (y >> SHIFT) * self.geom.px + px;
+            let (a, b) = (row | (x0.max(px << SHIFT) & MASK), row | (x1.min((px << SHIFT) | MASK) & MASK));
+            match &mut self.pages[p] {
+                Page::Uniform(v) => {
+                    let (old, new) = (*v, f(*v));
+                    if new != old {
+                        let mut d = vec![old; CELLS];
+                        d[a..=b].iter_mut().for_each(|c| *c = new);
+                        self.pages[p] = Page::Dense(d.into());
+                    }
+                }
+                Page::Dense(d) => {
+                    if d[a..=b].iter().all(|&c| f(c) == c) {
+                        continue;
+                    }
+                    if Arc::get_mut(d).is_none() {
+                        *d = d.to_vec().into();
+                    }
+                    let own = Arc::get_mut(d).expect("a page just copied has one owner");
+                    own[a..=b].iter_mut().for_each(|c| *c = f(*c));
+                }
+            }
+        }
+    }
+
     /// Turns every dense page whose cells are all alike back into one value.
     pub fn compact(&mut self) {
         for page in &mut self.pages {
@@ -277,6 +308,38 @@ mod tests {
         assert_eq!(b.dense_cells(), 0, "both pages are now alike inside");
         assert_eq!((b.get(0), b.get(127)), (1, 2));
         assert_eq!(a.get(0), 3);
+    }
+
+    /// A run across page borders does what setting its cells one by one does, leaves a
+    /// copy sharing the pages alone, and keeps a page uniform when nothing in it changes.
+    #[test]
+    fn a_run_updates_as_its_cells_one_by_one_would() {
+        let g = PageGeom::of(200, 130);
+        let mut runs = PagedCells::new(g, 0u32);
+        let mut cells = PagedCells::new(g, 0u32);
+        let shared = {
+            runs.update_run(70, 30, 150, |v| v + 1);
+            runs.clone()
+        };
+        for x in 30..=150 {
+            cells.set(70 * 200 + x, 1);
+        }
+        // Pages of rows 64-127: a run over three of them, another within one.
+        runs.update_run(70, 10, 199, |v| if v == 1 { 9 } else { 5 });
+        runs.update_run(127, 64, 127, |v| v + 2);
+        for x in 10..=199 {
+            let i = 70 * 200 + x;
+            cells.set(i, if cells.get(i) == 1 { 9 } else { 5 });
+        }
+        for x in 64..=127 {
+            cells.set(127 * 200 + x, 2);
+        }
+        assert!((0..200 * 130).all(|i| runs.get(i) == cells.get(i)));
+        assert!((30..=150).all(|x| shared.get(70 * 200 + x) == 1), "the copy keeps its values");
+        assert_eq!(shared.get(70 * 200 + 10), 0);
+        let before = runs.dense_cells();
+        runs.update_run(3, 0, 199, |v| v);
+        assert_eq!(runs.dense_cells(), before, "a run that changes nothing leaves uniform pages uniform");
     }
 
     #[test]

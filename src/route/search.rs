@@ -122,7 +122,8 @@ impl Search {
         debug_assert_eq!(self.nx, grid.nx, "search state made for another grid");
         self.nodes.next_search();
         let mut open = BinaryHeap::new();
-        let mut blockers: std::collections::HashMap<u32, usize> = Default::default();
+        // Few nets ever stop one search: a short list beats hashing on every blocked step.
+        let mut blockers: Vec<(u32, usize)> = Vec::new();
         let mut nearest = (f32::MAX, sources.first().copied().unwrap_or(0));
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
@@ -157,7 +158,10 @@ impl Search {
                 let o = grid.owner_xy(x, y);
                 if o != FREE && o != owner {
                     if o != BLOCKED {
-                        *blockers.entry(o).or_default() += 1;
+                        match blockers.iter_mut().find(|b| b.0 == o) {
+                            Some(b) => b.1 += 1,
+                            None => blockers.push((o, 1)),
+                        }
                     }
                     continue;
                 }
@@ -193,7 +197,7 @@ impl Search {
                 break;
             }
         }
-        let mut b: Vec<(u32, usize)> = blockers.into_iter().collect();
+        let mut b = blockers;
         b.sort_by(|x, y| y.1.cmp(&x.1).then(x.0.cmp(&y.0)));
         Err(Blocked { blockers: b.into_iter().map(|x| x.0).collect(), nearest: nearest.1, over_budget })
     }
