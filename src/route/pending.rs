@@ -26,9 +26,9 @@ pub struct Pending {
     boxes: Vec<Option<Boxed>>,
     by_tile: HashMap<(usize, usize), Vec<usize>>,
     index: RTree<Boxed>,
-    /// Distances to the nearest waiting box, one R-tree query per tile and join.
+    /// Distances to the nearest waiting box, one R-tree query per tile until that box's
+    /// island is joined.
     bound: TileBound,
-    joins: u32,
 }
 
 impl Pending {
@@ -70,7 +70,6 @@ impl Pending {
             by_tile,
             index,
             bound: TileBound::new(grid),
-            joins: 0,
         }
     }
 
@@ -98,7 +97,6 @@ impl Pending {
             if let Some(b) = &self.boxes[k] {
                 self.index.remove(b);
             }
-            self.joins += 1;
         }
     }
 }
@@ -115,7 +113,14 @@ impl Goal for Pending {
     /// The distance from `c`'s tile centre to the nearest waiting box, less half the
     /// tile's diagonal: never more than the distance from `c` to a waiting landing cell.
     fn bound(&self, c: usize) -> f32 {
-        self.bound.at(c, self.joins + 1, |p| self.index.nearest_neighbor(&p).map(|b| b.distance_2(&p).sqrt() as f32).unwrap_or(0.0))
+        // A tile's nearest waiting island stays its nearest until it is joined (joins
+        // only take islands away), so the distance is worked out again only then: once
+        // per tile and join, the R-tree was asked 4.8 M times at 64 digits.
+        self.bound.at_while(
+            c,
+            |key| self.waiting[key as usize - 1],
+            |p| self.index.nearest_neighbor(&p).map(|b| (b.distance_2(&p).sqrt() as f32, b.data as u32 + 1)).unwrap_or((0.0, 0)),
+        )
     }
 }
 

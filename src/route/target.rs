@@ -30,7 +30,8 @@ use super::corridor::{Goal, TileGeom, TILE};
 pub struct TileBound {
     nx: usize,
     ntx: usize,
-    /// Per tile: (version it was worked out for, distance from its centre).
+    /// Per tile: (the key it was worked out under — a version of the goal, or what the
+    /// goal's owner says keeps it true —, distance from its centre); key 0 = not yet.
     memo: RefCell<Vec<(u32, f32)>>,
 }
 
@@ -49,12 +50,20 @@ impl TileBound {
     /// The bound at cell `c` for goal version `version` (never 0), with `nearest` giving
     /// the distance in cells from a point (cell coordinates) to the nearest goal shape.
     pub fn at(&self, c: usize, version: u32, nearest: impl Fn([f64; 2]) -> f32) -> f32 {
+        self.at_while(c, |key| key == version, |p| (nearest(p), version))
+    }
+
+    /// The bound at cell `c`, worked out again only when `valid` says the key remembered
+    /// with its tile's distance no longer holds; `nearest` gives the distance and the key
+    /// (never 0) under which it holds.
+    pub fn at_while(&self, c: usize, valid: impl Fn(u32) -> bool, nearest: impl Fn([f64; 2]) -> (f32, u32)) -> f32 {
         let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
         let t = ty * self.ntx + tx;
         let mut memo = self.memo.borrow_mut();
-        if memo[t].0 != version {
+        if memo[t].0 == 0 || !valid(memo[t].0) {
             let half = (TILE - 1) as f64 / 2.0;
-            memo[t] = (version, nearest([(tx * TILE) as f64 + half, (ty * TILE) as f64 + half]));
+            let (d, key) = nearest([(tx * TILE) as f64 + half, (ty * TILE) as f64 + half]);
+            memo[t] = (key, d);
         }
         let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
         (memo[t].1 - half_diagonal).max(0.0)
