@@ -140,18 +140,22 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
     for &k in order {
         let c = &commons[k];
         let Some(dot) = c.dots.first() else { continue };
-        tree.clear();
         let mut seeds = Vec::new();
         for (d, inner) in c.dots.iter().zip(&c.dot_landings) {
-            for i in landing_cells(&grid, &region_of([d.clone()]), inner, |_| true) {
-                tree.add(i);
-                seeds.push(i);
-            }
+            seeds.extend(landing_cells(&grid, &region_of([d.clone()]), inner, |_| true));
         }
         // A common's own claims leave what it may use as it was.
         corridors.keep_factors_for(c.owner);
-        let mut grow = Growth { seeds, tree: &mut tree, seed_tiles: Default::default() };
+        let mut grow = Growth { tree_cells: seeds.clone(), seeds, seed_tiles: Default::default() };
         let left = grow_tree(layout, &mut grid, search, &mut corridors, c, &mut grow, &mut out);
+        // The tree as a goal only for the islands the growth could not reach (most often
+        // none): kept as it grew, it cost an R-tree insertion per tile of every island.
+        tree.clear();
+        if !left.is_empty() {
+            for &i in &grow.tree_cells {
+                tree.add(i);
+            }
+        }
         let mut ok = true;
         // What the growth could not reach is asked for from its own side, nearest the dot
         // first, so that each cut-off part reports what blocks it.
@@ -178,10 +182,11 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
 /// A common's tree while it grows: the cells a search for the next island starts from
 /// (the dots' landing cells, then one cell per corridor tile of each lead and island
 /// joined: the common's own ITO and leads, which the search may cross, join the rest)
-/// and the tree as the fallback joins see it.
-struct Growth<'a> {
+/// and every cell of the tree, from which the fallback joins' goal is made.
+struct Growth {
     seeds: Vec<usize>,
-    tree: &'a mut Targets,
+    /// Every cell of the tree, in the order it grew.
+    tree_cells: Vec<usize>,
     /// Corridor tiles that hold a seed already.
     seed_tiles: std::collections::HashSet<usize>,
 }
@@ -206,7 +211,7 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         pending.join(k);
         let tiles = corridors.tiles();
         for &i in path.iter().chain(&ends[k]) {
-            g.tree.add(i);
+            g.tree_cells.push(i);
             if g.seed_tiles.insert(tiles.tile_index(i)) {
                 g.seeds.push(i);
             }
