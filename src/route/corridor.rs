@@ -343,6 +343,12 @@ impl Corridors {
     pub fn allows(&self, grid: &Grid, c: usize) -> bool {
         self.mask[self.tile_index(grid, c)] == self.generation
     }
+
+    /// [`Corridors::allows`] for the cell at column `x`, row `y`.
+    #[inline]
+    pub fn allows_xy(&self, x: usize, y: usize) -> bool {
+        self.mask[(y / TILE) * self.ntx + x / TILE] == self.generation
+    }
 }
 
 /// Whether cell (x, y) is one `owner` may use.
@@ -431,7 +437,7 @@ pub fn find_guided(
             // The fine search starts from the sources in the corridor only (the tile the
             // coarse path starts from is one of them).
             let inside: Vec<usize> = sources.iter().copied().filter(|&s| c.allows(grid, s)).collect();
-            if let Ok(path) = search.find_within(grid, owner, &inside, |i| goal.is_goal(i), |i| goal.bound(i).max(c.hop_bound(i)), |i| c.allows(grid, i)) {
+            if let Ok(path) = search.find_within(grid, owner, &inside, |i| goal.is_goal(i), |i| goal.bound(i).max(c.hop_bound(i)), |x, y| c.allows_xy(x, y)) {
                 return Ok(path);
             }
             if !strict && corridors.kept.is_some() {
@@ -501,7 +507,7 @@ mod tests {
         let straight = 160.0;
         assert!(c.hop_bound(start) > 1.3 * straight, "{} cells", c.hop_bound(start));
         let mut search = Search::new(&g);
-        let path = search.find_within(&g, 1, &[start], |i| i == goal_cell, |_| 0.0, |i| c.allows(&g, i)).unwrap();
+        let path = search.find_within(&g, 1, &[start], |i| i == goal_cell, |_| 0.0, |x, y| c.allows_xy(x, y)).unwrap();
         // Walking the path back from the goal, the cost still to go (at least the steps
         // left) is never below the bound.
         for (k, &cell) in path.iter().enumerate() {

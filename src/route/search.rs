@@ -105,11 +105,13 @@ impl Search {
         goal: impl Fn(usize) -> bool,
         heuristic: impl Fn(usize) -> f32,
     ) -> Result<Vec<usize>, Blocked> {
-        self.find_within(grid, owner, sources, goal, heuristic, |_| true)
+        self.find_within(grid, owner, sources, goal, heuristic, |_, _| true)
     }
 
-    /// As `find`, but never entering a cell where `allowed` is false (the corridor of a
-    /// coarse search; sources are always allowed).
+    /// As `find`, but never entering a cell (column, row) where `allowed` is false (the
+    /// corridor of a coarse search; sources are always allowed). It takes the column and
+    /// row, which the search has at hand, so that it need not divide the index again
+    /// for each of the eight neighbours.
     pub fn find_within(
         &mut self,
         grid: &Grid,
@@ -117,7 +119,7 @@ impl Search {
         sources: &[usize],
         goal: impl Fn(usize) -> bool,
         heuristic: impl Fn(usize) -> f32,
-        allowed: impl Fn(usize) -> bool,
+        allowed: impl Fn(usize, usize) -> bool,
     ) -> Result<Vec<usize>, Blocked> {
         debug_assert_eq!(self.nx, grid.nx, "search state made for another grid");
         self.nodes.next_search();
@@ -151,10 +153,10 @@ impl Search {
                 nearest = (hc, c);
             }
             for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
-                if !allowed(n) {
+                let (x, y) = (x as usize, y as usize);
+                if !allowed(x, y) {
                     continue;
                 }
-                let (x, y) = (x as usize, y as usize);
                 let o = grid.owner_xy(x, y);
                 if o != FREE && o != owner {
                     if o != BLOCKED {
