@@ -12,7 +12,7 @@
 
 use super::grid::Grid;
 use super::search::{corners, Search};
-use super::corridor::{find_guided, Corridors};
+use super::corridor::{find_guided, find_guided_or_give_up, Corridors};
 use super::pending::Pending;
 use super::target::Targets;
 use super::{Lead, TransferSite};
@@ -206,7 +206,7 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         .collect();
     let mut pending = Pending::new(grid, &ends);
     while pending.any() {
-        let Ok(path) = find_guided(search, corridors, grid, c.owner, &g.seeds, &pending) else { break };
+        let Ok(path) = find_guided_or_give_up(search, corridors, grid, c.owner, &g.seeds, &pending) else { break };
         let Some(k) = path.last().and_then(|&e| pending.island_at(e)) else { break };
         pending.join(k);
         let tiles = corridors.tiles();

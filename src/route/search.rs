@@ -204,6 +204,48 @@ impl Search {
         Err(Blocked { blockers: b.into_iter().map(|x| x.0).collect(), nearest: nearest.1, over_budget })
     }
 
+    /// Whether a cell where `goal` holds can be reached from `sources` by the moves
+    /// [`Search::find`] makes (into cells free or owned by `owner` at a finite cost, no
+    /// corner cut past another net's cell), found by a breadth-first flood without costs
+    /// or heap; `None` when the flood would lend more pages of state than one search may
+    /// ([`super::pages::MAX_PAGES_LENT`]), where `find` would stop over its budget too.
+    pub fn reaches(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal: impl Fn(usize) -> bool) -> Option<bool> {
+        self.nodes.next_search();
+        let mut queue = std::collections::VecDeque::new();
+        let mark = Node { g: 0.0, h: 0.0, parent: 0, dir: 8 };
+        for &s in sources {
+            let (x, y) = (s % grid.nx, s / grid.nx);
+            if self.nodes.get(x, y).is_none() {
+                if !self.nodes.set(x, y, mark) {
+                    return None;
+                }
+                queue.push_back(s as u32);
+            }
+        }
+        let ok = |o: u32| o == FREE || o == owner;
+        while let Some(cell) = queue.pop_front() {
+            let c = cell as usize;
+            if goal(c) {
+                return Some(true);
+            }
+            let (cx, cy) = (c % grid.nx, c / grid.nx);
+            for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
+                let (x, y) = (x as usize, y as usize);
+                if !ok(grid.owner_xy(x, y)) || (d % 2 == 1 && (!ok(grid.owner_xy(cx, y)) || !ok(grid.owner_xy(x, cy)))) {
+                    continue;
+                }
+                if grid.cost_xy(x, y).is_infinite() || self.nodes.get(x, y).is_some() {
+                    continue;
+                }
+                if !self.nodes.set(x, y, mark) {
+                    return None;
+                }
+                queue.push_back(n as u32);
+            }
+        }
+        Some(false)
+    }
+
     fn path_to(&self, mut c: usize) -> Vec<usize> {
         let mut path = vec![c];
         loop {
@@ -251,6 +293,42 @@ mod tests {
         let end = g.index_of(crate::geom::pt(9.0, 1.0)).unwrap();
         let path = s.find(&g, 1, &[start], |c| c == end, |_| 0.0).unwrap();
         assert!(path.iter().any(|&c| g.centre(c).y >= 8.0), "must pass above the wall");
+    }
+
+    /// The flood reaches what the costed search reaches: round a wall with a gap, not
+    /// through one that closes the grid, nor past a corner of two cells of another net
+    /// touching diagonally, nor into cells of infinite cost.
+    #[test]
+    fn the_flood_reaches_what_the_search_finds() {
+        let mut g = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
+        let at = |g: &Grid, x: f64, y: f64| g.index_of(crate::geom::pt(x, y)).unwrap();
+        g.claim(&region_of([rect(4.8, 0.0, 5.2, 8.0)]), 7);
+        let (start, end) = (at(&g, 1.0, 1.0), at(&g, 9.0, 1.0));
+        let mut s = Search::new(&g);
+        assert_eq!(s.reaches(&g, 1, &[start], |c| c == end), Some(true));
+        assert!(s.find(&g, 1, &[start], |c| c == end, |_| 0.0).is_ok());
+        g.claim(&region_of([rect(4.8, 7.9, 5.2, 11.0)]), 7);
+        assert_eq!(s.reaches(&g, 1, &[start], |c| c == end), Some(false));
+        assert!(s.find(&g, 1, &[start], |c| c == end, |_| 0.0).is_err());
+        // Its own net's cells are open to it.
+        assert_eq!(s.reaches(&g, 7, &[start], |c| c == end), Some(true));
+        // The goal's eight neighbours at infinite cost.
+        let mut h = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
+        for (_, _, _, n) in neighbours(end, h.nx, h.ny) {
+            h.set_cost(n, f32::INFINITY);
+        }
+        assert_eq!(s.reaches(&h, 1, &[start], |c| c == end), Some(false));
+        assert!(s.find(&h, 1, &[start], |c| c == end, |_| 0.0).is_err());
+        // A line of single cells of another net corner to corner across the grid: no
+        // diagonal step slips between two of them.
+        let mut d = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
+        for i in 0..d.nx {
+            let c = i as f64 * 0.5;
+            d.claim(&region_of([rect(c - 0.1, c - 0.1, c + 0.1, c + 0.1)]), 7);
+        }
+        let (below, above) = (at(&d, 9.0, 1.0), at(&d, 1.0, 9.0));
+        assert_eq!(s.reaches(&d, 1, &[below], |c| c == above), Some(false));
+        assert!(s.find(&d, 1, &[below], |c| c == above, |_| 0.0).is_err());
     }
 
     #[test]
