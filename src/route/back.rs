@@ -12,7 +12,7 @@
 
 use super::grid::Grid;
 use super::search::{corners, Search};
-use super::corridor::{find_guided, find_guided_or_give_up, Corridors};
+use super::corridor::{find_guided, find_guided_or_give_up, Ask, Corridors};
 use super::pending::Pending;
 use super::target::Targets;
 use super::{Lead, TransferSite};
@@ -206,7 +206,7 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         .collect();
     let mut pending = Pending::new(grid, &ends);
     while pending.any() {
-        let Ok(path) = find_guided_or_give_up(search, corridors, grid, c.owner, &g.seeds, &pending) else { break };
+        let Ok(path) = find_guided_or_give_up(search, corridors, &Ask { grid, owner: c.owner, sources: &g.seeds, goal: &pending }) else { break };
         let Some(k) = path.last().and_then(|&e| pending.island_at(e)) else { break };
         pending.join(k);
         let tiles = corridors.tiles();
@@ -341,7 +341,7 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
         }
         return Ok(None);
     }
-    match find_guided(search, corridors, grid, c.owner, &ends, &*tree) {
+    match find_guided(search, corridors, &Ask { grid, owner: c.owner, sources: &ends, goal: &*tree }) {
         Ok(path) => {
             let pts = corners(grid, &path);
             for &i in path.iter().chain(ends.iter()) {

@@ -395,30 +395,37 @@ pub trait Goal {
 /// fine search inside its corridor; the fine search over the whole grid when there is no
 /// coarse path or the corridor turns out too narrow, so that a failure always reports what
 /// blocks the net on the whole grid.
-pub fn find_guided(
-    search: &mut Search,
-    corridors: &mut Corridors,
-    grid: &Grid,
-    owner: u32,
-    sources: &[usize],
-    goal: &impl Goal,
-) -> Result<Vec<usize>, Blocked> {
-    if let Some(path) = find_in_corridors(search, corridors, grid, owner, sources, goal) {
+pub fn find_guided(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Result<Vec<usize>, Blocked> {
+    if let Some(path) = find_in_corridors(search, corridors, ask) {
         return Ok(path);
     }
+    let Ask { grid, owner, sources, goal } = *ask;
     search.find(grid, owner, sources, |i| goal.is_goal(i), |i| goal.bound(i))
 }
 
+/// What one search asks for: a lead of `owner` on `grid` from any of `sources` to `goal`.
+pub struct Ask<'a, G: Goal> {
+    /// The routing grid.
+    pub grid: &'a Grid,
+    /// The net (id + 1) whose cells the lead may cross.
+    pub owner: u32,
+    /// Cells the lead may start from.
+    pub sources: &'a [usize],
+    /// Where it may end.
+    pub goal: &'a G,
+}
+
+impl<G: Goal> Clone for Ask<'_, G> {
+    fn clone(&self) -> Self {
+        *self
+    }
+}
+impl<G: Goal> Copy for Ask<'_, G> {}
+
 /// The fine search in the corridor of the coarse graph, then in the stricter one's; none
 /// when neither plans a corridor or holds a way.
-fn find_in_corridors(
-    search: &mut Search,
-    corridors: &mut Corridors,
-    grid: &Grid,
-    owner: u32,
-    sources: &[usize],
-    goal: &impl Goal,
-) -> Option<Vec<usize>> {
+fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Option<Vec<usize>> {
+    let Ask { grid, owner, sources, goal } = *ask;
     let half_diagonal = TILE as f32 * std::f32::consts::FRAC_1_SQRT_2;
     let tiles = corridors.tiles();
     // First the coarse graph that counts each tile's usable cells; when the corridor it
@@ -471,17 +478,11 @@ fn find_in_corridors(
 /// result is the same failure, found about ten times faster: a common growing its tree
 /// toward islands shut off from it flooded the glass with A* (the germination demo:
 /// one such search of 10 M heap pops took 1.8 s of its 3.4 s of routing).
-pub fn find_guided_or_give_up(
-    search: &mut Search,
-    corridors: &mut Corridors,
-    grid: &Grid,
-    owner: u32,
-    sources: &[usize],
-    goal: &impl Goal,
-) -> Result<Vec<usize>, ()> {
-    if let Some(path) = find_in_corridors(search, corridors, grid, owner, sources, goal) {
+pub fn find_guided_or_give_up(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Result<Vec<usize>, ()> {
+    if let Some(path) = find_in_corridors(search, corridors, ask) {
         return Ok(path);
     }
+    let Ask { grid, owner, sources, goal } = *ask;
     if search.reaches(grid, owner, sources, |i| goal.is_goal(i)) == Some(false) {
         return Err(());
     }

@@ -4,7 +4,7 @@
 
 use super::grid::Grid;
 use super::search::{corners, Search};
-use super::corridor::{find_guided, Corridors, Goal, TileGeom};
+use super::corridor::{find_guided, Ask, Corridors, Goal, TileGeom};
 use super::target::Targets;
 use super::side::SideFrame;
 use crate::electrode::Electrodes;
@@ -189,7 +189,7 @@ fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize]
                 }
                 continue;
             }
-            match find_guided(search, &mut corridors, &grid, owner, &cells, &joined) {
+            match find_guided(search, &mut corridors, &Ask { grid: &grid, owner, sources: &cells, goal: &joined }) {
                 Ok(path) => {
                     let pts = corners(&grid, &path);
                     claim_lead(&mut grid, layout, &pts, owner, k);
@@ -214,7 +214,7 @@ fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize]
         }
         let frame = frames.of(n);
         let goal = SealBand { frame, grid: &grid, v_goal: frame.v_lc };
-        match find_guided(search, &mut corridors, &grid, owner, &tree, &goal) {
+        match find_guided(search, &mut corridors, &Ask { grid: &grid, owner, sources: &tree, goal: &goal }) {
             Ok(path) => {
                 let pts = corners(&grid, &path);
                 claim_lead(&mut grid, layout, &pts, owner, k);
