@@ -84,6 +84,9 @@ pub struct Corridors {
     stamp: Vec<u32>,
     g: Vec<f32>,
     h: Vec<f32>,
+    /// Per tile, the generation in which its `h` was worked out exactly (a source may
+    /// start from a kept bound, [`Goal::kept_bound`]).
+    exact: Vec<u32>,
     factor: Vec<f32>,
     parent: Vec<u32>,
     mask: Vec<u32>,
@@ -124,6 +127,7 @@ impl Corridors {
             stamp: vec![0; n],
             g: vec![0.0; n],
             h: vec![0.0; n],
+            exact: vec![0; n],
             factor: vec![0.0; n],
             parent: vec![0; n],
             mask: vec![0; n],
@@ -222,17 +226,29 @@ impl Corridors {
         sources: &[usize],
         goal: impl Fn(usize) -> bool,
         heuristic: impl Fn(usize) -> f32,
+        kept: impl Fn(usize) -> Option<f32>,
         margin: usize,
     ) -> bool {
         self.generation += 1;
         let now = self.generation;
         let mut open = BinaryHeap::new();
+        // A source starts from a kept bound where there is one, and gets its exact bound
+        // when it is first taken from the heap, going back in if that is higher: tiles are
+        // then taken in the same order as with exact bounds from the start, but a common's
+        // tree of thousands of tiles no longer has every bound worked out for every
+        // search (the bound of a tile changes whenever the island nearest it is joined).
         for &s in sources {
             let t = self.tile_index(grid, s);
             if self.stamp[t] != now {
                 self.stamp[t] = now;
                 self.g[t] = 0.0;
-                self.h[t] = heuristic(t);
+                match kept(t) {
+                    Some(h) => self.h[t] = h,
+                    None => {
+                        self.h[t] = heuristic(t);
+                        self.exact[t] = now;
+                    }
+                }
                 self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
                 self.parent[t] = t as u32;
                 open.push(Open { f: self.h[t], cell: t as u32 });
@@ -243,6 +259,15 @@ impl Corridors {
             let t = tile as usize;
             if f - self.h[t] > self.g[t] + 1e-3 {
                 continue;
+            }
+            if self.exact[t] != now {
+                self.exact[t] = now;
+                let h = heuristic(t);
+                if h > self.h[t] {
+                    self.h[t] = h;
+                    open.push(Open { f: self.g[t] + h, cell: tile });
+                    continue;
+                }
             }
             if goal(t) {
                 self.mark(t, margin);
@@ -268,6 +293,7 @@ impl Corridors {
                     if fresh {
                         self.stamp[n] = now;
                         self.h[n] = heuristic(n);
+                        self.exact[n] = now;
                     }
                     self.g[n] = ng;
                     self.parent[n] = t as u32;
@@ -389,6 +415,13 @@ pub trait Goal {
     fn is_goal_tile(&self, tiles: &TileGeom, t: usize) -> bool;
     /// A lower bound on the cost from cell `c` to the goal.
     fn bound(&self, c: usize) -> f32;
+    /// A lower bound at cell `c` that costs nothing to give, if one is at hand (one worked
+    /// out earlier that still bounds the cost, though it may be lower than
+    /// [`Goal::bound`] now). The coarse search starts its sources from it and works out
+    /// the exact bound only for the sources it reaches.
+    fn kept_bound(&self, _c: usize) -> Option<f32> {
+        None
+    }
 }
 
 /// Finds the lead from `sources` to `goal`: a coarse path over the tiles first, then the
@@ -447,6 +480,7 @@ fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'
             sources,
             |t| goal.is_goal_tile(&tiles, t),
             |t| (goal.bound(tiles.centre_cell(t)) - half_diagonal).max(0.0),
+            |t| goal.kept_bound(tiles.centre_cell(t)).map(|b| (b - half_diagonal).max(0.0)),
             MARGIN,
         );
         corridors.strict = false;
@@ -507,9 +541,9 @@ mod tests {
         let mut c = Corridors::new(&g);
         let start = g.index_of(pt(2.0, 10.0)).unwrap();
         let goal_tile = c.tile_index(&g, g.index_of(pt(18.0, 10.0)).unwrap());
-        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1), "the lenient graph leaks");
+        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, |_| None, 1), "the lenient graph leaks");
         c.strict = true;
-        assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1), "the strict graph holds");
+        assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, |_| None, 1), "the strict graph holds");
     }
 
     /// A 20 mm glass at 0.1 mm cells with a wall up the middle, open above 17 mm; the
@@ -529,7 +563,7 @@ mod tests {
     #[test]
     fn corridor_follows_the_gap() {
         let (g, mut c, start, _, goal_tile) = wall_with_a_gap_at_its_top();
-        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1));
+        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, |_| None, 1));
         assert!(c.allows(&g, g.index_of(pt(10.0, 18.0)).unwrap()), "through the gap above the wall");
         assert!(!c.allows(&g, g.index_of(pt(10.0, 5.0)).unwrap()), "not through the wall");
         // Corners no cheapest path passes near stay out.
@@ -543,7 +577,7 @@ mod tests {
     #[test]
     fn the_hop_bound_goes_round_the_wall_and_stays_below_the_path() {
         let (g, mut c, start, goal_cell, goal_tile) = wall_with_a_gap_at_its_top();
-        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, MARGIN));
+        assert!(c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, |_| None, MARGIN));
         c.count_hops(|t| t == goal_tile);
         let straight = 160.0;
         assert!(c.hop_bound(start) > 1.3 * straight, "{} cells", c.hop_bound(start));
@@ -558,6 +592,27 @@ mod tests {
         assert_eq!(c.hop_bound(g.index_of(pt(1.0, 19.5)).unwrap()), f32::INFINITY, "outside the corridor");
     }
 
+    /// Sources started from a lower kept bound give the corridor that exact bounds give:
+    /// each source's exact bound is worked out when the heap first yields it.
+    #[test]
+    fn sources_from_kept_bounds_give_the_same_corridor() {
+        let (g, mut c, _, goal_cell, goal_tile) = wall_with_a_gap_at_its_top();
+        let sources: Vec<usize> = [(1.0, 1.0), (3.0, 12.0), (6.0, 18.0), (8.0, 3.0)].iter().map(|&(x, y)| g.index_of(pt(x, y)).unwrap()).collect();
+        let tiles = c.tiles();
+        let exact = |t: usize| {
+            let (tx, ty) = tiles.column_row(t);
+            let (gx, gy) = ((goal_cell % g.nx) / TILE, (goal_cell / g.nx) / TILE);
+            (((tx as f32 - gx as f32).powi(2) + (ty as f32 - gy as f32).powi(2)).sqrt() - 1.5).max(0.0) * TILE as f32
+        };
+        let all: Vec<usize> = (0..g.nx * g.ny).step_by(7).collect();
+        assert!(c.plan(&g, 1, &sources, |t| t == goal_tile, exact, |_| None, MARGIN));
+        let with_exact: Vec<bool> = all.iter().map(|&i| c.allows(&g, i)).collect();
+        assert!(c.plan(&g, 1, &sources, |t| t == goal_tile, exact, |_| Some(0.0), MARGIN));
+        let with_kept: Vec<bool> = all.iter().map(|&i| c.allows(&g, i)).collect();
+        assert_eq!(with_exact, with_kept);
+        assert!(with_exact.iter().any(|a| *a) && !with_exact.iter().all(|a| *a));
+    }
+
     /// A closed box around the start: no coarse path.
     #[test]
     fn no_corridor_out_of_a_closed_box() {
@@ -567,6 +622,6 @@ mod tests {
         let mut c = Corridors::new(&g);
         let start = g.index_of(pt(8.0, 8.0)).unwrap();
         let goal_tile = c.tile_index(&g, g.index_of(pt(18.0, 18.0)).unwrap());
-        assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, 1));
+        assert!(!c.plan(&g, 1, &[start], |t| t == goal_tile, |_| 0.0, |_| None, 1));
     }
 }

@@ -122,6 +122,11 @@ impl Goal for Pending {
             |p| self.index.nearest_neighbor(&p).map(|b| (b.distance_2(&p).sqrt() as f32, b.data as u32 + 1)).unwrap_or((0.0, 0)),
         )
     }
+    /// The distance last worked out for `c`'s tile, to an island that may have been joined
+    /// since: joins only take islands away, so it never exceeds the distance now.
+    fn kept_bound(&self, c: usize) -> Option<f32> {
+        self.bound.kept(c)
+    }
 }
 
 #[cfg(test)]
@@ -164,8 +169,12 @@ mod tests {
         p.join(0);
         assert_eq!(p.island_at(a), None);
         assert!(p.is_goal(b));
+        // The bound kept from before the join still bounds from below, but is the old one.
+        let kept = p.kept_bound(near_a).expect("worked out above");
+        assert!(kept <= 5.0 + 1e-3, "kept {kept}");
         // Now the nearest waiting island is 1, about 50 cells away in x and y.
         assert!(p.bound(near_a) > 35.0, "bound {}", p.bound(near_a));
+        assert_eq!(p.kept_bound(near_a), Some(p.bound(near_a)), "kept as worked out again");
         p.join(1);
         assert!(!p.any());
     }

@@ -53,6 +53,15 @@ impl TileBound {
         self.at_while(c, |key| key == version, |p| (nearest(p), version))
     }
 
+    /// The bound at cell `c` as last worked out, whatever it was worked out under (for a
+    /// goal that only shrinks this stays a lower bound); none before the first time.
+    pub fn kept(&self, c: usize) -> Option<f32> {
+        let (tx, ty) = ((c % self.nx) / TILE, (c / self.nx) / TILE);
+        let (key, d) = self.memo.borrow()[ty * self.ntx + tx];
+        let half_diagonal = (TILE - 1) as f32 * std::f32::consts::FRAC_1_SQRT_2;
+        (key != 0).then(|| (d - half_diagonal).max(0.0))
+    }
+
     /// The bound at cell `c`, worked out again only when `valid` says the key remembered
     /// with its tile's distance no longer holds; `nearest` gives the distance and the key
     /// (never 0) under which it holds.
