@@ -214,9 +214,10 @@ impl Corridors {
     }
 
     /// Searches the tiles from those of `sources` to one where `goal` holds (a tile index),
-    /// with `heuristic` a lower bound in cells from a tile to the goal; on success marks the
-    /// path's tiles grown by `margin` tiles as the corridor and
-    /// returns true. The other sources' tiles stay out: a search for the next island of a
+    /// with `heuristic` a lower bound in cells from a tile to the goal and `kept` a lower
+    /// one at no cost where one is at hand (for the sources, [`Goal::kept_bound`]); on
+    /// success marks the path's tiles grown by `margin` tiles as the corridor and returns
+    /// true. The other sources' tiles stay out: a search for the next island of a
     /// common starts from its whole tree, and with every tree tile in the corridor a fine
     /// search that failed flooded the tree (1.6 M of the two-row benchmark's 6.2 M pops).
     pub fn plan(
