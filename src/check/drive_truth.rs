@@ -53,8 +53,8 @@ pub fn shared_pairs(art: &Artwork) -> Vec<(String, String)> {
 /// The parts of `r` near a pixel whose box is `bbox` (`geom::cut_to_box`): a common
 /// spans the glass with thousands of vertices, and a boolean with all of it for every
 /// pixel costs the whole electrode each time.
-fn near(r: &Region, bbox: &geo::Rect<f64>) -> Region {
-    geom::cut_to_box(&r.0, bbox)
+fn near(r: &geom::bands::Banded, bbox: &geo::Rect<f64>) -> Region {
+    r.near(bbox)
 }
 
 /// Compares what each (COM, SEG) pair lights with the pixels assigned to it.
@@ -67,15 +67,16 @@ pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
         out.push(finding(&first, vec![seg.clone(), com.clone()], format!("{} share the pair ({com}, {seg}) and would always switch together", names.join(", "))));
     }
     // Each net's ITO once, then per pixel only the polygons whose boxes meet it.
-    let mut front: std::collections::HashMap<&str, Region> = Default::default();
-    let mut back: std::collections::HashMap<&str, Region> = Default::default();
-    let mut not_back: std::collections::HashMap<&str, Region> = Default::default();
+    use geom::bands::Banded;
+    let mut front: std::collections::HashMap<&str, Banded> = Default::default();
+    let mut back: std::collections::HashMap<&str, Banded> = Default::default();
+    let mut not_back: std::collections::HashMap<&str, Banded> = Default::default();
     for p in &art.pixels {
         use geo::BoundingRect;
         let Some(bbox) = p.region.bounding_rect() else { continue };
         let designed = geom::intersection(&p.region, &lc);
-        let seg = near(front.entry(&p.seg_net).or_insert_with(|| ito_of(ex, PlateId::Front, &p.seg_net, true)), &bbox);
-        let com = near(back.entry(&p.com_net).or_insert_with(|| ito_of(ex, PlateId::Back, &p.com_net, true)), &bbox);
+        let seg = near(front.entry(&p.seg_net).or_insert_with(|| Banded::of(&ito_of(ex, PlateId::Front, &p.seg_net, true))), &bbox);
+        let com = near(back.entry(&p.com_net).or_insert_with(|| Banded::of(&ito_of(ex, PlateId::Back, &p.com_net, true))), &bbox);
         let lit = geom::intersection(&geom::intersection(&designed, &seg), &com);
         let dark = geom::difference(&designed, &lit);
         if geom::area(&dark) > MIN_GHOST_MM2 {
@@ -91,7 +92,7 @@ pub fn check_drive_truth(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
                 ),
             ));
         }
-        let others = near(not_back.entry(&p.com_net).or_insert_with(|| ito_of(ex, PlateId::Back, &p.com_net, false)), &bbox);
+        let others = near(not_back.entry(&p.com_net).or_insert_with(|| Banded::of(&ito_of(ex, PlateId::Back, &p.com_net, false))), &bbox);
         let wrong = geom::intersection(&designed, &others);
         if geom::area(&wrong) > MIN_GHOST_MM2 {
             let who = ex.nets_of(&ex.components_meeting(PlateId::Back, &wrong.0[0]));

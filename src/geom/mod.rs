@@ -12,6 +12,7 @@ mod interior;
 mod overlap;
 mod segment;
 mod shapes;
+pub mod bands;
 pub mod path;
 pub use clip::{clip_to_rect, cut_to_box, CUT_MARGIN};
 pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
