@@ -12,13 +12,13 @@
 //! since cutting to the band and then to the box is cutting to the box. A wider box is cut
 //! from the whole polygon, as before.
 
-use super::{clip_to_rect, region_of, Polygon, Region, CUT_MARGIN};
+use super::{clip_to_rect, region_of, Polygon, Region};
 use geo::BoundingRect;
 
 /// Width of a band's core, mm.
 pub const BAND: f64 = 4.0;
 /// How far each band reaches past its core on either side, mm: a box up to this wide
-/// (after [`CUT_MARGIN`]) always fits in one band.
+/// (after [`super::CUT_MARGIN`]) always fits in one band.
 pub const OVERLAP: f64 = 6.0;
 
 /// One polygon of the region: small ones are cut whole; large ones keep their band pieces.
@@ -61,11 +61,10 @@ impl Banded {
     }
 
     /// The parts of the region that can meet a shape whose box is `bbox`, cut to `bbox`
-    /// grown by [`CUT_MARGIN`]: the same region [`super::cut_to_box`] gives.
+    /// grown by [`super::CUT_MARGIN`]: the same region [`super::cut_to_box`] gives.
     pub fn near(&self, bbox: &geo::Rect<f64>) -> Region {
         use geo::Intersects;
-        let (lo, hi) = (bbox.min(), bbox.max());
-        let (x0, y0, x1, y1) = (lo.x - CUT_MARGIN, lo.y - CUT_MARGIN, hi.x + CUT_MARGIN, hi.y + CUT_MARGIN);
+        let (x0, y0, x1, y1) = super::clip::cut_window(bbox);
         let k = band_of(self.x0, x0);
         let fits = x0 >= self.x0 + k as f64 * BAND - OVERLAP && x1 <= self.x0 + (k + 1) as f64 * BAND + OVERLAP;
         let mut out = Vec::new();

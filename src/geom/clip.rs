@@ -47,14 +47,20 @@ pub const CUT_MARGIN: f64 = 0.01;
 /// gives the same result at the cost of the vertices near it.
 pub fn cut_to_box<'a>(polys: impl IntoIterator<Item = &'a Polygon>, bbox: &geo::Rect<f64>) -> super::Region {
     use geo::{BoundingRect, Intersects};
-    let (lo, hi) = (bbox.min(), bbox.max());
-    let (x0, y0, x1, y1) = (lo.x - CUT_MARGIN, lo.y - CUT_MARGIN, hi.x + CUT_MARGIN, hi.y + CUT_MARGIN);
+    let (x0, y0, x1, y1) = cut_window(bbox);
     super::region_of(
         polys
             .into_iter()
             .filter(|p| p.bounding_rect().is_some_and(|b| b.intersects(bbox)))
             .filter_map(|p| clip_to_rect(p, x0, y0, x1, y1)),
     )
+}
+
+/// The rectangle larger polygons are cut to before a boolean with a shape whose box is
+/// `bbox`: the box grown by [`CUT_MARGIN`], as (x0, y0, x1, y1).
+pub(crate) fn cut_window(bbox: &geo::Rect<f64>) -> (f64, f64, f64, f64) {
+    let (lo, hi) = (bbox.min(), bbox.max());
+    (lo.x - CUT_MARGIN, lo.y - CUT_MARGIN, hi.x + CUT_MARGIN, hi.y + CUT_MARGIN)
 }
 
 fn closed(mut v: Vec<Pt>) -> LineString<f64> {
