@@ -10,6 +10,8 @@
 use super::csv::{field, fixed4, opt_u32, round4};
 use super::drive_info::{bias_name, duty_name};
 use crate::artwork::{Artwork, Pixel};
+use crate::geom::bands::Banded;
+use std::collections::HashMap;
 use crate::{Error, Result};
 use serde::Serialize;
 
@@ -58,7 +60,7 @@ fn lowest_pin(art: &Artwork, net: &str) -> Option<u32> {
     art.pins.iter().filter(|p| p.net == net).map(|p| p.number).min()
 }
 
-fn row(art: &Artwork, p: &Pixel) -> SegmentRow {
+fn row(art: &Artwork, p: &Pixel, back: &Banded) -> SegmentRow {
     let seg = art.net(&p.seg_net);
     let drives = p.drives.clone();
     let c = crate::geom::centroid(&p.region);
@@ -74,33 +76,42 @@ fn row(art: &Artwork, p: &Pixel) -> SegmentRow {
         area_mm2: round4(crate::geom::area(&p.region)),
         centroid_x_mm: c.map(|c| round4(c.x)),
         centroid_y_mm: c.map(|c| round4(c.y)),
-        coverage: coverage(art, p).map(round4),
+        coverage: coverage(p, back).map(round4),
     }
 }
 
-/// Area of the pixel faced by back ITO of its common, over the pixel's area.
-fn coverage(art: &Artwork, p: &Pixel) -> Option<f64> {
+/// Area of the pixel faced by back ITO of its common (`back`, cut into bands), over the
+/// pixel's area.
+fn coverage(p: &Pixel, back: &Banded) -> Option<f64> {
     use geo::BoundingRect;
     let whole = crate::geom::area(&p.region);
     let bbox = p.region.bounding_rect()?;
-    // Each piece of the common cut down to the pixel's box (grown a little): a common
-    // electrode spans the glass, and a boolean with all of it for every pixel costs the
-    // whole electrode each time (geom::cut_to_box).
-    let back = crate::geom::cut_to_box(
-        art.shapes
-            .iter()
-            .filter(|s| s.layer == crate::artwork::Layer::BackIto && s.net.as_deref() == Some(p.com_net.as_str()))
-            .map(|s| &s.polygon),
-        &bbox,
-    );
-    let faced = crate::geom::area(&crate::geom::intersection(&p.region, &back));
+    // The common cut down to the pixel's box (grown a little) from the band that holds
+    // it: a common electrode spans the glass, and a boolean with all of it, or a cut of
+    // all of it, for every pixel costs the whole electrode each time.
+    let faced = crate::geom::area(&crate::geom::intersection(&p.region, &back.near(&bbox)));
     (whole > 0.0).then(|| (faced / whole).min(1.0))
+}
+
+/// The back ITO of each common, cut into bands once.
+fn commons_banded(art: &Artwork) -> HashMap<&str, Banded> {
+    let mut by_net: HashMap<&str, Vec<crate::geom::Polygon>> = HashMap::new();
+    for p in &art.pixels {
+        by_net.entry(p.com_net.as_str()).or_default();
+    }
+    for s in art.shapes.iter().filter(|s| s.layer == crate::artwork::Layer::BackIto) {
+        if let Some(polys) = s.net.as_deref().and_then(|n| by_net.get_mut(n)) {
+            polys.push(s.polygon.clone());
+        }
+    }
+    by_net.into_iter().map(|(n, polys)| (n, Banded::of(&crate::geom::region_of(polys)))).collect()
 }
 
 /// Every pixel as a segment-map row, sorted by COM index, SEG line, element name (rows
 /// whose net is unknown sort after the others).
 pub fn segment_rows(art: &Artwork) -> Vec<SegmentRow> {
-    let mut rows: Vec<SegmentRow> = art.pixels.iter().map(|p| row(art, p)).collect();
+    let backs = commons_banded(art);
+    let mut rows: Vec<SegmentRow> = art.pixels.iter().map(|p| row(art, p, &backs[p.com_net.as_str()])).collect();
     let key = |r: &SegmentRow| (r.com.unwrap_or(u32::MAX), r.seg.unwrap_or(u32::MAX));
     rows.sort_by(|a, b| key(a).cmp(&key(b)).then_with(|| a.element.cmp(&b.element)));
     rows

@@ -65,8 +65,7 @@ impl Banded {
     pub fn near(&self, bbox: &geo::Rect<f64>) -> Region {
         use geo::Intersects;
         let (x0, y0, x1, y1) = super::clip::cut_window(bbox);
-        let k = band_of(self.x0, x0);
-        let fits = x0 >= self.x0 + k as f64 * BAND - OVERLAP && x1 <= self.x0 + (k + 1) as f64 * BAND + OVERLAP;
+        let (k, fits) = self.band_for(bbox);
         let mut out = Vec::new();
         for part in self.parts.iter().filter(|p| p.bbox.intersects(bbox)) {
             match part.bands.get(k).filter(|_| fits && !part.bands.is_empty()) {
@@ -75,6 +74,28 @@ impl Banded {
             }
         }
         region_of(out)
+    }
+}
+
+impl Banded {
+    /// The band whose grown reach holds `bbox` cut with its margin, and whether it does
+    /// hold it (else [`Banded::near`] cuts whole polygons).
+    fn band_for(&self, bbox: &geo::Rect<f64>) -> (usize, bool) {
+        let (x0, _, x1, _) = super::clip::cut_window(bbox);
+        let k = band_of(self.x0, x0);
+        (k, x0 >= self.x0 + k as f64 * BAND - OVERLAP && x1 <= self.x0 + (k + 1) as f64 * BAND + OVERLAP)
+    }
+
+    /// Whether a shape whose box is `bbox` is cut from band pieces by [`Banded::near`]
+    /// (it is narrow enough for one band's reach) rather than from whole polygons.
+    pub fn fits(&self, bbox: &geo::Rect<f64>) -> bool {
+        self.band_for(bbox).1
+    }
+
+    /// The region's polygons whose boxes meet `bbox`, each with its box.
+    pub fn meeting<'a>(&'a self, bbox: &'a geo::Rect<f64>) -> impl Iterator<Item = (&'a Polygon, &'a geo::Rect<f64>)> + 'a {
+        use geo::Intersects;
+        self.parts.iter().filter(move |p| p.bbox.intersects(bbox)).map(|p| (&p.polygon, &p.bbox))
     }
 }
 

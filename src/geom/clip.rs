@@ -81,8 +81,10 @@ fn clip_edge(v: &[Pt], axis: usize, lo: bool, bound: f64) -> Vec<Pt> {
             out.push(a);
         }
         if ia != ib {
+            // On the line exactly (interpolating the cut coordinate itself can miss it by
+            // an ulp), so that two clips either side of one line meet on it.
             let t = (bound - c(a)) / (c(b) - c(a));
-            out.push(pt(a.x + (b.x - a.x) * t, a.y + (b.y - a.y) * t));
+            out.push(if axis == 0 { pt(bound, a.y + (b.y - a.y) * t) } else { pt(a.x + (b.x - a.x) * t, bound) });
         }
     }
     out

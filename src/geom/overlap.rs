@@ -3,29 +3,46 @@
 //! A common electrode spans the glass; the area a SEG line's ITO faces of it was the
 //! area of a boolean of the line with the whole back plate, once per line. Here each
 //! pair of polygons whose boxes meet is intersected after the larger of the two has been
-//! cut to the smaller one's box (`cut_to_box`), so the work follows the size of the
-//! small shapes, not of the glass.
+//! cut to the smaller one's box, and a polygon that spans the glass is cut from its
+//! bands ([`super::bands::Banded`]: the second region is cut into bands once by the
+//! caller, a wide polygon of the first here), so the work follows the size of the small
+//! shapes, not of the glass.
 
+use super::bands::Banded;
 use super::{area, cut_to_box, intersection, region_of, Polygon, Region};
 use geo::BoundingRect;
 
-/// The area `a` and `b` share. The polygons of each region must not overlap one another
-/// (as the pieces of a region do); then each shared part is counted once.
-pub fn overlap_area(a: &Region, b: &Region) -> f64 {
-    let boxes = |r: &Region| -> Vec<Option<geo::Rect<f64>>> { r.0.iter().map(|p| p.bounding_rect()).collect() };
-    let (ba, bb) = (boxes(a), boxes(b));
+/// The area `a` and `b` share (`b` cut into bands once, as it is asked about by many
+/// regions). The polygons of each region must not overlap one another (as the pieces of
+/// a region do); then each shared part is counted once.
+pub fn overlap_area(a: &Region, b: &Banded) -> f64 {
     let mut total = 0.0;
-    for (pa, ra) in a.0.iter().zip(&ba) {
-        let Some(ra) = ra else { continue };
-        for (pb, rb) in b.0.iter().zip(&bb) {
-            let Some(rb) = rb else { continue };
-            let meet = ra.min().x <= rb.max().x && rb.min().x <= ra.max().x && ra.min().y <= rb.max().y && rb.min().y <= ra.max().y;
-            if !meet {
-                continue;
+    for pa in &a.0 {
+        let Some(ra) = pa.bounding_rect() else { continue };
+        if b.fits(&ra) {
+            // A small polygon: what of `b` lies near it, cut from `b`'s bands (the
+            // polygons of `b` do not overlap, so one boolean counts each once).
+            if b.meeting(&ra).next().is_some() {
+                total += area(&intersection(&region_of([pa.clone()]), &b.near(&ra)));
             }
-            let (small, small_box, large) = if vertices(pa) <= vertices(pb) { (pa, ra, pb) } else { (pb, rb, pa) };
-            let cut = cut_to_box([large], small_box);
-            total += area(&intersection(&region_of([small.clone()]), &cut));
+            continue;
+        }
+        // A polygon spanning the glass: cut into bands once, then to each small polygon
+        // of `b` it meets; two wide ones are each cut to the other's box.
+        let meeting: Vec<(&Polygon, &geo::Rect<f64>)> = b.meeting(&ra).collect();
+        if meeting.is_empty() {
+            continue;
+        }
+        let wide = Banded::of(&region_of([pa.clone()]));
+        for (pb, rb) in meeting {
+            let part = region_of([pb.clone()]);
+            total += if wide.fits(rb) {
+                area(&intersection(&part, &wide.near(rb)))
+            } else if vertices(pa) <= vertices(pb) {
+                area(&intersection(&region_of([pa.clone()]), &cut_to_box([pb], &ra)))
+            } else {
+                area(&intersection(&part, &cut_to_box([pa], rb)))
+            };
         }
     }
     total
@@ -53,12 +70,12 @@ mod tests {
                 .chain([ring(crate::geom::pt(30.0, 3.0), 0.8, 0.4, 0.01)]),
         );
         let full = area(&intersection(&small, &comb));
-        let local = overlap_area(&small, &comb);
+        let local = overlap_area(&small, &Banded::of(&comb));
         assert!(full > 1.0);
         // Both sides snap to the booleans' 1 nm grid, each along its own edges: over
         // edges some tens of mm long that moves the area by well under 1e-5 mm².
         assert!((full - local).abs() < 1e-5, "full {full} local {local}");
-        assert!((overlap_area(&comb, &small) - local).abs() < 1e-5, "either order");
+        assert!((overlap_area(&comb, &Banded::of(&small)) - local).abs() < 1e-5, "either order");
     }
 
     /// Nothing shared, nothing counted; boxes that meet but shapes that do not: zero.
@@ -66,10 +83,10 @@ mod tests {
     fn disjoint_regions_share_nothing() {
         let a = region_of([rect(0.0, 0.0, 1.0, 1.0)]);
         let b = region_of([rect(2.0, 2.0, 3.0, 3.0)]);
-        assert_eq!(overlap_area(&a, &b), 0.0);
+        assert_eq!(overlap_area(&a, &Banded::of(&b)), 0.0);
         let l = crate::geom::difference(&region_of([rect(0.0, 0.0, 4.0, 4.0)]), &region_of([rect(1.0, 1.0, 4.0, 4.0)]));
         let inside_box = region_of([rect(2.0, 2.0, 3.0, 3.0)]);
-        assert_eq!(overlap_area(&l, &inside_box), 0.0);
+        assert_eq!(overlap_area(&l, &Banded::of(&inside_box)), 0.0);
     }
 
     fn difference_hole(r: Region, hole: Polygon) -> Region {
