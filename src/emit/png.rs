@@ -102,6 +102,12 @@ pub fn film_png(svg: &[u8], dpi: f32) -> Result<Vec<u8>> {
         let mut enc = png::Encoder::new(&mut out, page.width, page.height);
         enc.set_color(png::ColorType::Grayscale);
         enc.set_depth(png::BitDepth::Eight);
+        // Deflate at level 1 on rows filtered against the row above: a film is long runs
+        // of ink and clear, and most rows repeat the one above. At the default level
+        // (6, adaptive filters) compression took 40 % of the writer's time; this takes a
+        // fraction of it for about twice the bytes (a 40-digit film: 390 KB, not 205 KB).
+        enc.set_deflate_compression(png::DeflateCompression::Level(1));
+        enc.set_filter(png::Filter::Up);
         let ppm = (dpi as f64 / MM_PER_INCH * 1000.0).round() as u32;
         enc.set_pixel_dims(Some(png::PixelDimensions { xppu: ppm, yppu: ppm, unit: png::Unit::Meter }));
         let mut writer = enc.write_header().map_err(png_err)?;
