@@ -111,6 +111,9 @@ pub struct Extraction {
     /// Shorts made through net-less ITO or dots.
     pub bridges: Vec<Bridge>,
     by_plate: [BoxIndex<usize>; 2],
+    /// Where the plates' ITO overlap outside the designed pixels, worked out on first use
+    /// for the rules that read it ([`super::ghost::ghost_region`]).
+    pub(crate) ghosts: std::sync::OnceLock<crate::geom::Region>,
 }
 
 fn plate_slot(p: PlateId) -> usize {
@@ -163,7 +166,18 @@ impl Extraction {
         });
 
         let (pieces, shape_piece, cross_links, bridges) = find_pieces(art, &ito, &links, total, &node);
-        let mut ex = Extraction { components, groups, shape_component, dots, links, pieces, cross_links, bridges, by_plate };
+        let mut ex = Extraction {
+            components,
+            groups,
+            shape_component,
+            dots,
+            links,
+            pieces,
+            cross_links,
+            bridges,
+            by_plate,
+            ghosts: Default::default(),
+        };
         ex.attach_pins(art, &shape_index, &shape_piece);
         ex
     }

@@ -14,7 +14,7 @@
 //! component may hold come from an R-tree of pad boxes.
 
 use super::connectivity::{Component, Extraction};
-use super::index::{bbox_of_polygon, bbox_of_region, BoxIndex, EdgeIndex};
+use super::index::{bbox_of_polygon, bbox_of_region, closest_to_small, meeting_point, region_edges, BoxIndex, EdgeIndex};
 use super::shorts::list;
 use super::width::SLACK_MM;
 use crate::artwork::Artwork;
@@ -30,14 +30,16 @@ pub fn check_edge(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     let mut out = Vec::new();
     for c in &ex.components {
         let glass = &glass_edges[if c.plate == PlateId::Front { 0 } else { 1 }];
-        let ito = EdgeIndex::of_region(&c.region);
-        if let Some(x) = ito.meeting_point(glass) {
+        // The component's edges are scanned, not indexed: the glass outline has a
+        // handful of edges, a common thousands.
+        let ito = region_edges(&c.region);
+        if let Some(x) = meeting_point(&ito, glass) {
             out.push(finding(c, x, 0.0, 0.0, format!("{} crosses or touches the {} glass edge", what(c), c.plate.name())));
             continue;
-        } else if let Some(first) = ito.edges.first().map(|e| e.a)
+        } else if let Some(first) = ito.first().map(|e| e.a)
             && !art.glass(c.plate).intersects(&geo::Point(first))
         {
-            let d = ito.closest(glass).map(|cl| cl.distance).unwrap_or(0.0);
+            let d = closest_to_small(&ito, glass).map(|cl| cl.distance).unwrap_or(0.0);
             out.push(finding(c, first, -d, 0.0, format!("{} lies outside the {} glass", what(c), c.plate.name())));
             continue;
         }
@@ -45,7 +47,7 @@ pub fn check_edge(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
         if rest.0.is_empty() {
             continue;
         }
-        let Some(cl) = EdgeIndex::of_region(&rest).closest(glass) else { continue };
+        let Some(cl) = closest_to_small(&region_edges(&rest), glass) else { continue };
         let need = art.rules.edge_clearance;
         if cl.distance > 0.0 && cl.distance < need - SLACK_MM {
             let m = format!(

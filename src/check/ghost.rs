@@ -29,8 +29,14 @@ fn plate_ito(ex: &Extraction, plate: PlateId, clip: &Region) -> Region {
     geom::snap(&geom::intersection(&geom::region_of(polys), clip))
 }
 
-/// Where the two plates' ITO overlap in the liquid crystal outside the designed pixels.
-pub fn ghost_region(art: &Artwork, ex: &Extraction) -> Region {
+/// Where the two plates' ITO overlap in the liquid crystal outside the designed pixels
+/// (`ex` extracted from `art`): worked out once, as the ghost and drive-truth rules both
+/// read it.
+pub fn ghost_region<'a>(art: &Artwork, ex: &'a Extraction) -> &'a Region {
+    ex.ghosts.get_or_init(|| overlap_outside_pixels(art, ex))
+}
+
+fn overlap_outside_pixels(art: &Artwork, ex: &Extraction) -> Region {
     let lc = geom::region_of([art.lc_region.clone()]);
     let lit = geom::snap(&geom::intersection(&plate_ito(ex, PlateId::Front, &lc), &plate_ito(ex, PlateId::Back, &lc)));
     let pixels = geom::region_of(art.pixels.iter().flat_map(|p| p.region.0.iter().cloned()));

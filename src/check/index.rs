@@ -188,12 +188,7 @@ impl EdgeIndex {
 
     /// A point where some edge of `self` crosses or touches some edge of `other`.
     pub fn meeting_point(&self, other: &EdgeIndex) -> Option<Pt> {
-        self.edges.iter().find_map(|e| {
-            other.near(&e.bbox()).find_map(|j| {
-                let f = &other.edges[j];
-                segment_intersection(e.a, e.b, f.a, f.b)
-            })
-        })
+        meeting_point(&self.edges, other)
     }
 
     /// The closest pair of points between the edges of `self` and those of `other`.
@@ -214,10 +209,56 @@ impl EdgeIndex {
     }
 }
 
+/// [`EdgeIndex::closest`] between a large set of edges, scanned as they are, and a small
+/// indexed one (a piece of ITO and its glass outline): no index of the large set is built,
+/// as its vertices are asked of the small index and the small set's few vertices are
+/// measured against every large edge in one pass each.
+pub fn closest_to_small(edges: &[Edge], small: &EdgeIndex) -> Option<Closest> {
+    if let Some(x) = meeting_point(edges, small) {
+        return Some(Closest { p: x, q: x, distance: 0.0 });
+    }
+    let forward = edges.iter().filter_map(|e| small.nearest(e.a).map(|(_, q)| (e.a, q)));
+    let backward = small.edges.iter().filter_map(|f| {
+        edges
+            .iter()
+            .map(|e| point_segment_closest(f.a, e.a, e.b))
+            .min_by(|p, q| dist(*p, f.a).total_cmp(&dist(*q, f.a)))
+            .map(|p| (p, f.a))
+    });
+    forward
+        .chain(backward)
+        .map(|(p, q)| Closest { p, q, distance: dist(p, q) })
+        .min_by(|x, y| x.distance.total_cmp(&y.distance))
+}
+
+/// A point where one of `edges` crosses or touches an edge of `other`.
+pub fn meeting_point(edges: &[Edge], other: &EdgeIndex) -> Option<Pt> {
+    edges.iter().find_map(|e| {
+        other.near(&e.bbox()).find_map(|j| {
+            let f = &other.edges[j];
+            segment_intersection(e.a, e.b, f.a, f.b)
+        })
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
     use crate::geom::{rect, region_of};
+
+    /// The closest pair between a plain edge list and a small index is the one the two
+    /// indexes give: apart, crossing, and one inside the other (nearest wall 0.4 away).
+    #[test]
+    fn closest_to_a_small_set_matches_the_indexed_search() {
+        let glass = EdgeIndex::of_region(&region_of([rect(0.0, 0.0, 10.0, 6.0)]));
+        for r in [rect(1.0, 0.4, 3.0, 2.0), rect(9.0, 1.0, 11.0, 2.0), rect(12.0, 1.0, 13.0, 2.0)] {
+            let ito = EdgeIndex::of_region(&region_of([r]));
+            let (want, got) = (ito.closest(&glass).unwrap(), closest_to_small(&ito.edges, &glass).unwrap());
+            assert!((want.distance - got.distance).abs() < 1e-12, "{want:?} {got:?}");
+        }
+        let inside = region_edges(&region_of([rect(1.0, 0.4, 3.0, 2.0)]));
+        assert!((closest_to_small(&inside, &glass).unwrap().distance - 0.4).abs() < 1e-12);
+    }
 
     /// Two unit squares 0.5 apart: shapely 2.2 `box(0,0,1,1).distance(box(1.5,0.2,2.5,1.2))`
     /// is 0.5 and `nearest_points` gives x = 1 and x = 1.5 (GEOS semantics).
