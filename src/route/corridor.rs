@@ -252,11 +252,12 @@ impl Corridors {
                 }
                 self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
                 self.parent[t] = t as u32;
-                open.push(Open { f: self.h[t], cell: t as u32 });
+                open.push(Open::new(self.h[t], t as u32));
             }
         }
         let step = TILE as f32;
-        while let Some(Open { f, cell: tile }) = open.pop() {
+        while let Some(entry) = open.pop() {
+            let (f, tile) = (entry.f(), entry.cell());
             let t = tile as usize;
             if f - self.h[t] > self.g[t] + 1e-3 {
                 continue;
@@ -266,7 +267,7 @@ impl Corridors {
                 let h = heuristic(t);
                 if h > self.h[t] {
                     self.h[t] = h;
-                    open.push(Open { f: self.g[t] + h, cell: tile });
+                    open.push(Open::new(self.g[t] + h, tile));
                     continue;
                 }
             }
@@ -298,7 +299,7 @@ impl Corridors {
                     }
                     self.g[n] = ng;
                     self.parent[n] = t as u32;
-                    open.push(Open { f: ng + self.h[n], cell: n as u32 });
+                    open.push(Open::new(ng + self.h[n], n as u32));
                 }
             }
         }
