@@ -12,6 +12,7 @@
 //! plate.
 
 use super::disjoint::DisjointSets;
+use super::near::Prepared;
 use super::index::{bbox_of_polygon, expand, BoxIndex, EdgeIndex};
 use crate::artwork::{Artwork, Shape};
 use crate::geom::{self, Polygon, Pt, Region};
@@ -129,7 +130,11 @@ fn is_ito(s: &Shape) -> bool {
 }
 
 fn touches(a: &Polygon, b: &Polygon) -> bool {
-    super::near::distance_below(a, b, 2.0 * TOUCH_MM) <= TOUCH_MM
+    touches_prepared(&Prepared::plain(a), &Prepared::plain(b))
+}
+
+fn touches_prepared(a: &Prepared, b: &Prepared) -> bool {
+    super::near::distance_below_prepared(a, b, 2.0 * TOUCH_MM) <= TOUCH_MM
 }
 
 impl Extraction {
@@ -324,6 +329,9 @@ fn collect_dots(art: &Artwork) -> Vec<Polygon> {
 
 fn find_links(art: &Artwork, ito: &[usize], dots: &[Polygon], index: &BoxIndex<usize>) -> Vec<Link> {
     let mut links = Vec::new();
+    // A common spans the glass and meets the box of every shape near it: its edges are
+    // indexed once rather than scanned for each of them.
+    let prepared: Vec<Prepared> = art.shapes.iter().map(|s| Prepared::indexed(&s.polygon)).collect();
     for &i in ito {
         let si = &art.shapes[i];
         let Some(b) = bbox_of_polygon(&si.polygon) else { continue };
@@ -331,7 +339,7 @@ fn find_links(art: &Artwork, ito: &[usize], dots: &[Polygon], index: &BoxIndex<u
         near.sort_unstable();
         for j in near {
             let sj = &art.shapes[j];
-            if sj.layer.plate() == si.layer.plate() && touches(&si.polygon, &sj.polygon) {
+            if sj.layer.plate() == si.layer.plate() && touches_prepared(&prepared[i], &prepared[j]) {
                 links.push(Link { a: Node::Shape(i), b: Node::Shape(j) });
             }
         }
@@ -341,7 +349,7 @@ fn find_links(art: &Artwork, ito: &[usize], dots: &[Polygon], index: &BoxIndex<u
         let mut near: Vec<usize> = index.near(&b).copied().collect();
         near.sort_unstable();
         for j in near {
-            if touches(dot, &art.shapes[j].polygon) {
+            if touches_prepared(&Prepared::plain(dot), &prepared[j]) {
                 links.push(Link { a: Node::Dot(k), b: Node::Shape(j) });
             }
         }

@@ -12,6 +12,7 @@
 
 use super::connectivity::{Component, Extraction};
 use super::index::{bbox_of_region, expand, EdgeIndex};
+use super::near::Prepared;
 use super::shorts::list;
 use super::width::SLACK_MM;
 use crate::artwork::Artwork;
@@ -25,6 +26,8 @@ pub fn check_gap(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     let film_below = r.film_min_feature - r.film_gap(0.0);
     let limit = r.min_gap.max(film_below);
     let mut edges: Vec<Option<EdgeIndex>> = ex.components.iter().map(|_| None).collect();
+    // A common meets the box of every component near it: its edges are indexed once.
+    let prepared: Vec<Vec<Prepared>> = ex.components.iter().map(|c| c.region.0.iter().map(Prepared::indexed).collect()).collect();
     let mut out = Vec::new();
     for (i, a) in ex.components.iter().enumerate() {
         let Some(b) = bbox_of_region(&a.region) else { continue };
@@ -33,7 +36,7 @@ pub fn check_gap(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
             if j <= i || harmless(a, c) {
                 continue;
             }
-            let d = region_distance(&a.region, &c.region, limit);
+            let d = region_distance(&prepared[i], &prepared[j], limit);
             if d >= limit - SLACK_MM {
                 continue;
             }
@@ -78,15 +81,15 @@ fn who(a: &Component, b: &Component) -> String {
 }
 
 /// Smallest distance between the polygons of two regions whose boxes come within `limit`.
-fn region_distance(a: &geom::Region, b: &geom::Region, limit: f64) -> f64 {
+fn region_distance(a: &[Prepared], b: &[Prepared], limit: f64) -> f64 {
     let mut best = f64::INFINITY;
-    for pa in &a.0 {
-        let Some(ba) = super::index::bbox_of_polygon(pa) else { continue };
+    for pa in a {
+        let Some(ba) = pa.bbox() else { continue };
         let grown = expand(&ba, limit);
-        for pb in &b.0 {
-            let near = super::index::bbox_of_polygon(pb).is_some_and(|bb| rstar::Envelope::intersects(&grown, &bb));
+        for pb in b {
+            let near = pb.bbox().is_some_and(|bb| rstar::Envelope::intersects(&grown, &bb));
             if near {
-                best = best.min(super::near::distance_below(pa, pb, limit));
+                best = best.min(super::near::distance_below_prepared(pa, pb, limit));
             }
         }
     }
