@@ -8,6 +8,7 @@
 //! other polygon asks for the edges within reach of it. One polygon inside the other is
 //! distance 0 (GEOS semantics, as `geom::distance`).
 
+use super::index::{region_edges, Bbox, EdgeIndex};
 use crate::geom::{self, Polygon, Pt};
 use geo::{BoundingRect, Contains};
 use rstar::primitives::{GeomWithData, Rectangle};
@@ -30,22 +31,19 @@ pub fn distance_below(a: &Polygon, b: &Polygon, limit: f64) -> f64 {
 /// Polygons with more edges than this get an index of their edges when prepared.
 const INDEX_ABOVE: usize = 256;
 
-/// An R-tree of edges by their boxes.
-type EdgeTree = rstar::RTree<GeomWithData<Rectangle<[f64; 2]>, (Pt, Pt)>>;
-
 /// A polygon ready to be asked about many times: a large one (a common along a row of
 /// digits, met by the box of every shape near it and of every long lead) keeps its edges
-/// in an R-tree, so that a question costs the edges near the other shape's own edges,
-/// not a pass over all of its own.
+/// in an R-tree ([`EdgeIndex`]), so that a question costs the edges near the other
+/// shape's own edges, not a pass over all of its own.
 pub struct Prepared<'a> {
     polygon: &'a Polygon,
     bbox: Option<geo::Rect<f64>>,
     /// The same box as the check's indexes keep it.
-    abox: Option<super::index::Bbox>,
+    abox: Option<Bbox>,
     /// Number of edges.
     count: usize,
-    /// Every edge by its box (large polygons only).
-    edges: Option<EdgeTree>,
+    /// Every edge (large polygons only).
+    index: Option<EdgeIndex>,
 }
 
 impl<'a> Prepared<'a> {
@@ -53,20 +51,20 @@ impl<'a> Prepared<'a> {
     pub fn plain(polygon: &'a Polygon) -> Prepared<'a> {
         let bbox = polygon.bounding_rect();
         let abox = bbox.map(|b| rstar::AABB::from_corners([b.min().x, b.min().y], [b.max().x, b.max().y]));
-        Prepared { polygon, bbox, abox, count: ring_edges(polygon).count(), edges: None }
+        Prepared { polygon, bbox, abox, count: ring_edges(polygon).count(), index: None }
     }
 
     /// The polygon with its edges indexed when it has many.
     pub fn indexed(polygon: &'a Polygon) -> Prepared<'a> {
         let mut p = Prepared::plain(polygon);
         if p.count > INDEX_ABOVE {
-            p.edges = Some(rstar::RTree::bulk_load(ring_edges(polygon).map(|e| GeomWithData::new(edge_box(e, 0.0), e)).collect()));
+            p.index = Some(EdgeIndex::new(region_edges(&geom::region_of([polygon.clone()]))));
         }
         p
     }
 
     /// The polygon's box as the check's indexes keep boxes.
-    pub fn bbox(&self) -> Option<super::index::Bbox> {
+    pub fn bbox(&self) -> Option<Bbox> {
         self.abox
     }
 
@@ -83,16 +81,16 @@ impl<'a> Prepared<'a> {
     /// edges the index finds along the ray. A point on the boundary may come out either
     /// way; the edges are measured next, and meet there at distance 0.
     fn contains(&self, v: Pt) -> bool {
-        let Some(tree) = &self.edges else { return self.polygon.contains(&v) };
+        let Some(index) = &self.index else { return self.polygon.contains(&v) };
         let Some(b) = self.bbox else { return false };
         if v.x < b.min().x || v.x > b.max().x || v.y < b.min().y || v.y > b.max().y {
             return false;
         }
         let ray = rstar::AABB::from_corners([v.x, v.y], [b.max().x, v.y]);
-        let crossings = tree
-            .locate_in_envelope_intersecting(&ray)
-            .filter(|e| {
-                let (p, q) = e.data;
+        let crossings = index
+            .near(&ray)
+            .filter(|&j| {
+                let (p, q) = (index.edges[j].a, index.edges[j].b);
                 (p.y > v.y) != (q.y > v.y) && v.x < p.x + (v.y - p.y) / (q.y - p.y) * (q.x - p.x)
             })
             .count();
@@ -117,18 +115,17 @@ pub fn distance_below_prepared(a: &Prepared, b: &Prepared, limit: f64) -> f64 {
     }
     let d = |(p0, p1): (Pt, Pt), (q0, q1): (Pt, Pt)| geom::segment_closest_points(p0, p1, q0, q1).2;
     let mut best = limit;
-    let asked = match (&a.edges, &b.edges) {
+    let asked = match (&a.index, &b.index) {
         (Some(_), Some(_)) if a.count <= b.count => Some((a, bb, b)),
         (Some(_), Some(_)) | (Some(_), None) => Some((b, ba, a)),
         (None, Some(_)) => Some((a, bb, b)),
         (None, None) => None,
     };
     if let Some((asker, other_box, indexed)) = asked {
-        let tree = indexed.edges.as_ref().unwrap_or_else(|| unreachable!());
+        let index = indexed.index.as_ref().unwrap_or_else(|| unreachable!());
         for e in asker.edges_near(&other_box, limit) {
-            let env = rstar::RTreeObject::envelope(&edge_box(e, limit));
-            for f in tree.locate_in_envelope_intersecting(&env) {
-                best = best.min(d(e, f.data));
+            for j in index.near(&rstar::RTreeObject::envelope(&edge_box(e, limit))) {
+                best = best.min(d(e, (index.edges[j].a, index.edges[j].b)));
             }
         }
         return best;
@@ -172,7 +169,7 @@ mod tests {
         let band = ring(pt(0.0, 0.0), 10.0, 9.0, 1e-5);
         assert!(band.exterior().0.len() > INDEX_ABOVE);
         let indexed = Prepared::indexed(&band);
-        assert!(indexed.edges.is_some());
+        assert!(indexed.index.is_some());
         let probes = [
             rect(9.2, -0.2, 9.6, 0.2),
             rect(-0.5, -0.5, 0.5, 0.5),

@@ -95,8 +95,7 @@ fn hole_free(p: Polygon, depth: usize) -> Result<Vec<Polygon>> {
 /// The parts of `p` between consecutive `edges` (x, ascending), each with its two edges;
 /// rings clipped as they are, possibly running along the edges (see [`clip_to_rect`]).
 fn cut_strips(p: Polygon, edges: &[f64], out: &mut Vec<(Polygon, f64, f64)>) {
-    let last = edges.len() - 1;
-    if last == 1 {
+    if edges.len() == 2 {
         out.push((p, edges[0], edges[1]));
         return;
     }

@@ -75,9 +75,7 @@ impl Banded {
         }
         region_of(out)
     }
-}
 
-impl Banded {
     /// The band whose grown reach holds `bbox` cut with its margin, and whether it does
     /// hold it (else [`Banded::near`] cuts whole polygons).
     fn band_for(&self, bbox: &geo::Rect<f64>) -> (usize, bool) {
