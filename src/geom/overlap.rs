@@ -78,6 +78,18 @@ mod tests {
         assert!((overlap_area(&comb, &Banded::of(&small)) - local).abs() < 1e-5, "either order");
     }
 
+    /// Two wide polygons, each too long for one band: two bars 80 mm long, one 1 mm high
+    /// and one 2 mm high, overlapping over 60 mm by 0.5 mm, share 30 mm² (plane
+    /// geometry), as the full boolean says too.
+    #[test]
+    fn two_wide_polygons_share_their_overlap() {
+        let a = region_of([rect(0.0, 0.0, 80.0, 1.0)]);
+        let b = region_of([rect(20.0, 0.5, 100.0, 2.5)]);
+        let shared = overlap_area(&a, &Banded::of(&b));
+        assert!((shared - 30.0).abs() < 1e-6, "{shared}");
+        assert!((shared - area(&intersection(&a, &b))).abs() < 1e-6);
+    }
+
     /// Nothing shared, nothing counted; boxes that meet but shapes that do not: zero.
     #[test]
     fn disjoint_regions_share_nothing() {
