@@ -18,7 +18,7 @@
 //!
 //! Every buffer is allocated once per router and reset by stamp, never per search.
 
-use super::grid::{Grid, FREE};
+use super::grid::Grid;
 use super::search::{neighbours, Blocked, Open, Search};
 use std::collections::BinaryHeap;
 
@@ -381,8 +381,7 @@ impl Corridors {
 
 /// Whether cell (x, y) is one `owner` may use.
 fn usable(grid: &Grid, owner: u32, x: usize, y: usize) -> bool {
-    let o = grid.owner_xy(x, y);
-    (o == FREE || o == owner) && grid.cost_xy(x, y).is_finite()
+    grid.open_to(x, y, owner) && grid.cost_xy(x, y).is_finite()
 }
 
 /// Whether some cell of tile `t` next to its shared edge with the orthogonal neighbour

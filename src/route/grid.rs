@@ -53,6 +53,21 @@ impl Grid {
         self.owner.get_xy(x, y)
     }
 
+    /// Whether a lead of `owner` may lie in the cell at column `x`, row `y` as far as
+    /// owners go: the cell is free or already its own (its cost aside).
+    #[inline]
+    pub fn open_to(&self, x: usize, y: usize, owner: u32) -> bool {
+        let o = self.owner_xy(x, y);
+        o == FREE || o == owner
+    }
+
+    /// Whether a diagonal step of `owner` from (`cx`, `cy`) to (`x`, `y`) cuts no corner:
+    /// both cells it passes between are open to it ([`Grid::open_to`]).
+    #[inline]
+    pub fn corner_open(&self, cx: usize, cy: usize, x: usize, y: usize, owner: u32) -> bool {
+        self.open_to(cx, y, owner) && self.open_to(x, cy, owner)
+    }
+
     /// Extra cost of entering cell `i` (0 = none; `f32::INFINITY` = forbidden).
     #[inline]
     pub fn cost(&self, i: usize) -> f32 {

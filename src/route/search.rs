@@ -188,13 +188,8 @@ impl Search {
                     }
                     continue;
                 }
-                if d % 2 == 1 {
-                    // no corner cutting past a blocked orthogonal neighbour
-                    let a = grid.owner_xy(cx, y);
-                    let b = grid.owner_xy(x, cy);
-                    if (a != FREE && a != owner) || (b != FREE && b != owner) {
-                        continue;
-                    }
+                if d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner) {
+                    continue; // no corner cutting past a blocked orthogonal neighbour
                 }
                 let extra = grid.cost_xy(x, y);
                 if extra.is_infinite() {
@@ -243,7 +238,6 @@ impl Search {
                 queue.push_back(s as u32);
             }
         }
-        let ok = |o: u32| o == FREE || o == owner;
         while let Some(cell) = queue.pop_front() {
             let c = cell as usize;
             if goal(c) {
@@ -252,7 +246,7 @@ impl Search {
             let (cx, cy) = (c % grid.nx, c / grid.nx);
             for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
                 let (x, y) = (x as usize, y as usize);
-                if !ok(grid.owner_xy(x, y)) || (d % 2 == 1 && (!ok(grid.owner_xy(cx, y)) || !ok(grid.owner_xy(x, cy)))) {
+                if !grid.open_to(x, y, owner) || (d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner)) {
                     continue;
                 }
                 if grid.cost_xy(x, y).is_infinite() || self.nodes.get(x, y).is_some() {
