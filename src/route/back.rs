@@ -23,6 +23,14 @@ use crate::layout::{Layout, PlateId};
 
 /// Extra cost (per cell) of a back lead facing a front lead outside the window.
 const HIDDEN_CROSSING_COST: f32 = 40.0;
+/// The weight on the back searches' heuristic ([`Search::weighted`]). A common's lead
+/// from its tree to its next island crosses the costly liquid crystal outside the window
+/// and turns, which the bound by air leaves out, so a plain search popped nearly every
+/// cell of its corridor: on the 32-digit two-row benchmark the 195 back searches made
+/// 2.96 M pops, 0.93 M at 1.5 (2.3 M at 1.2, 1.0 M at 2.0), route time 1.16 → 0.95 s.
+/// The front plate's searches stay plain: weighted there, leads of a digit took routes
+/// that shut in their neighbours' (eight demos and tests failed).
+const HEURISTIC_WEIGHT: f32 = 1.5;
 /// How many orders of the commons are tried.
 const ATTEMPTS: usize = 4;
 
@@ -91,7 +99,7 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
         })
         .collect();
     let base = back_grid(layout, &leads, &commons);
-    let mut search = Search::new(&base);
+    let mut search = Search::weighted(&base, HEURISTIC_WEIGHT);
     // Stuck commons lead the next attempt, the higher-numbered first: in the row nearest
     // the pads the commons are numbered down the row (the far tier counts the other way),
     // so there of two stuck ones the lower, whose way out to the seal runs beneath the

@@ -22,12 +22,13 @@ pub(crate) fn neighbours(i: usize, w: usize, h: usize) -> impl Iterator<Item = (
 }
 const TURN_PENALTY: f32 = 3.0;
 
+
 /// What a search knows of one cell it reached.
 #[derive(Debug, Clone, Copy)]
 struct Node {
     /// Cost from the sources.
     g: f32,
-    /// The heuristic, computed once per cell and search.
+    /// The weighted heuristic, computed once per cell and search.
     h: f32,
     /// Cell it was reached from (itself for a source).
     parent: u32,
@@ -42,6 +43,8 @@ const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8 };
 pub struct Search {
     nodes: Scratch<Node>,
     nx: usize,
+    /// The weight on the heuristic ([`Search::weighted`]; 1 for plain A*).
+    weight: f32,
 }
 
 /// What a failed search learned.
@@ -106,7 +109,17 @@ impl Ord for Open {
 impl Search {
     /// State for searches on grids of `grid`'s size.
     pub fn new(grid: &Grid) -> Search {
-        Search { nodes: Scratch::new(PageGeom::of(grid.nx, grid.ny), UNREACHED), nx: grid.nx }
+        Search { nodes: Scratch::new(PageGeom::of(grid.nx, grid.ny), UNREACHED), nx: grid.nx, weight: 1.0 }
+    }
+
+    /// State whose searches weigh the heuristic by `weight` ≥ 1 (weighted A*, Pohl 1970):
+    /// the open list is ordered by `g + weight·h`, and a path found costs at most `weight`
+    /// times the cheapest while far fewer cells are expanded. The lower bounds at hand (by
+    /// air, by the corridor's tile hops) leave out the turns and costly zones a lead
+    /// meets, so a plain search pops nearly every cell of its corridor.
+    pub fn weighted(grid: &Grid, weight: f32) -> Search {
+        assert!(weight >= 1.0, "a heuristic weight below 1 ({weight}) only slows the search");
+        Search { weight, ..Search::new(grid) }
     }
 
     /// Pages of state held (the most one search has needed).
@@ -114,9 +127,10 @@ impl Search {
         self.nodes.pages_held()
     }
 
-    /// Finds the cheapest path from any of `sources` to a cell where `goal` holds, moving
-    /// only through cells free or owned by `owner`; `heuristic` must never overestimate
-    /// the remaining cost (in cells). Returns the path from source to goal.
+    /// Finds the cheapest path (within the search's weight, [`Search::weighted`]) from any
+    /// of `sources` to a cell where `goal` holds, moving only through cells free or owned
+    /// by `owner`; `heuristic` must never overestimate the remaining cost (in cells).
+    /// Returns the path from source to goal.
     pub fn find(
         &mut self,
         grid: &Grid,
@@ -150,7 +164,7 @@ impl Search {
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
             if self.nodes.get(x, y).is_none() {
-                let h = heuristic(s);
+                let h = self.weight * heuristic(s);
                 if !self.nodes.set(x, y, Node { g: 0.0, h, parent: s as u32, dir: 8 }) {
                     return Err(Blocked { blockers: Vec::new(), nearest: s, over_budget: true });
                 }
@@ -202,7 +216,7 @@ impl Search {
                 if seen.is_none_or(|s| ng < s.g) {
                     let h = match seen {
                         Some(s) => s.h,
-                        None => heuristic(n),
+                        None => self.weight * heuristic(n),
                     };
                     if open.len() >= MAX_OPEN || !self.nodes.set(x, y, Node { g: ng, h, parent: c as u32, dir: d as u8 }) {
                         over_budget = true;
