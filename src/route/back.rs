@@ -18,7 +18,7 @@ use super::target::Targets;
 use super::{Lead, TransferSite};
 use crate::electrode::Electrodes;
 use crate::finding::{Finding, Rule, Severity};
-use crate::geom::{difference, offset_round, region_of, stroke_lead, stroke_polyline, union_all, Polygon, Pt, Region};
+use crate::geom::{cut_to_box, difference, offset_round, region_of, stroke_lead, stroke_polyline, union_all, Polygon, Pt, Region};
 use crate::layout::{Layout, PlateId};
 
 /// Extra cost (per cell) of a back lead facing a front lead outside the window.
@@ -91,9 +91,8 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
                 islands.push(stroke_polyline(&b.points, b.width, tol));
             }
             let dots: Vec<Polygon> = transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
-            let behind = islands.iter().map(|isl| elements_behind(el, k as u32, isl)).collect();
             // Worked out once here, on all cores, not in every attempt.
-            let landings = islands.iter().map(|isl| landing_area(layout, isl)).collect();
+            let (behind, landings) = islands.par_iter().map(|isl| (elements_behind(el, k as u32, isl), landing_area(layout, isl))).unzip();
             let dot_landings = dots.iter().map(|d| landing_area(layout, &region_of([d.clone()]))).collect();
             Common { net: c.net.clone(), owner: k as u32 + 1, islands, landings, behind, dots, dot_landings }
         })
@@ -117,7 +116,13 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
 }
 
 /// The pieces of a grown common that remain after the cuts and face one of its pixels.
+/// The cut common falls apart into pieces that an opening cannot join again (it only
+/// takes away), so each piece is opened on its own, against the cuts and pixels near it
+/// ([`crate::geom::cut_to_box`]), spread over the cores: the opening of the whole
+/// common, one polygon of thousands of vertices, was most of this stage's time.
 fn islands_of(layout: &Layout, outline: &Region, cuts: &Region, pixels: &Region, passages: &Region) -> Vec<Region> {
+    use geo::BoundingRect;
+    use rayon::prelude::*;
     let rules = &layout.rules;
     let tol = layout.tolerance;
     // An opening (shrink, then grow back) removes the slivers too narrow to etch that
@@ -126,13 +131,22 @@ fn islands_of(layout: &Layout, outline: &Region, cuts: &Region, pixels: &Region,
     let r = keep_width / 2.0 + 1e-4;
     // Margins give way to the passages kept for back leads.
     let cut_body = difference(&difference(outline, cuts), &difference(passages, pixels));
-    let opened = difference(&offset_round(&offset_round(&cut_body, -r, tol), r, tol), cuts);
-    let body = crate::geom::union(&opened, &crate::geom::intersection(&cut_body, pixels));
     let min_overlap = rules.min_width * rules.min_width;
-    body.0
-        .into_iter()
-        .map(|p| region_of([p]))
-        .filter(|isl| crate::geom::area(&crate::geom::intersection(isl, pixels)) > min_overlap)
+    cut_body
+        .0
+        .par_iter()
+        .flat_map_iter(|piece| {
+            let Some(bb) = piece.bounding_rect() else { return Vec::new() };
+            let (cuts, pixels) = (cut_to_box(&cuts.0, &bb), cut_to_box(&pixels.0, &bb));
+            let piece = region_of([piece.clone()]);
+            let opened = difference(&offset_round(&offset_round(&piece, -r, tol), r, tol), &cuts);
+            let body = crate::geom::union(&opened, &crate::geom::intersection(&piece, &pixels));
+            body.0
+                .into_iter()
+                .map(|p| region_of([p]))
+                .filter(|isl| crate::geom::area(&crate::geom::intersection(isl, &pixels)) > min_overlap)
+                .collect::<Vec<_>>()
+        })
         .collect()
 }
 
