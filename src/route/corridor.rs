@@ -103,6 +103,10 @@ pub struct Corridors {
     /// worked out under and the factor.
     kept: Option<(u32, u32)>,
     kept_factor: Vec<(u32, f32)>,
+    /// Per tile, while factors are kept: (stamp of the keeping, whether its edge with the
+    /// tile east of it and with the tile north of it is open ([`edge_open`]), each as
+    /// 0 = not worked out, 1 = shut, 2 = open).
+    kept_edges: Vec<(u32, [u8; 2])>,
     keepings: u32,
     /// Whether `plan` steps between tiles only where usable cells face each other across
     /// their shared edge ([`edge_open`]).
@@ -136,6 +140,7 @@ impl Corridors {
             queue: std::collections::VecDeque::new(),
             kept: None,
             kept_factor: Vec::new(),
+            kept_edges: Vec::new(),
             keepings: 0,
             strict: false,
             strict_first: false,
@@ -157,6 +162,7 @@ impl Corridors {
         self.keepings = self.keepings.wrapping_add(1).max(1);
         if self.kept_factor.is_empty() {
             self.kept_factor = vec![(0, 0.0); self.ntx * self.nty];
+            self.kept_edges = vec![(0, [0; 2]); self.ntx * self.nty];
         }
         self.kept = Some((owner, self.keepings));
         self.strict_first = false;
@@ -204,13 +210,32 @@ impl Corridors {
     /// edge; a diagonal step needs such a way through one of the two tiles beside it.
     fn step_open(&mut self, grid: &Grid, owner: u32, t: usize, n: usize, d: usize) -> bool {
         if d % 2 == 0 {
-            return edge_open(grid, owner, self.ntx, t, n);
+            return self.edge(grid, owner, t, n);
         }
         let (tx, ty) = (t % self.ntx, t / self.ntx);
         let (nx, ny) = (n % self.ntx, n / self.ntx);
         [ty * self.ntx + nx, ny * self.ntx + tx].into_iter().any(|m| {
-            self.tile_factor(grid, owner, m).is_finite() && edge_open(grid, owner, self.ntx, t, m) && edge_open(grid, owner, self.ntx, m, n)
+            self.tile_factor(grid, owner, m).is_finite() && self.edge(grid, owner, t, m) && self.edge(grid, owner, m, n)
         })
+    }
+
+    /// [`edge_open`] between orthogonal neighbours `t` and `n`, kept like the factors while
+    /// one owner's are ([`Corridors::keep_factors_for`]): a common's strict corridors
+    /// scanned the same tile edges search after search.
+    fn edge(&mut self, grid: &Grid, owner: u32, t: usize, n: usize) -> bool {
+        let Some((_, k)) = self.kept.filter(|(o, _)| *o == owner) else { return edge_open(grid, owner, self.ntx, t, n) };
+        // The edge is kept with the lower-numbered tile of the two: its east edge when
+        // both lie in one row, else its north edge.
+        let (low, side) = (t.min(n), usize::from(t / self.ntx != n / self.ntx));
+        let entry = &mut self.kept_edges[low];
+        if entry.0 != k {
+            *entry = (k, [0; 2]);
+        }
+        if entry.1[side] == 0 {
+            let open = edge_open(grid, owner, self.ntx, t, n);
+            self.kept_edges[low].1[side] = if open { 2 } else { 1 };
+        }
+        self.kept_edges[low].1[side] == 2
     }
 
     /// Searches the tiles from those of `sources` to one where `goal` holds (a tile index),
