@@ -232,11 +232,15 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         let Some(k) = path.last().and_then(|&e| pending.island_at(e)) else { break };
         pending.join(k);
         let tiles = corridors.tiles();
+        // Neighbouring cells mostly share a tile, which then needs no hashing.
+        let mut last = usize::MAX;
         for &i in path.iter().chain(&ends[k]) {
             g.tree_cells.push(i);
-            if g.seed_tiles.insert(tiles.tile_index(i)) {
+            let t = tiles.tile_index(i);
+            if t != last && g.seed_tiles.insert(t) {
                 g.seeds.push(i);
             }
+            last = t;
         }
         let pts = corners(grid, &path);
         if pts.len() >= 2 {

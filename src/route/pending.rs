@@ -42,14 +42,21 @@ impl Pending {
         let mut boxes = Vec::with_capacity(ends.len());
         for (k, cells) in ends.iter().enumerate() {
             let (mut x0, mut y0, mut x1, mut y1) = (usize::MAX, usize::MAX, 0, 0);
+            // Cells come in rows, most in the tile of the one before, whose entry holds
+            // this island already.
+            let mut last_tile = None;
             for &c in cells {
                 let (x, y) = (c % nx, c / nx);
                 // Over the page budget the cell is left out: the search then ends on the
                 // island's other cells.
                 let _ = island_of.set(x, y, k as u32);
-                let tiles = by_tile.entry((x / TILE, y / TILE)).or_default();
-                if tiles.last() != Some(&k) {
-                    tiles.push(k);
+                let tile = (x / TILE, y / TILE);
+                if last_tile != Some(tile) {
+                    last_tile = Some(tile);
+                    let tiles = by_tile.entry(tile).or_default();
+                    if tiles.last() != Some(&k) {
+                        tiles.push(k);
+                    }
                 }
                 (x0, y0, x1, y1) = (x0.min(x), y0.min(y), x1.max(x), y1.max(y));
             }

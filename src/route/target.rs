@@ -87,6 +87,9 @@ pub struct Targets {
     version: u32,
     mark: Scratch<()>,
     tiles: HashSet<(usize, usize)>,
+    /// The tile of the last cell added: cells come in rows and runs, most in the tile of
+    /// the one before, which then needs no hashing.
+    last_tile: Option<(usize, usize)>,
     index: RTree<Rectangle<[f64; 2]>>,
 }
 
@@ -99,6 +102,7 @@ impl Targets {
             version: 1,
             mark: Scratch::new(PageGeom::of(grid.nx, grid.ny), ()),
             tiles: HashSet::new(),
+            last_tile: None,
             index: RTree::new(),
         }
     }
@@ -107,6 +111,7 @@ impl Targets {
     pub fn clear(&mut self) {
         self.mark.next_search();
         self.tiles.clear();
+        self.last_tile = None;
         self.index = RTree::new();
         self.bump_version();
     }
@@ -131,6 +136,10 @@ impl Targets {
             return;
         }
         let (tx, ty) = (x / TILE, y / TILE);
+        if self.last_tile == Some((tx, ty)) {
+            return;
+        }
+        self.last_tile = Some((tx, ty));
         if self.tiles.insert((tx, ty)) {
             let (x0, y0) = ((tx * TILE) as f64, (ty * TILE) as f64);
             let span = (TILE - 1) as f64;
