@@ -75,8 +75,8 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     let bare = difference(&leads, &electrodes);
     let cuts = difference(&offset_round(&bare, layout.rules.min_gap, tol), &electrodes);
     let passages = region_of(el.assignment.passages.iter().cloned());
-    // Each common's islands are cut on their own (offsets of the whole common, the
-    // larger part of this step), spread over the cores; collected in common order.
+    // Each common's islands are cut on their own, spread over the cores (and each cut
+    // piece opened on its own inside, `islands_of`); collected in common order.
     use rayon::prelude::*;
     let commons: Vec<Common> = el
         .coms

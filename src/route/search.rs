@@ -22,7 +22,6 @@ pub(crate) fn neighbours(i: usize, w: usize, h: usize) -> impl Iterator<Item = (
 }
 const TURN_PENALTY: f32 = 3.0;
 
-
 /// What a search knows of one cell it reached.
 #[derive(Debug, Clone, Copy)]
 struct Node {
