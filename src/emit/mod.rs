@@ -132,8 +132,8 @@ fn films(c: &Ctx) -> Result<Vec<drawing::Drawing>> {
 pub const OUTPUTS: &[Output] = &[
     Output { suffix: "front.svg", mask: true, panel: false, render: |c| film::render_film(c.art, PlateId::Front, c.date, c.errors) },
     Output { suffix: "back.svg", mask: true, panel: false, render: |c| film::render_film(c.art, PlateId::Back, c.date, c.errors) },
-    Output { suffix: "front.png", mask: true, panel: false, render: |c| png::film_png(&film::render_film(c.art, PlateId::Front, c.date, c.errors)?, c.png_dpi) },
-    Output { suffix: "back.png", mask: true, panel: false, render: |c| png::film_png(&film::render_film(c.art, PlateId::Back, c.date, c.errors)?, c.png_dpi) },
+    Output { suffix: "front.png", mask: true, panel: false, render: |c| png::film_png(&film::film_drawing(c.art, PlateId::Front, c.date, c.errors)?, c.png_dpi) },
+    Output { suffix: "back.png", mask: true, panel: false, render: |c| png::film_png(&film::film_drawing(c.art, PlateId::Back, c.date, c.errors)?, c.png_dpi) },
     Output {
         suffix: "films.pdf",
         mask: true,
