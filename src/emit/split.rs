@@ -6,7 +6,7 @@
 //! Manual, release 6.0), so every hole is opened by a vertical cut through it
 //! (docs/crate-notes.md, *Holes in GDSII boundaries*: splitting gives valid pieces where
 //! a keyhole would touch itself); a
-//! ring above the point limit is cut in two at the median x of its vertices. Cuts go
+//! ring above the point limit is cut into strips at quantiles of its vertices' x. Cuts go
 //! through `geom::intersection`, whose inputs are already on the 1 nm grid; where a
 //! cut crosses a slanted edge the new vertex is rounded to the grid, so the pieces may
 //! differ from the polygon by less than half a nanometre along the cut.
