@@ -78,8 +78,7 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     lap("plate", &mut t, None);
     let ex = crate::check::Extraction::extract(&artwork);
     // The plan reads the artwork and its connectivity, as the rules do, and nothing the
-    // rules give: it runs beside them (rayon), filling the core that the rules' longest
-    // leaves idle. The check's lap ends when its rules are done; the plan's lap is what
+    // rules give: it runs beside them (rayon), on the core the longest rule leaves idle. The check's lap ends when its rules are done; the plan's lap is what
     // it takes after that, so the laps still add up to the time of the build.
     let check = || {
         let mut findings = artwork.generation_findings.clone();

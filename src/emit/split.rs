@@ -63,22 +63,32 @@ fn hole_free(p: Polygon, depth: usize) -> Result<Vec<Polygon>> {
     cuts.sort_by(f64::total_cmp);
     cuts.dedup();
     let (x0, x1) = x_range(&p.exterior().0);
-    let ys = p.exterior().0.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), q| (a.min(q.y), b.max(q.y)));
-    let (y0, y1) = (ys.0 - 1.0, ys.1 + 1.0);
     let mut edges = vec![snap_value(x0 - 1.0)];
     edges.extend(cuts);
     edges.push(snap_value(x1 + 1.0));
-    let mut strips = Vec::new();
-    cut_strips(p, &edges, &mut strips);
     let mut out = Vec::new();
-    for (strip, lo, hi) in strips {
-        for piece in intersection(&region_of([strip]), &region_of([rect(lo, y0, hi, y1)])).0 {
-            // A piece holds no hole (each hole's own line crosses it); should one, it is
-            // cut again.
-            out.extend(hole_free(orient_ccw(&snap(&piece)), depth + 1)?);
-        }
+    for piece in pieces_between(p, &edges) {
+        // A piece holds no hole (each hole's own line crosses it); should one, it is cut
+        // again.
+        out.extend(hole_free(piece, depth + 1)?);
     }
     Ok(out)
+}
+
+/// The proper polygons of `p` between consecutive vertical `edges` (x, ascending, the
+/// first left of it and the last right of it), snapped and counter-clockwise: cut into
+/// strips ring by ring ([`cut_strips`]), each strip made proper by one boolean with its
+/// rectangle.
+fn pieces_between(p: Polygon, edges: &[f64]) -> Vec<Polygon> {
+    let ys = p.exterior().0.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), q| (a.min(q.y), b.max(q.y)));
+    let (y0, y1) = (ys.0 - 1.0, ys.1 + 1.0);
+    let mut strips = Vec::new();
+    cut_strips(p, edges, &mut strips);
+    strips
+        .into_iter()
+        .flat_map(|(strip, lo, hi)| intersection(&region_of([strip]), &region_of([rect(lo, y0, hi, y1)])).0)
+        .map(|q| orient_ccw(&snap(&q)))
+        .collect()
 }
 
 /// The parts of `p` between consecutive `edges` (x, ascending), each with its two edges;
@@ -130,7 +140,7 @@ pub fn area2(r: &[(i32, i32)]) -> i128 {
 /// Pushes the rings of a hole-free polygon, cutting it while it has too many points:
 /// into strips at once, by vertical lines at quantiles of its vertices' x so that each
 /// strip holds about half the limit, each strip made proper by one boolean with its
-/// rectangle ([`cut_strips`], as for holes). (Halving at the median x, each half with
+/// rectangle ([`pieces_between`], as for holes). (Halving at the median x, each half with
 /// its own booleans, ran the booleans over every vertex once per level: a third of the
 /// GDSII and Gerber writers' time on a common along a row of digits.)
 fn limit_points(p: &Polygon, depth: usize, out: &mut Vec<NmRing>) -> Result<()> {
@@ -147,20 +157,13 @@ fn limit_points(p: &Polygon, depth: usize, out: &mut Vec<NmRing>) -> Result<()> 
     let mut xs: Vec<f64> = p.exterior().0.iter().map(|q| q.x).collect();
     xs.sort_by(f64::total_cmp);
     let strips = ring.len().div_ceil(MAX_POINTS / 2).max(2);
-    let (x0, x1) = (xs[0], xs[xs.len() - 1]);
-    let ys = p.exterior().0.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), q| (a.min(q.y), b.max(q.y)));
-    let (y0, y1) = (ys.0 - 1.0, ys.1 + 1.0);
-    let mut edges = vec![snap_value(x0 - 1.0)];
+    let mut edges = vec![snap_value(xs[0] - 1.0)];
     edges.extend((1..strips).map(|k| snap_value(xs[k * xs.len() / strips])));
-    edges.push(snap_value(x1 + 1.0));
+    edges.push(snap_value(xs[xs.len() - 1] + 1.0));
     edges.dedup();
-    let mut parts = Vec::new();
-    cut_strips(p.clone(), &edges, &mut parts);
-    for (strip, lo, hi) in parts {
-        for piece in intersection(&region_of([strip]), &region_of([rect(lo, y0, hi, y1)])).0 {
-            for q in hole_free(orient_ccw(&snap(&piece)), 0)? {
-                limit_points(&q, depth + 1, out)?;
-            }
+    for piece in pieces_between(p.clone(), &edges) {
+        for q in hole_free(piece, 0)? {
+            limit_points(&q, depth + 1, out)?;
         }
     }
     Ok(())
