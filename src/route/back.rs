@@ -78,8 +78,8 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     // Each common's islands are cut on their own, spread over the cores (and each cut
     // piece opened on its own inside, `islands_of`); collected in common order.
     use rayon::prelude::*;
-    let commons: Vec<Common> = el
-        .coms
+    let cut_commons = || {
+        el.coms
         .par_iter()
         .enumerate()
         .map(|(k, c)| {
@@ -96,8 +96,12 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
             let dot_landings = dots.iter().map(|d| landing_area(layout, &region_of([d.clone()]))).collect();
             Common { net: c.net.clone(), owner: k as u32 + 1, islands, landings, behind, dots, dot_landings }
         })
-        .collect();
-    let base = back_grid(layout, &leads, &commons);
+        .collect::<Vec<Common>>()
+    };
+    // The grid's glass edge and front-lead costs need nothing of the commons: laid out
+    // beside the islands (rayon::join), the commons' claims after.
+    let (commons, mut base) = rayon::join(cut_commons, || back_grid(layout, &leads));
+    claim_commons(layout, &mut base, &commons);
     let mut search = Search::weighted(&base, HEURISTIC_WEIGHT);
     // Stuck commons lead the next attempt, the higher-numbered first: in the row nearest
     // the pads the commons are numbered down the row (the far tier counts the other way),
@@ -418,7 +422,10 @@ fn stuck(c: &Common, at: Pt, blockers: &[u32], commons: &[Common]) -> Finding {
     }
 }
 
-fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid {
+/// The back plate's grid before the commons: every cell outside the edge clearance
+/// blocked, and cells near the front leads forbidden in the window and costly in the rest
+/// of the liquid crystal.
+fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
     let b = layout.glass.back;
     let h = super::grid_step(layout);
     let mut g = Grid::new(b.x, b.y, b.x1(), b.y1(), h);
@@ -443,8 +450,14 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
             g.set_cost(c, g.cost(c).max(HIDDEN_CROSSING_COST));
         }
     }
+    g
+}
+
+/// Each common's islands, and its dot, are its own: other commons keep the gap from
+/// them (with one common there is no other). Then the grid is compacted.
+fn claim_commons(layout: &Layout, g: &mut Grid, commons: &[Common]) {
+    let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + g.h;
     if commons.len() > 1 {
-        // Each common's islands, and its dot, are its own: other commons keep the gap.
         for c in commons {
             for island in &c.islands {
                 g.claim_near(island, reach, c.owner);
@@ -455,5 +468,4 @@ fn back_grid(layout: &Layout, front_leads: &Region, commons: &[Common]) -> Grid 
         }
     }
     g.compact();
-    g
 }
