@@ -10,7 +10,20 @@ fn main() {
     let dpi: f32 = args.get(3).and_then(|s| s.parse().ok()).unwrap_or(300.0);
     let data = std::fs::read(&args[1]).expect("read svg");
     let mut opt = resvg::usvg::Options::default();
-    opt.fontdb_mut().load_system_fonts();
+    let db = opt.fontdb_mut();
+    db.load_system_fonts();
+    // fontdb maps the generic `sans-serif` to Arial, which many Linux machines lack; the
+    // preview's words (legend, pin numbers) are then left out. Any sans face will do.
+    let has = |db: &resvg::usvg::fontdb::Database, name: &str| db.faces().any(|f| f.families.iter().any(|(n, _)| n == name));
+    if !has(db, "Arial") {
+        let sans = db
+            .faces()
+            .flat_map(|f| f.families.iter().map(|(n, _)| n.clone()))
+            .find(|n| n.contains("Sans") && !n.contains("Mono"));
+        if let Some(name) = sans {
+            db.set_sans_serif_family(name);
+        }
+    }
     let tree = resvg::usvg::Tree::from_data(&data, &opt).expect("parse svg");
     // usvg sizes are in CSS px (96 per inch).
     let scale = dpi / 96.0;
