@@ -228,8 +228,15 @@ pub fn render_preview(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
         doc = doc.add(layer_group(art, layer, &map, line));
     }
     doc = doc.add(pads(art, &map, line));
+    // The plates' labels stand at the same place above two glasses of the same corner;
+    // overlaid here, a label that would print over one already placed moves up a line.
+    let mut placed: Vec<(f64, f64, f64)> = Vec::new();
     for l in &art.labels {
-        let (x, y) = map.apply(l.at);
+        let (x, mut y) = map.apply(l.at);
+        while placed.iter().any(|&(px, py, ph)| (px - x).abs() < 1e-6 && (py - y).abs() < 1.2 * ph.max(l.height)) {
+            y -= 1.4 * l.height;
+        }
+        placed.push((x, y, l.height));
         doc = doc.add(
             Text::new(l.text.as_str())
                 .set("x", num(x))

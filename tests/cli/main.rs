@@ -34,6 +34,7 @@ mod multiplex;
 mod output_set;
 mod panel;
 mod png_films;
+mod preview_labels;
 mod position_sweep;
 mod reference;
 mod registration_demo;
