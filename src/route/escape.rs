@@ -52,26 +52,82 @@ struct NetPieces {
 pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, far_frame: &SideFrame, findings: &mut Vec<Finding>) -> Escapes {
     let nets = collect_pieces(layout, el);
     let frames = Frames { near: frame, far: far_frame };
-    let mut base = base_grid(layout, &frames, &nets);
-    let filled = crate::geom::region_of(
-        el.coms.iter().flat_map(|c| c.outline.0.iter()).map(|p| Polygon::new(p.exterior().clone(), vec![])),
-    );
-    base.add_cost(&filled, if el.coms.len() > 1 { BODY_COST_MULTIPLEXED } else { BODY_COST });
-    // Passages the assignment keeps for back leads stay free of front leads.
-    base.block(&crate::geom::region_of(el.assignment.passages.iter().cloned()));
-    base.compact();
     // The lines the assignment leads first (joins through a tight node), then the rest
     // nearest the pad side first.
     let rank = |i: usize| el.assignment.route_first.iter().position(|&l| l == nets[i].line).unwrap_or(usize::MAX);
     let mut order: Vec<usize> = (0..nets.len()).collect();
     order.sort_by(|&a, &b| rank(a).cmp(&rank(b)).then(nearest_v(frames.of(&nets[a]), &nets[a]).total_cmp(&nearest_v(frames.of(&nets[b]), &nets[b]))));
-    let mut search = Search::new(&base);
-    let (esc, notes) = super::retry::rip_up_and_retry(order, ATTEMPTS, |order| {
-        attempt(layout, &frames, &nets, order, base.clone(), &mut search)
-    })
-    .unwrap_or_default();
+    if let Some(esc) = escape_in_strips(layout, el, &frames, &nets, &order) {
+        return esc;
+    }
+    let (esc, notes) = escape_on_one_grid(layout, el, &frames, &nets, order);
     findings.extend(notes);
     esc
+}
+
+/// The escape of every net on one grid over the whole glass, with rip-up and retry.
+fn escape_on_one_grid(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[NetPieces], order: Vec<usize>) -> (Escapes, Vec<Finding>) {
+    let base = base_grid(layout, el, frames, nets, None);
+    let mut search = Search::new(&base);
+    super::retry::rip_up_and_retry(order, ATTEMPTS, |order| attempt(layout, frames, nets, order, base.clone(), &mut search)).unwrap_or_default()
+}
+
+/// Fewest nets a strip of the glass holds ([`super::strips`]): below this, routing a
+/// layout's nets in one piece costs too little to share out.
+const LEAST_NETS_PER_STRIP: usize = 12;
+
+/// The escape routed strip by strip ([`super::strips`]), the strips at once on the
+/// cores, each on its own grid walled off at its ends; `None` when the layout does not
+/// divide or some net of a strip cannot be routed inside it (the whole glass is then
+/// routed as one, where a lead may go round into the next strip). The strips' leads keep
+/// the gap from each other by the walls: a lead's centre stays `wall` inside its strip.
+fn escape_in_strips(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[NetPieces], order: &[usize]) -> Option<Escapes> {
+    use rayon::prelude::*;
+    let h = super::grid_step(layout);
+    let clearance = wall(layout, h) + keepout(layout, h) + 2.0 * h;
+    let across = matches!(layout.pads.side, crate::layout::Side::Left | crate::layout::Side::Right);
+    let spans: Vec<(f64, f64)> = nets.iter().map(|n| span_along(&n.pieces, across)).collect();
+    let strips = super::strips::divide(&spans, clearance, LEAST_NETS_PER_STRIP);
+    if strips.len() < 2 {
+        return None;
+    }
+    let routed: Vec<Option<Escapes>> = strips
+        .par_iter()
+        .map(|strip| {
+            let grid = base_grid(layout, el, frames, nets, Some(strip));
+            let mine: Vec<usize> = order.iter().copied().filter(|i| strip.nets.binary_search(i).is_ok()).collect();
+            let mut search = Search::new(&grid);
+            let (esc, notes) = super::retry::rip_up_and_retry(mine, ATTEMPTS, |order| attempt(layout, frames, nets, order, grid.clone(), &mut search))?;
+            notes.is_empty().then_some(esc)
+        })
+        .collect();
+    let mut all = Escapes::default();
+    for esc in routed {
+        let esc = esc?;
+        all.arrivals.extend(esc.arrivals);
+        all.joins.extend(esc.joins);
+        all.far_arrivals.extend(esc.far_arrivals);
+    }
+    // In the order the nets would have been routed on one grid, so that every later
+    // stage meets the leads as it did before the glass was divided.
+    let rank: std::collections::HashMap<&str, usize> = order.iter().enumerate().map(|(k, &i)| (nets[i].name.as_str(), k)).collect();
+    for leads in [&mut all.arrivals, &mut all.joins, &mut all.far_arrivals] {
+        leads.sort_by_key(|(net, _)| rank.get(net.as_str()).copied().unwrap_or(usize::MAX));
+    }
+    Some(all)
+}
+
+/// How far inside its strip a lead's centre stays: half a lead and half a gap, so that
+/// leads of two strips keep the gap, and two cells for where the grid puts them.
+fn wall(layout: &Layout, h: f64) -> f64 {
+    (layout.rules.lead_width + layout.rules.min_gap) / 2.0 + 2.0 * h
+}
+
+/// The span of `pieces` along the pad side: in x for pads on the top or bottom, in y
+/// (`across`) for pads on the left or right.
+fn span_along(pieces: &[Polygon], across: bool) -> (f64, f64) {
+    let along = |p: &Pt| if across { p.y } else { p.x };
+    pieces.iter().flat_map(|p| p.exterior().0.iter()).map(along).fold((f64::MAX, f64::MIN), |(lo, hi), u| (lo.min(u), hi.max(u)))
 }
 
 /// The frames of the two sides a lead may leave by.
@@ -135,21 +191,41 @@ fn keepout(layout: &Layout, h: f64) -> f64 {
     layout.rules.min_gap + layout.rules.lead_width / 2.0 + h
 }
 
-fn base_grid(layout: &Layout, frames: &Frames, nets: &[NetPieces]) -> Grid {
+/// The front plate's grid before any lead: the glass outside the liquid crystal and the
+/// seal band strips blocked, every net's pieces claimed with their keep-out, the bodies
+/// costly, the passages kept for back leads blocked. Inside one strip of the glass
+/// ([`super::strips`]) only, when `strip` is given: everything outside it is blocked and
+/// only its nets are claimed, so the grid's memory and its making follow the strip.
+fn base_grid(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[NetPieces], strip: Option<&super::strips::Strip>) -> Grid {
     let f = layout.glass.front;
     let h = super::grid_step(layout);
     let mut g = Grid::new(f.x, f.y, f.x1(), f.y1(), h);
+    // What lies in the strip: polygons cut to it (the whole glass without one).
+    let window = strip.map(|s| {
+        let w = wall(layout, h);
+        let (lo, hi) = ((s.lo + w).max(-1e9), (s.hi - w).min(1e9));
+        match layout.pads.side {
+            crate::layout::Side::Left | crate::layout::Side::Right => (f.x - 1.0, lo, f.x1() + 1.0, hi),
+            _ => (lo, f.y - 1.0, hi, f.y1() + 1.0),
+        }
+    });
+    let inside = |polys: Vec<Polygon>| -> Region {
+        match window {
+            Some((x0, y0, x1, y1)) => region_of(polys.iter().filter_map(|p| crate::geom::clip_to_rect(p, x0, y0, x1, y1))),
+            None => region_of(polys),
+        }
+    };
     let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width);
     let margin = layout.rules.lead_width / 2.0 + h;
-    let strip = |frame: &SideFrame| frame.rect_global(frame.u_lc.0 + margin, frame.v_lc - 3.0 * h, frame.u_lc.1 - margin, frame.v_lc + margin + h);
+    let band = |frame: &SideFrame| frame.rect_global(frame.u_lc.0 + margin, frame.v_lc - 3.0 * h, frame.u_lc.1 - margin, frame.v_lc + margin + h);
     let inner = lc.inset(margin);
-    let mut open = vec![inner.polygon(), strip(frames.near)];
+    let mut open = vec![inner.polygon(), band(frames.near)];
     if nets.iter().any(|n| n.far) {
-        open.push(strip(frames.far));
+        open.push(band(frames.far));
     }
-    g.block_outside(&crate::geom::union_all(open));
+    g.block_outside(&crate::geom::union_all(inside(open).0));
     let k = keepout(layout, h);
-    for (i, n) in nets.iter().enumerate() {
+    for (i, n) in nets.iter().enumerate().filter(|(i, _)| strip.is_none_or(|s| s.nets.binary_search(i).is_ok())) {
         // Piece by piece: a bus stroke may overlap a segment, and the spans are even-odd.
         // The keep-out is measured exactly (`claim_near`), a quarter cell short of the full
         // slack: the offset polygons it replaces fell short by up to their chord tolerance
@@ -159,6 +235,11 @@ fn base_grid(layout: &Layout, frames: &Frames, nets: &[NetPieces]) -> Grid {
             g.claim_near(&region_of([p.clone()]), k - h / 4.0, i as u32 + 1);
         }
     }
+    let filled: Vec<Polygon> = el.coms.iter().flat_map(|c| c.outline.0.iter()).map(|p| Polygon::new(p.exterior().clone(), vec![])).collect();
+    g.add_cost(&inside(filled), if el.coms.len() > 1 { BODY_COST_MULTIPLEXED } else { BODY_COST });
+    // Passages the assignment keeps for back leads stay free of front leads.
+    g.block(&inside(el.assignment.passages.clone()));
+    g.compact();
     g
 }
 
@@ -290,5 +371,45 @@ fn stuck(grid: &Grid, nets: &[NetPieces], i: usize, b: &super::search::Blocked, 
         measured: None,
         required: None,
         message: format!("net {} cannot be routed: {why}{by}", nets[i].name),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::rect;
+    use crate::glyph::{Element, ElementKind};
+
+    /// Thirty squares in a row on a glass 100 mm wide (static drive, one net each): the
+    /// glass divides into strips, every strip routes, and the leads are those of the
+    /// escape on one grid over the whole glass, in the same order.
+    #[test]
+    fn strips_give_the_leads_of_one_grid() {
+        let mut layout = crate::layout::fixture::tiny_layout();
+        layout.glass.front.width = 100.0;
+        layout.glass.back.width = 100.0;
+        layout.window.width = 92.0;
+        let els: Vec<Element> = (0..30)
+            .map(|i| {
+                let r = region_of([rect(6.0 + 3.0 * i as f64, 12.0, 7.5 + 3.0 * i as f64, 13.5)]);
+                Element { name: format!("S{i}"), kind: ElementKind::Icon, outline: r.clone(), body: r, digit: None, drives: format!("S{i}"), key: "icons".into() }
+            })
+            .collect();
+        let a = crate::assign::assign(&layout, &els).unwrap();
+        let el = crate::electrode::build_electrodes(&layout, &els, &a).unwrap();
+        let (near, far) = (SideFrame::of(&layout), SideFrame::opposite(&layout));
+        let frames = Frames { near: &near, far: &far };
+        let nets = collect_pieces(&layout, &el);
+        let h = super::super::grid_step(&layout);
+        let spans: Vec<(f64, f64)> = nets.iter().map(|n| span_along(&n.pieces, false)).collect();
+        let strips = super::super::strips::divide(&spans, wall(&layout, h) + keepout(&layout, h) + 2.0 * h, LEAST_NETS_PER_STRIP);
+        assert_eq!(strips.len(), 2, "thirty nets, at least twelve a strip");
+        let order: Vec<usize> = (0..nets.len()).rev().collect();
+        let divided = escape_in_strips(&layout, &el, &frames, &nets, &order).expect("every strip routes");
+        let (whole, notes) = escape_on_one_grid(&layout, &el, &frames, &nets, order);
+        assert!(notes.is_empty(), "{notes:?}");
+        assert_eq!(divided.arrivals.len(), 30);
+        assert_eq!(divided.arrivals, whole.arrivals);
+        assert_eq!(divided.joins, whole.joins);
     }
 }

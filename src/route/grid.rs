@@ -303,21 +303,38 @@ impl Grid {
         }
     }
 
-    /// Blocks every cell outside `region`, row by row between the spans inside it.
+    /// Blocks every cell outside `region`: what lies outside the box of its spans at once,
+    /// page by page ([`PagedCells::fill_rect`]), then row by row between the spans.
     pub fn block_outside(&mut self, region: &Region) {
         let mut spans: Vec<Vec<(usize, usize)>> = vec![Vec::new(); self.ny];
         self.for_spans_in(region, |r, c0, c1| spans[r].push((c0, c1)));
-        for (r, row) in spans.iter_mut().enumerate() {
+        let rows: Vec<usize> = (0..self.ny).filter(|&r| !spans[r].is_empty()).collect();
+        let (Some(&r0), Some(&r1)) = (rows.first(), rows.last()) else {
+            self.owner.fill_rect(0, 0, self.nx - 1, self.ny - 1, BLOCKED);
+            return;
+        };
+        let c0 = rows.iter().flat_map(|&r| spans[r].iter().map(|s| s.0)).min().unwrap_or(0);
+        let c1 = rows.iter().flat_map(|&r| spans[r].iter().map(|s| s.1)).max().unwrap_or(self.nx - 1);
+        let last = (self.nx - 1, self.ny - 1);
+        if r0 > 0 {
+            self.owner.fill_rect(0, 0, last.0, r0 - 1, BLOCKED);
+        }
+        self.owner.fill_rect(0, r1 + 1, last.0, last.1, BLOCKED);
+        if c0 > 0 {
+            self.owner.fill_rect(0, r0, c0 - 1, r1, BLOCKED);
+        }
+        self.owner.fill_rect(c1 + 1, r0, last.0, r1, BLOCKED);
+        for (r, row) in spans.iter_mut().enumerate().take(r1 + 1).skip(r0) {
             row.sort_unstable();
-            let mut next = 0;
-            for &(c0, c1) in row.iter() {
-                if c0 > next {
-                    self.owner.update_run(r, next, c0 - 1, |_| BLOCKED);
+            let mut next = c0;
+            for &(a, b) in row.iter() {
+                if a > next {
+                    self.owner.update_run(r, next, a - 1, |_| BLOCKED);
                 }
-                next = next.max(c1 + 1);
+                next = next.max(b + 1);
             }
-            if next < self.nx {
-                self.owner.update_run(r, next, self.nx - 1, |_| BLOCKED);
+            if next <= c1 {
+                self.owner.update_run(r, next, c1, |_| BLOCKED);
             }
         }
     }
@@ -371,6 +388,29 @@ mod tests {
             let c = g.centre(i);
             assert_eq!(inside, shapes.contains(&geo::Point(c)), "cell at {c:?}");
         }
+    }
+
+    /// Blocking outside a region leaves open exactly the cells whose centres lie inside
+    /// it (geo's `Contains`), for a comb with a hole away from the grid's edges and for
+    /// one that runs off them, and the blocked pages far from the region stay one value.
+    #[test]
+    fn blocking_outside_leaves_open_the_cells_inside() {
+        use geo::Contains;
+        let teeth = crate::geom::union_all((0..4).map(|i| rect(i as f64 * 2.5 + 2.03, 1.03, i as f64 * 2.5 + 3.23, 6.03)).chain([rect(2.03, 5.03, 12.03, 7.03)]));
+        let comb = crate::geom::difference(&teeth, &region_of([rect(5.03, 5.53, 9.03, 6.53)]));
+        let off_edges = crate::geom::union(&comb, &region_of([rect(-5.0, 3.03, 50.03, 3.53)]));
+        for shape in [comb, off_edges] {
+            let mut g = Grid::new(-1.0, -1.0, 41.0, 29.0, 0.05);
+            g.block_outside(&shape);
+            for i in 0..g.nx * g.ny {
+                let c = g.centre(i);
+                assert_eq!(g.owner(i) == FREE, shape.contains(&geo::Point(c)), "cell at {c:?}");
+            }
+            assert!(g.dense_cells() < g.nx * g.ny / 2, "{} of {} cells stored one by one", g.dense_cells(), g.nx * g.ny);
+        }
+        let mut none = Grid::new(0.0, 0.0, 5.0, 5.0, 0.1);
+        none.block_outside(&Region::new(vec![]));
+        assert!((0..none.nx * none.ny).all(|i| none.owner(i) == BLOCKED));
     }
 
     /// Cells near a region are those whose centres lie within `d` of it: against geo's

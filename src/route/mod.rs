@@ -32,6 +32,7 @@ pub mod retry;
 pub mod ring;
 pub mod search;
 pub mod side;
+pub mod strips;
 pub mod target;
 
 use crate::electrode::Electrodes;

@@ -22,6 +22,8 @@ pub const CELLS: usize = SIDE * SIDE;
 pub struct PageGeom {
     /// Columns of cells.
     pub nx: usize,
+    /// Rows of cells.
+    pub ny: usize,
     /// Pages across.
     pub px: usize,
     /// Pages down.
@@ -31,7 +33,7 @@ pub struct PageGeom {
 impl PageGeom {
     /// Pages covering `nx` × `ny` cells.
     pub fn of(nx: usize, ny: usize) -> PageGeom {
-        PageGeom { nx, px: nx.div_ceil(SIDE), py: ny.div_ceil(SIDE) }
+        PageGeom { nx, ny, px: nx.div_ceil(SIDE), py: ny.div_ceil(SIDE) }
     }
 
     /// Page and offset within it of the cell at column `x`, row `y`.
@@ -148,6 +150,31 @@ impl<T: Copy + PartialEq> PagedCells<T> {
                     }
                     let own = Arc::get_mut(d).expect("a page just copied has one owner");
                     own[a..=b].iter_mut().for_each(|c| *c = f(*c));
+                }
+            }
+        }
+    }
+
+    /// Sets every cell of columns `x0..=x1` and rows `y0..=y1` to `value`: a page the
+    /// rectangle covers (up to the grid's edges) becomes that one value, the others are
+    /// set run by run. Set run by run, every page of a large blocked area got an array of
+    /// its own first (a run covers one row of a page) and gave it back only when the grid
+    /// was compacted.
+    pub fn fill_rect(&mut self, x0: usize, y0: usize, x1: usize, y1: usize, value: T) {
+        let (x1, y1) = (x1.min(self.geom.nx - 1), y1.min(self.geom.ny - 1));
+        if x0 > x1 || y0 > y1 {
+            return;
+        }
+        for py in (y0 >> SHIFT)..=(y1 >> SHIFT) {
+            let (cy0, cy1) = (py << SHIFT, ((py << SHIFT) | MASK).min(self.geom.ny - 1));
+            for px in (x0 >> SHIFT)..=(x1 >> SHIFT) {
+                let (cx0, cx1) = (px << SHIFT, ((px << SHIFT) | MASK).min(self.geom.nx - 1));
+                if x0 <= cx0 && cx1 <= x1 && y0 <= cy0 && cy1 <= y1 {
+                    self.pages[py * self.geom.px + px] = Page::Uniform(value);
+                } else {
+                    for y in y0.max(cy0)..=y1.min(cy1) {
+                        self.update_run(y, x0.max(cx0), x1.min(cx1), |_| value);
+                    }
                 }
             }
         }
@@ -308,6 +335,30 @@ mod tests {
         assert_eq!(b.dense_cells(), 0, "both pages are now alike inside");
         assert_eq!((b.get(0), b.get(127)), (1, 2));
         assert_eq!(a.get(0), 3);
+    }
+
+    /// A rectangle fill sets the cells inside and no other, as setting them one by one
+    /// does; the pages it covers (up to the grid's ragged last row and column of pages)
+    /// stay one value each, the pages it cuts get arrays.
+    #[test]
+    fn a_rectangle_fills_whole_pages_as_one_value() {
+        let g = PageGeom::of(200, 130);
+        let mut filled = PagedCells::new(g, 0u32);
+        let mut cells = PagedCells::new(g, 0u32);
+        filled.fill_rect(64, 0, 199, 129, 7);
+        filled.fill_rect(10, 20, 30, 40, 3);
+        for y in 0..130 {
+            for x in 0..200 {
+                let v = if (64..=199).contains(&x) { 7 } else if (10..=30).contains(&x) && (20..=40).contains(&y) { 3 } else { 0 };
+                cells.set(y * 200 + x, v);
+            }
+        }
+        assert!((0..200 * 130).all(|i| filled.get(i) == cells.get(i)));
+        // Pages 1-3 of each of the three page rows are covered; only page 0 of row 0 is cut.
+        assert_eq!(filled.dense_cells(), CELLS);
+        filled.fill_rect(0, 0, 500, 500, 1);
+        assert_eq!(filled.dense_cells(), 0, "clamped to the grid, every page covered");
+        assert!((0..200 * 130).all(|i| filled.get(i) == 1));
     }
 
     /// A run across page borders does what setting its cells one by one does, leaves a
