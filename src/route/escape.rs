@@ -75,6 +75,9 @@ fn escape_on_one_grid(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &
 /// Fewest nets a strip of the glass holds ([`super::strips`]): below this, routing a
 /// layout's nets in one piece costs too little to share out.
 const LEAST_NETS_PER_STRIP: usize = 12;
+/// How many times the glass is halved at most for the escape: up to eight strips, each
+/// with a grid of its own part of the glass.
+const STRIP_HALVINGS: u32 = 3;
 
 /// The escape routed strip by strip ([`super::strips`]), the strips at once on the
 /// cores, each on its own grid walled off at its ends; `None` when the layout does not
@@ -87,7 +90,7 @@ fn escape_in_strips(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[N
     let clearance = wall(layout, h) + keepout(layout, h) + 2.0 * h;
     let across = matches!(layout.pads.side, crate::layout::Side::Left | crate::layout::Side::Right);
     let spans: Vec<(f64, f64)> = nets.iter().map(|n| span_along(&n.pieces, across)).collect();
-    let strips = super::strips::divide(&spans, clearance, LEAST_NETS_PER_STRIP);
+    let strips = super::strips::divide(&spans, clearance, LEAST_NETS_PER_STRIP, STRIP_HALVINGS);
     if strips.len() < 2 {
         return None;
     }
@@ -402,7 +405,7 @@ mod tests {
         let nets = collect_pieces(&layout, &el);
         let h = super::super::grid_step(&layout);
         let spans: Vec<(f64, f64)> = nets.iter().map(|n| span_along(&n.pieces, false)).collect();
-        let strips = super::super::strips::divide(&spans, wall(&layout, h) + keepout(&layout, h) + 2.0 * h, LEAST_NETS_PER_STRIP);
+        let strips = super::super::strips::divide(&spans, wall(&layout, h) + keepout(&layout, h) + 2.0 * h, LEAST_NETS_PER_STRIP, STRIP_HALVINGS);
         assert_eq!(strips.len(), 2, "thirty nets, at least twelve a strip");
         let order: Vec<usize> = (0..nets.len()).rev().collect();
         let divided = escape_in_strips(&layout, &el, &frames, &nets, &order).expect("every strip routes");
