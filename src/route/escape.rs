@@ -1,6 +1,8 @@
 //! Escape routing: joins the pieces of every SEG net and leads it out of the liquid-crystal
 //! region into the seal band on the pad side, by maze search, one net after another, with
-//! rip-up and retry in a new order when a net is stuck.
+//! rip-up and retry in a new order when a net is stuck; strip by strip of the glass
+//! ([`super::strips`]), the strips at once on the cores, where the nets leave room to
+//! divide it.
 
 use super::grid::Grid;
 use super::search::{corners, Search};
