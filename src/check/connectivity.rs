@@ -115,6 +115,9 @@ pub struct Extraction {
     /// Where the plates' ITO overlap outside the designed pixels, worked out on first use
     /// for the rules that read it ([`super::ghost::ghost_region`]).
     pub(crate) ghosts: std::sync::OnceLock<crate::geom::Region>,
+    /// Each plate's ITO inside the liquid crystal, worked out on first use
+    /// ([`Extraction::ito_in_lc`]).
+    ito_in_lc: [std::sync::OnceLock<crate::geom::Region>; 2],
 }
 
 fn plate_slot(p: PlateId) -> usize {
@@ -182,9 +185,20 @@ impl Extraction {
             bridges,
             by_plate,
             ghosts: Default::default(),
+            ito_in_lc: Default::default(),
         };
         ex.attach_pins(art, &shape_index, &shape_piece);
         ex
+    }
+
+    /// The ITO of `plate`'s components inside the liquid-crystal region `lc` (the
+    /// artwork's), snapped to the 1 nm grid: worked out once, as the ghost rule and the
+    /// electrical plan both read it (a boolean over all of a plate's ITO each time).
+    pub fn ito_in_lc(&self, plate: PlateId, lc: &Polygon) -> &Region {
+        self.ito_in_lc[plate_slot(plate)].get_or_init(|| {
+            let polys = self.components.iter().filter(|c| c.plate == plate).flat_map(|c| c.region.0.iter().cloned());
+            crate::geom::snap(&crate::geom::intersection(&crate::geom::region_of(polys), &crate::geom::region_of([lc.clone()])))
+        })
     }
 
     /// Components on `plate` whose ITO meets `area` (overlapping or touching).

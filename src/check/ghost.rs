@@ -23,12 +23,6 @@ use geo::{Contains, InteriorPoint, Intersects};
 /// two leads at the minimum width is about 100 times larger.
 pub const MIN_GHOST_MM2: f64 = 1e-4;
 
-/// The ITO of one plate clipped to a region.
-fn plate_ito(ex: &Extraction, plate: PlateId, clip: &Region) -> Region {
-    let polys = ex.components.iter().filter(|c| c.plate == plate).flat_map(|c| c.region.0.iter().cloned());
-    geom::snap(&geom::intersection(&geom::region_of(polys), clip))
-}
-
 /// Where the two plates' ITO overlap in the liquid crystal outside the designed pixels
 /// (`ex` extracted from `art`): worked out once, as the ghost and drive-truth rules both
 /// read it.
@@ -37,8 +31,8 @@ pub fn ghost_region<'a>(art: &Artwork, ex: &'a Extraction) -> &'a Region {
 }
 
 fn overlap_outside_pixels(art: &Artwork, ex: &Extraction) -> Region {
-    let lc = geom::region_of([art.lc_region.clone()]);
-    let lit = geom::snap(&geom::intersection(&plate_ito(ex, PlateId::Front, &lc), &plate_ito(ex, PlateId::Back, &lc)));
+    let (front, back) = (ex.ito_in_lc(PlateId::Front, &art.lc_region), ex.ito_in_lc(PlateId::Back, &art.lc_region));
+    let lit = geom::snap(&geom::intersection(front, back));
     let pixels = geom::region_of(art.pixels.iter().flat_map(|p| p.region.0.iter().cloned()));
     // Boolean output is snapped back to the 1 nm grid (see `connectivity::unite`).
     geom::snap(&geom::difference(&lit, &pixels))

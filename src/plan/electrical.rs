@@ -195,10 +195,9 @@ pub fn ito_of_net(ex: &Extraction, plate: PlateId, net: &str) -> Region {
 pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
     let cell: &Cell = &art.cell;
     let lc = geom::region_of([art.lc_region.clone()]);
-    let plate_ito = |plate: PlateId| geom::region_of(ex.components.iter().filter(|c| c.plate == plate).flat_map(|c| c.region.0.iter().cloned()));
     // Each line is measured against the whole other plate: cut into bands once.
-    let all_front = geom::bands::Banded::of(&geom::intersection(&plate_ito(PlateId::Front), &lc));
-    let all_back = geom::bands::Banded::of(&geom::intersection(&plate_ito(PlateId::Back), &lc));
+    let all_front = geom::bands::Banded::of(ex.ito_in_lc(PlateId::Front, &art.lc_region));
+    let all_back = geom::bands::Banded::of(ex.ito_in_lc(PlateId::Back, &art.lc_region));
     let period = 1.0 / cell.frame_rate;
     // Each line is measured on its own (its lead pieces open the whole net's ITO, the
     // plan's largest cost), spread over the cores by rayon; collected in net order and
