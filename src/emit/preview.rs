@@ -127,8 +127,22 @@ fn pads(art: &Artwork, map: &PageMap, line: f64) -> Group {
     g
 }
 
-/// Every finding circled where it is, with its rule code.
-fn findings_group(findings: &[Finding], map: &PageMap, r: f64) -> Group {
+/// How wide a line of sans-serif text is taken to be, in font sizes per character: a
+/// little more than the average advance of common sans faces (about 0.55 em, from
+/// memory), so that labels kept apart by it stay apart in any of them.
+const TEXT_WIDTH_EM: f64 = 0.65;
+
+/// A page box (x0, y0, x1, y1), y down.
+type PageBox = (f64, f64, f64, f64);
+
+fn boxes_meet(a: &PageBox, b: &PageBox) -> bool {
+    a.0 < b.2 && b.0 < a.2 && a.1 < b.3 && b.1 < a.3
+}
+
+/// Every finding circled where it is, with its rule code above the circle, or below it
+/// where above it would print over a plate's label (`taken`): a note at the top left
+/// corner of the glass put its code on the back plate's name.
+fn findings_group(findings: &[Finding], map: &PageMap, r: f64, taken: &[PageBox]) -> Group {
     let mut g = Group::new().set("id", "findings");
     for f in findings {
         let (x, y) = map.apply(f.location);
@@ -142,7 +156,12 @@ fn findings_group(findings: &[Finding], map: &PageMap, r: f64) -> Group {
                 .set("stroke", c)
                 .set("stroke-width", num(r / 5.0)),
         );
-        g = g.add(label(x, y - 1.6 * r, r, c, f.rule.code()));
+        let code = f.rule.code();
+        let half = TEXT_WIDTH_EM * r * code.chars().count() as f64 / 2.0;
+        let at = |ly: f64| (x - half, ly - 0.6 * r, x + half, ly + 0.6 * r);
+        let above = y - 1.6 * r;
+        let ly = if taken.iter().any(|t| boxes_meet(&at(above), t)) { y + 1.6 * r } else { above };
+        g = g.add(label(x, ly, r, c, code));
     }
     g
 }
@@ -231,12 +250,14 @@ pub fn render_preview(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
     // The plates' labels stand at the same place above two glasses of the same corner;
     // overlaid here, a label that would print over one already placed moves up a line.
     let mut placed: Vec<(f64, f64, f64)> = Vec::new();
+    let mut taken: Vec<PageBox> = Vec::new();
     for l in &art.labels {
         let (x, mut y) = map.apply(l.at);
         while placed.iter().any(|&(px, py, ph)| (px - x).abs() < 1e-6 && (py - y).abs() < 1.2 * ph.max(l.height)) {
             y -= 1.4 * l.height;
         }
         placed.push((x, y, l.height));
+        taken.push((x, y - l.height, x + TEXT_WIDTH_EM * l.height * l.text.chars().count() as f64, y + 0.25 * l.height));
         doc = doc.add(
             Text::new(l.text.as_str())
                 .set("x", num(x))
@@ -246,7 +267,7 @@ pub fn render_preview(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
                 .set("fill", "#555555"),
         );
     }
-    doc = doc.add(findings_group(findings, &map, (w.max(h) / 60.0).clamp(0.5, 3.0)));
+    doc = doc.add(findings_group(findings, &map, (w.max(h) / 60.0).clamp(0.5, 3.0), &taken));
     doc = doc.add(legend(w + 2.0 * MARGIN, MARGIN, findings));
     Ok(page::bytes(&doc))
 }
