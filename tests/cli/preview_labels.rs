@@ -9,13 +9,18 @@ use crate::demo_build::{build_demo, demo_names};
 /// (x, y, font size, text) of each plate label in a preview SVG: the `<text>` elements
 /// whose text ends in ` FRONT` or ` BACK`.
 fn plate_labels(svg: &str) -> Vec<(f64, f64, f64, String)> {
+    texts(svg).into_iter().filter(|t| t.3.ends_with(" FRONT") || t.3.ends_with(" BACK")).collect()
+}
+
+/// (x, y, font size, text) of each `<text>` element in `svg`.
+fn texts(svg: &str) -> Vec<(f64, f64, f64, String)> {
     let attr = |tag: &str, k: &str| -> f64 { tag.split(&format!(" {k}=\"")).nth(1).unwrap().split('"').next().unwrap().parse().unwrap() };
     svg.split("<text")
         .skip(1)
         .filter_map(|t| {
             let (tag, rest) = t.split_once('>')?;
             let text = rest.split("</text>").next()?.trim().to_string();
-            (text.ends_with(" FRONT") || text.ends_with(" BACK")).then(|| (attr(tag, "x"), attr(tag, "y"), attr(tag, "font-size"), text))
+            Some((attr(tag, "x"), attr(tag, "y"), attr(tag, "font-size"), text))
         })
         .collect()
 }
@@ -33,19 +38,6 @@ fn plate_labels_never_print_over_each_other_in_a_preview() {
         assert!((a.0 - b.0).abs() > 1e-9 || (a.1 - b.1).abs() >= a.2.max(b.2), "{name}: {a:?} and {b:?} print over each other");
     }
     assert!(shared_top > 0, "no demo puts both labels at one x: the test would not see an overlap");
-}
-
-/// (x, y, font size, text) of each `<text>` in `svg`, with the attribute parser above.
-fn texts(svg: &str) -> Vec<(f64, f64, f64, String)> {
-    let attr = |tag: &str, k: &str| -> f64 { tag.split(&format!(" {k}=\"")).nth(1).unwrap().split('"').next().unwrap().parse().unwrap() };
-    svg.split("<text")
-        .skip(1)
-        .filter_map(|t| {
-            let (tag, rest) = t.split_once('>')?;
-            let text = rest.split("</text>").next()?.trim().to_string();
-            Some((attr(tag, "x"), attr(tag, "y"), attr(tag, "font-size"), text))
-        })
-        .collect()
 }
 
 /// A finding's rule code, printed centred above its circle, never prints over a plate's
