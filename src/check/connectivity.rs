@@ -191,13 +191,14 @@ impl Extraction {
         ex
     }
 
-    /// The ITO of `plate`'s components inside the liquid-crystal region `lc` (the
-    /// artwork's), snapped to the 1 nm grid: worked out once, as the ghost rule and the
-    /// electrical plan both read it (a boolean over all of a plate's ITO each time).
-    pub fn ito_in_lc(&self, plate: PlateId, lc: &Polygon) -> &Region {
+    /// The ITO of `plate`'s components inside the liquid crystal of `art` (the artwork
+    /// this was extracted from), snapped to the 1 nm grid: worked out once, as the ghost
+    /// rule and the electrical plan both read it (a boolean over all of a plate's ITO).
+    pub fn ito_in_lc(&self, art: &Artwork, plate: PlateId) -> &Region {
         self.ito_in_lc[plate_slot(plate)].get_or_init(|| {
             let polys = self.components.iter().filter(|c| c.plate == plate).flat_map(|c| c.region.0.iter().cloned());
-            crate::geom::snap(&crate::geom::intersection(&crate::geom::region_of(polys), &crate::geom::region_of([lc.clone()])))
+            let lc = crate::geom::region_of([art.lc_region.clone()]);
+            crate::geom::snap(&crate::geom::intersection(&crate::geom::region_of(polys), &lc))
         })
     }
 

@@ -31,7 +31,7 @@ pub fn ghost_region<'a>(art: &Artwork, ex: &'a Extraction) -> &'a Region {
 }
 
 fn overlap_outside_pixels(art: &Artwork, ex: &Extraction) -> Region {
-    let (front, back) = (ex.ito_in_lc(PlateId::Front, &art.lc_region), ex.ito_in_lc(PlateId::Back, &art.lc_region));
+    let (front, back) = (ex.ito_in_lc(art, PlateId::Front), ex.ito_in_lc(art, PlateId::Back));
     let lit = geom::snap(&geom::intersection(front, back));
     let pixels = geom::region_of(art.pixels.iter().flat_map(|p| p.region.0.iter().cloned()));
     // Boolean output is snapped back to the 1 nm grid (see `connectivity::unite`).

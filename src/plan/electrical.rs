@@ -196,8 +196,8 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
     let cell: &Cell = &art.cell;
     let lc = geom::region_of([art.lc_region.clone()]);
     // Each line is measured against the whole other plate: cut into bands once.
-    let all_front = geom::bands::Banded::of(ex.ito_in_lc(PlateId::Front, &art.lc_region));
-    let all_back = geom::bands::Banded::of(ex.ito_in_lc(PlateId::Back, &art.lc_region));
+    let all_front = geom::bands::Banded::of(ex.ito_in_lc(art, PlateId::Front));
+    let all_back = geom::bands::Banded::of(ex.ito_in_lc(art, PlateId::Back));
     let period = 1.0 / cell.frame_rate;
     // Each line is measured on its own (its lead pieces open the whole net's ITO, the
     // plan's largest cost), spread over the cores by rayon; collected in net order and
