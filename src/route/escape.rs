@@ -70,8 +70,8 @@ pub fn escape_all(layout: &Layout, el: &Electrodes, frame: &SideFrame, far_frame
 /// The escape of every net on one grid over the whole glass, with rip-up and retry.
 fn escape_on_one_grid(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[NetPieces], order: Vec<usize>) -> (Escapes, Vec<Finding>) {
     let base = base_grid(layout, el, frames, nets, None);
-    let mut search = Search::new(&base);
-    super::retry::rip_up_and_retry(order, ATTEMPTS, |order| attempt(layout, frames, nets, order, base.clone(), &mut search)).unwrap_or_default()
+    let mut kit = Kit::new(&base);
+    super::retry::rip_up_and_retry(order, ATTEMPTS, |order| attempt(layout, frames, nets, order, base.clone(), &mut kit)).unwrap_or_default()
 }
 
 /// Fewest nets a strip of the glass holds ([`super::strips`]): below this, routing a
@@ -96,15 +96,22 @@ fn escape_in_strips(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[N
     if strips.len() < 2 {
         return None;
     }
+    // One search state per worker, kept from strip to strip: a state's per-tile arrays
+    // span the glass, and each strip touches one memory page of each array per row of
+    // tiles, so a state per strip faulted in four times the pages (and the check, after
+    // routing, faulted them in again).
     let routed: Vec<Option<Escapes>> = strips
         .par_iter()
-        .map(|strip| {
-            let grid = base_grid(layout, el, frames, nets, Some(strip));
-            let mine: Vec<usize> = order.iter().copied().filter(|i| strip.nets.binary_search(i).is_ok()).collect();
-            let mut search = Search::new(&grid);
-            let (esc, notes) = super::retry::rip_up_and_retry(mine, ATTEMPTS, |order| attempt(layout, frames, nets, order, grid.clone(), &mut search))?;
-            notes.is_empty().then_some(esc)
-        })
+        .map_init(
+            || None::<Kit>,
+            |kit, strip| {
+                let grid = base_grid(layout, el, frames, nets, Some(strip));
+                let mine: Vec<usize> = order.iter().copied().filter(|i| strip.nets.binary_search(i).is_ok()).collect();
+                let kit = kit.get_or_insert_with(|| Kit::new(&grid));
+                let (esc, notes) = super::retry::rip_up_and_retry(mine, ATTEMPTS, |order| attempt(layout, frames, nets, order, grid.clone(), kit))?;
+                notes.is_empty().then_some(esc)
+            },
+        )
         .collect();
     let mut all = Escapes::default();
     for esc in routed {
@@ -250,14 +257,28 @@ fn base_grid(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[NetPiece
 
 type AttemptResult = (Escapes, Vec<usize>, Vec<Finding>);
 
-fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
+/// The search state of the escape's searches, reused from attempt to attempt (and strip
+/// to strip): every buffer is reset by stamp, so what one search left never changes
+/// another's result.
+struct Kit {
+    search: Search,
+    corridors: Corridors,
+}
+
+impl Kit {
+    fn new(grid: &Grid) -> Kit {
+        Kit { search: Search::new(grid), corridors: Corridors::new(grid) }
+    }
+}
+
+fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize], mut grid: Grid, kit: &mut Kit) -> AttemptResult {
+    let Kit { search, corridors } = kit;
     let mut esc = Escapes::default();
     let mut failed = Vec::new();
     let mut notes = Vec::new();
     let h = grid.h;
     let k = keepout(layout, h);
     let mut joined = Targets::new(&grid);
-    let mut corridors = Corridors::new(&grid);
     for &i in order {
         let owner = i as u32 + 1;
         let n = &nets[i];
@@ -275,7 +296,7 @@ fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize]
                 }
                 continue;
             }
-            match find_guided(search, &mut corridors, &Ask { grid: &grid, owner, sources: &cells, goal: &joined }) {
+            match find_guided(search, corridors, &Ask { grid: &grid, owner, sources: &cells, goal: &joined }) {
                 Ok(path) => {
                     let pts = corners(&grid, &path);
                     claim_lead(&mut grid, layout, &pts, owner, k);
@@ -300,7 +321,7 @@ fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize]
         }
         let frame = frames.of(n);
         let goal = SealBand { frame, grid: &grid, v_goal: frame.v_lc };
-        match find_guided(search, &mut corridors, &Ask { grid: &grid, owner, sources: &tree, goal: &goal }) {
+        match find_guided(search, corridors, &Ask { grid: &grid, owner, sources: &tree, goal: &goal }) {
             Ok(path) => {
                 let pts = corners(&grid, &path);
                 claim_lead(&mut grid, layout, &pts, owner, k);
