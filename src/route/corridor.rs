@@ -448,6 +448,11 @@ pub trait Goal {
     fn kept_bound(&self, _c: usize) -> Option<f32> {
         None
     }
+    /// Every cell where [`Goal::is_goal`] holds, if the goal can list them (a flood may
+    /// then run back from them too, [`Search::reaches`]).
+    fn cells(&self) -> Option<Vec<usize>> {
+        None
+    }
 }
 
 /// Finds the lead from `sources` to `goal`: a coarse path over the tiles first, then the
@@ -537,13 +542,14 @@ fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'
 /// costed search over the whole grid runs only when it does. Where no way exists the
 /// result is the same failure, found about ten times faster: a common growing its tree
 /// toward islands shut off from it flooded the glass with A* (the germination demo:
-/// one such search of 10 M heap pops took 1.8 s of its 3.4 s of routing).
+/// one such search of 10 M heap pops took 1.8 s of its 3.4 s of routing), and the flood
+/// runs from the goal's side as well, which is the small one when the goal is shut in.
 pub fn find_guided_or_give_up(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Result<Vec<usize>, ()> {
     if let Some(path) = find_in_corridors(search, corridors, ask) {
         return Ok(path);
     }
     let Ask { grid, owner, sources, goal } = *ask;
-    if search.reaches(grid, owner, sources, |i| goal.is_goal(i)) == Some(false) {
+    if search.reaches(grid, owner, sources, goal.cells().as_deref(), |i| goal.is_goal(i)) == Some(false) {
         return Err(());
     }
     search.find(grid, owner, sources, |i| goal.is_goal(i), |i| goal.bound(i)).map_err(|_| ())

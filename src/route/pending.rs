@@ -21,6 +21,8 @@ type Boxed = GeomWithData<Rectangle<[f64; 2]>, usize>;
 /// The islands of one common still to join, as a search goal.
 pub struct Pending {
     nx: usize,
+    /// Each island's landing cells.
+    ends: Vec<Vec<usize>>,
     island_of: Scratch<u32>,
     waiting: Vec<bool>,
     boxes: Vec<Option<Boxed>>,
@@ -71,6 +73,7 @@ impl Pending {
         let waiting = boxes.iter().map(Option::is_some).collect();
         Pending {
             nx,
+            ends: ends.to_vec(),
             island_of,
             waiting,
             boxes,
@@ -133,6 +136,12 @@ impl Goal for Pending {
     /// since: joins only take islands away, so it never exceeds the distance now.
     fn kept_bound(&self, c: usize) -> Option<f32> {
         self.bound.kept(c)
+    }
+    /// The waiting islands' landing cells (those over the page budget left out, as
+    /// [`Goal::is_goal`] leaves them out).
+    fn cells(&self) -> Option<Vec<usize>> {
+        let waiting = self.ends.iter().enumerate().filter(|(k, _)| self.waiting[*k]);
+        Some(waiting.flat_map(|(_, cells)| cells.iter().copied().filter(|&c| self.island_at(c).is_some())).collect())
     }
 }
 

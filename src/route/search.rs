@@ -249,20 +249,53 @@ impl Search {
     /// corner cut past another net's cell), found by a breadth-first flood without costs
     /// or heap; `None` when the flood would lend more pages of state than one search may
     /// ([`super::pages::MAX_PAGES_LENT`]), where `find` would stop over its budget too.
-    pub fn reaches(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal: impl Fn(usize) -> bool) -> Option<bool> {
+    ///
+    /// Given `goal_cells`, every cell where `goal` holds, a second flood runs back from
+    /// them, a cell each in turn with the first, and the answer is known as soon as the
+    /// two meet or either runs out: the work is about twice the smaller side's. A common
+    /// growing toward an island shut in behind other commons flooded the whole glass from
+    /// its tree before (the germination demo: 0.86 s of its routing), where the island's
+    /// side holds a few thousand cells.
+    pub fn reaches(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal_cells: Option<&[usize]>, goal: impl Fn(usize) -> bool) -> Option<bool> {
+        // The flood from the sources marks its cells with one direction value, the flood
+        // from the goal with another.
+        const AHEAD: u8 = 8;
+        const BEHIND: u8 = 9;
+        let mark = |dir| Node { g: 0.0, h: 0.0, parent: 0, dir, closed: false };
+        let enterable = |x: usize, y: usize| grid.open_to(x, y, owner) && !grid.cost_xy(x, y).is_infinite();
         self.nodes.next_search();
-        let mut queue = std::collections::VecDeque::new();
-        let mark = Node { g: 0.0, h: 0.0, parent: 0, dir: 8, closed: false };
+        let mut ahead = std::collections::VecDeque::new();
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
             if self.nodes.get(x, y).is_none() {
-                if !self.nodes.set(x, y, mark) {
+                if !self.nodes.set(x, y, mark(AHEAD)) {
                     return None;
                 }
-                queue.push_back(s as u32);
+                ahead.push_back(s as u32);
             }
         }
-        while let Some(cell) = queue.pop_front() {
+        let mut behind = std::collections::VecDeque::new();
+        if let Some(cells) = goal_cells {
+            for &g in cells.iter().filter(|&&g| goal(g)) {
+                let (x, y) = (g % grid.nx, g / grid.nx);
+                match self.nodes.get(x, y) {
+                    // A source on the goal.
+                    Some(n) if n.dir == AHEAD => return Some(true),
+                    Some(_) => continue,
+                    None => {}
+                }
+                // The first flood ends on a goal cell only by entering it.
+                if !enterable(x, y) {
+                    continue;
+                }
+                if !self.nodes.set(x, y, mark(BEHIND)) {
+                    return None;
+                }
+                behind.push_back(g as u32);
+            }
+        }
+        loop {
+            let Some(cell) = ahead.pop_front() else { return Some(false) };
             let c = cell as usize;
             if goal(c) {
                 return Some(true);
@@ -270,19 +303,48 @@ impl Search {
             let (cx, cy) = (c % grid.nx, c / grid.nx);
             for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
                 let (x, y) = (x as usize, y as usize);
-                if !grid.open_to(x, y, owner) || (d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner)) {
+                if !enterable(x, y) || (d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner)) {
                     continue;
                 }
-                if grid.cost_xy(x, y).is_infinite() || self.nodes.get(x, y).is_some() {
-                    continue;
+                match self.nodes.get(x, y) {
+                    Some(m) if m.dir == BEHIND => return Some(true),
+                    Some(_) => continue,
+                    None => {}
                 }
-                if !self.nodes.set(x, y, mark) {
+                if !self.nodes.set(x, y, mark(AHEAD)) {
                     return None;
                 }
-                queue.push_back(n as u32);
+                ahead.push_back(n as u32);
+            }
+            if goal_cells.is_none() {
+                continue;
+            }
+            // One cell back from the goal: the cells from which a move of the first flood
+            // enters this one.
+            let Some(cell) = behind.pop_front() else { return Some(false) };
+            let c = cell as usize;
+            let (cx, cy) = (c % grid.nx, c / grid.nx);
+            for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
+                let (x, y) = (x as usize, y as usize);
+                if d % 2 == 1 && !grid.corner_open(x, y, cx, cy, owner) {
+                    continue;
+                }
+                match self.nodes.get(x, y) {
+                    // Reached from the sources (a source itself may lie where no lead
+                    // enters: it is where one starts).
+                    Some(m) if m.dir == AHEAD => return Some(true),
+                    Some(_) => continue,
+                    None => {}
+                }
+                if !enterable(x, y) {
+                    continue;
+                }
+                if !self.nodes.set(x, y, mark(BEHIND)) {
+                    return None;
+                }
+                behind.push_back(n as u32);
             }
         }
-        Some(false)
     }
 
     fn path_to(&self, mut c: usize) -> Vec<usize> {
@@ -350,6 +412,53 @@ mod tests {
         assert!(path.iter().any(|&c| g.centre(c).y >= 8.0), "must pass above the wall");
     }
 
+    /// The flood one way and from both ends, which must agree.
+    fn flood(s: &mut Search, g: &Grid, owner: u32, start: usize, end: usize) -> Option<bool> {
+        let one_way = s.reaches(g, owner, &[start], None, |c| c == end);
+        assert_eq!(s.reaches(g, owner, &[start], Some(&[end]), |c| c == end), one_way, "from both ends");
+        one_way
+    }
+
+    /// On grids walled at random (a fixed generator, so the walls are the same run after
+    /// run), the flood from both ends answers as the one-way flood and as the costed
+    /// search: a way found exactly when one exists. Goals of several cells, some of them
+    /// sources, some shut in, and sources on blocked cells all occur.
+    #[test]
+    fn the_flood_from_both_ends_agrees_with_the_search_on_random_walls() {
+        let mut seed = 0x2545_f491_4f6c_dd1du64;
+        let mut next = |n: usize| {
+            // xorshift64 (Marsaglia 2003)
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed % n as u64) as usize
+        };
+        let (mut found, mut not) = (0, 0);
+        for _ in 0..300 {
+            let mut g = Grid::new(0.0, 0.0, 6.0, 6.0, 0.25);
+            for _ in 0..20 + next(60) {
+                let (x, y, w, h) = (next(24) as f64 * 0.25, next(24) as f64 * 0.25, 0.1 + next(12) as f64 * 0.25, 0.1 + next(3) as f64 * 0.25);
+                let r = if next(2) == 0 { rect(x, y, x + w, y + h) } else { rect(x, y, x + h, y + w) };
+                g.claim(&region_of([r]), 2 + next(2) as u32);
+            }
+            for _ in 0..next(6) {
+                let c = next(g.nx * g.ny);
+                g.set_cost(c, f32::INFINITY);
+            }
+            let cells = g.nx * g.ny;
+            let sources: Vec<usize> = (0..1 + next(3)).map(|_| next(cells)).collect();
+            let goal: Vec<usize> = (0..1 + next(4)).map(|_| next(cells)).collect();
+            let owner = 1 + next(2) as u32;
+            let is_goal = |c: usize| goal.contains(&c);
+            let mut s = Search::new(&g);
+            let one_way = s.reaches(&g, owner, &sources, None, is_goal);
+            assert_eq!(s.reaches(&g, owner, &sources, Some(&goal), is_goal), one_way);
+            assert_eq!(one_way, Some(s.find(&g, owner, &sources, is_goal, |_| 0.0).is_ok()));
+            if one_way == Some(true) { found += 1 } else { not += 1 }
+        }
+        assert!(found > 50 && not > 50, "both answers occur often: {found} found, {not} not");
+    }
+
     /// The flood reaches what the costed search reaches: round a wall with a gap, not
     /// through one that closes the grid, nor past a corner of two cells of another net
     /// touching diagonally, nor into cells of infinite cost.
@@ -360,19 +469,19 @@ mod tests {
         g.claim(&region_of([rect(4.8, 0.0, 5.2, 8.0)]), 7);
         let (start, end) = (at(&g, 1.0, 1.0), at(&g, 9.0, 1.0));
         let mut s = Search::new(&g);
-        assert_eq!(s.reaches(&g, 1, &[start], |c| c == end), Some(true));
+        assert_eq!(flood(&mut s, &g, 1, start, end), Some(true));
         assert!(s.find(&g, 1, &[start], |c| c == end, |_| 0.0).is_ok());
         g.claim(&region_of([rect(4.8, 7.9, 5.2, 11.0)]), 7);
-        assert_eq!(s.reaches(&g, 1, &[start], |c| c == end), Some(false));
+        assert_eq!(flood(&mut s, &g, 1, start, end), Some(false));
         assert!(s.find(&g, 1, &[start], |c| c == end, |_| 0.0).is_err());
         // Its own net's cells are open to it.
-        assert_eq!(s.reaches(&g, 7, &[start], |c| c == end), Some(true));
+        assert_eq!(flood(&mut s, &g, 7, start, end), Some(true));
         // The goal's eight neighbours at infinite cost.
         let mut h = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
         for (_, _, _, n) in neighbours(end, h.nx, h.ny) {
             h.set_cost(n, f32::INFINITY);
         }
-        assert_eq!(s.reaches(&h, 1, &[start], |c| c == end), Some(false));
+        assert_eq!(flood(&mut s, &h, 1, start, end), Some(false));
         assert!(s.find(&h, 1, &[start], |c| c == end, |_| 0.0).is_err());
         // A line of single cells of another net corner to corner across the grid: no
         // diagonal step slips between two of them.
@@ -382,7 +491,7 @@ mod tests {
             d.claim(&region_of([rect(c - 0.1, c - 0.1, c + 0.1, c + 0.1)]), 7);
         }
         let (below, above) = (at(&d, 9.0, 1.0), at(&d, 1.0, 9.0));
-        assert_eq!(s.reaches(&d, 1, &[below], |c| c == above), Some(false));
+        assert_eq!(flood(&mut s, &d, 1, below, above), Some(false));
         assert!(s.find(&d, 1, &[below], |c| c == above, |_| 0.0).is_err());
     }
 
