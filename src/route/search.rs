@@ -39,6 +39,16 @@ struct Node {
 
 const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8, closed: false };
 
+/// How one step of a reachability flood ended ([`Search::reaches`]).
+enum Spread {
+    /// Spread to the neighbours it may; the flood goes on.
+    Going,
+    /// Touched a cell the flood from the other end had marked.
+    Met,
+    /// Would lend more pages of state than one search may.
+    OverBudget,
+}
+
 /// Reusable search state, kept by page for the cells one search reaches (so a search
 /// neither clears nor holds millions of cells).
 pub struct Search {
@@ -296,55 +306,56 @@ impl Search {
         }
         loop {
             let Some(cell) = ahead.pop_front() else { return Some(false) };
-            let c = cell as usize;
-            if goal(c) {
+            if goal(cell as usize) {
                 return Some(true);
             }
-            let (cx, cy) = (c % grid.nx, c / grid.nx);
-            for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
-                let (x, y) = (x as usize, y as usize);
-                if !enterable(x, y) || (d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner)) {
-                    continue;
-                }
-                match self.nodes.get(x, y) {
-                    Some(m) if m.dir == BEHIND => return Some(true),
-                    Some(_) => continue,
-                    None => {}
-                }
-                if !self.nodes.set(x, y, mark(AHEAD)) {
-                    return None;
-                }
-                ahead.push_back(n as u32);
+            match self.spread(grid, owner, cell, AHEAD, &mut ahead) {
+                Spread::Going => {}
+                Spread::Met => return Some(true),
+                Spread::OverBudget => return None,
             }
             if goal_cells.is_none() {
                 continue;
             }
             // One cell back from the goal: the cells from which a move of the first flood
-            // enters this one.
+            // enters this one (the moves are the same both ways: into a cell a lead may
+            // enter, past no corner of another net's cells).
             let Some(cell) = behind.pop_front() else { return Some(false) };
-            let c = cell as usize;
-            let (cx, cy) = (c % grid.nx, c / grid.nx);
-            for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
-                let (x, y) = (x as usize, y as usize);
-                if d % 2 == 1 && !grid.corner_open(x, y, cx, cy, owner) {
-                    continue;
-                }
-                match self.nodes.get(x, y) {
-                    // Reached from the sources (a source itself may lie where no lead
-                    // enters: it is where one starts).
-                    Some(m) if m.dir == AHEAD => return Some(true),
-                    Some(_) => continue,
-                    None => {}
-                }
-                if !enterable(x, y) {
-                    continue;
-                }
-                if !self.nodes.set(x, y, mark(BEHIND)) {
-                    return None;
-                }
-                behind.push_back(n as u32);
+            match self.spread(grid, owner, cell, BEHIND, &mut behind) {
+                Spread::Going => {}
+                Spread::Met => return Some(true),
+                Spread::OverBudget => return None,
             }
         }
+    }
+
+    /// One step of a flood of [`Search::reaches`] from `cell`: each neighbour a lead of
+    /// `owner` may enter, past no corner of another net, not marked yet, is marked with
+    /// `side` and queued; a neighbour marked by the other flood means the two have met
+    /// (a cell where a lead starts counts though no lead may enter it: it is where one
+    /// starts).
+    fn spread(&mut self, grid: &Grid, owner: u32, cell: u32, side: u8, queue: &mut std::collections::VecDeque<u32>) -> Spread {
+        let c = cell as usize;
+        let (cx, cy) = (c % grid.nx, c / grid.nx);
+        for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
+            let (x, y) = (x as usize, y as usize);
+            if d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner) {
+                continue;
+            }
+            match self.nodes.get(x, y) {
+                Some(m) if m.dir != side => return Spread::Met,
+                Some(_) => continue,
+                None => {}
+            }
+            if !grid.open_to(x, y, owner) || grid.cost_xy(x, y).is_infinite() {
+                continue;
+            }
+            if !self.nodes.set(x, y, Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }) {
+                return Spread::OverBudget;
+            }
+            queue.push_back(n as u32);
+        }
+        Spread::Going
     }
 
     fn path_to(&self, mut c: usize) -> Vec<usize> {
