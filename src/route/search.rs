@@ -39,6 +39,17 @@ struct Node {
 
 const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8, closed: false };
 
+/// Whether a lead of `owner` may enter the cell at column `x`, row `y`: free or its own,
+/// at a finite cost.
+fn enterable(grid: &Grid, x: usize, y: usize, owner: u32) -> bool {
+    grid.open_to(x, y, owner) && !grid.cost_xy(x, y).is_infinite()
+}
+
+/// The mark a reachability flood leaves on a cell: only the side (`dir`) is read.
+const fn flooded(side: u8) -> Node {
+    Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }
+}
+
 /// How one step of a reachability flood ended ([`Search::reaches`]).
 enum Spread {
     /// Spread to the neighbours it may; the flood goes on.
@@ -271,14 +282,12 @@ impl Search {
         // from the goal with another.
         const AHEAD: u8 = 8;
         const BEHIND: u8 = 9;
-        let mark = |dir| Node { g: 0.0, h: 0.0, parent: 0, dir, closed: false };
-        let enterable = |x: usize, y: usize| grid.open_to(x, y, owner) && !grid.cost_xy(x, y).is_infinite();
         self.nodes.next_search();
         let mut ahead = std::collections::VecDeque::new();
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
             if self.nodes.get(x, y).is_none() {
-                if !self.nodes.set(x, y, mark(AHEAD)) {
+                if !self.nodes.set(x, y, flooded(AHEAD)) {
                     return None;
                 }
                 ahead.push_back(s as u32);
@@ -295,10 +304,10 @@ impl Search {
                     None => {}
                 }
                 // The first flood ends on a goal cell only by entering it.
-                if !enterable(x, y) {
+                if !enterable(grid, x, y, owner) {
                     continue;
                 }
-                if !self.nodes.set(x, y, mark(BEHIND)) {
+                if !self.nodes.set(x, y, flooded(BEHIND)) {
                     return None;
                 }
                 behind.push_back(g as u32);
@@ -347,10 +356,10 @@ impl Search {
                 Some(_) => continue,
                 None => {}
             }
-            if !grid.open_to(x, y, owner) || grid.cost_xy(x, y).is_infinite() {
+            if !enterable(grid, x, y, owner) {
                 continue;
             }
-            if !self.nodes.set(x, y, Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }) {
+            if !self.nodes.set(x, y, flooded(side)) {
                 return Spread::OverBudget;
             }
             queue.push_back(n as u32);
