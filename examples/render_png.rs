@@ -1,5 +1,6 @@
 //! Renders an SVG (a film or the preview) to PNG with resvg, to look at it as a picture:
-//! `cargo run --example render_png -- out/NAME.preview.svg out/NAME.preview.png [DPI]`.
+//! `cargo run --example render_png --features preview-text -- out/NAME.preview.svg out/NAME.preview.png [DPI]`
+//! (the feature brings resvg's fonts, for the preview's labels).
 
 fn main() {
     let args: Vec<String> = std::env::args().collect();
