@@ -12,7 +12,7 @@
 
 use super::grid::Grid;
 use super::search::{corners, Search};
-use super::corridor::{find_guided, find_guided_or_give_up, Ask, Corridors};
+use super::corridor::{find_guided_or_fence, find_guided_or_give_up, Ask, Corridors};
 use super::pending::Pending;
 use super::target::Targets;
 use super::{Lead, TransferSite};
@@ -371,7 +371,7 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
         }
         return Ok(None);
     }
-    match find_guided(search, corridors, &Ask { grid, owner: c.owner, sources: &ends, goal: &*tree }) {
+    match find_guided_or_fence(search, corridors, &Ask { grid, owner: c.owner, sources: &ends, goal: &*tree }) {
         Ok(path) => {
             let pts = corners(grid, &path);
             for &i in path.iter().chain(ends.iter()) {

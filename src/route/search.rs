@@ -50,6 +50,16 @@ const fn flooded(side: u8) -> Node {
     Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }
 }
 
+/// How the floods of [`Search::reaches`] ended.
+enum Floods {
+    /// A way exists: the floods met, or the first took a goal cell.
+    Way,
+    /// No way: one side ran out; every cell it marked.
+    NoWay { cells: Vec<u32> },
+    /// The floods would lend more pages of state than one search may.
+    OverBudget,
+}
+
 /// How one step of a reachability flood ended ([`Search::reaches`]).
 enum Spread {
     /// Spread to the neighbours it may; the flood goes on.
@@ -278,28 +288,80 @@ impl Search {
     /// its tree before (the germination demo: 0.86 s of its routing), where the island's
     /// side holds a few thousand cells.
     pub fn reaches(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal_cells: Option<&[usize]>, goal: impl Fn(usize) -> bool) -> Option<bool> {
+        match self.floods(grid, owner, sources, goal_cells, goal, |_| {}) {
+            Floods::Way => Some(true),
+            Floods::NoWay { .. } => Some(false),
+            Floods::OverBudget => None,
+        }
+    }
+
+    /// What a failing search from `sources` would report, found by the floods of
+    /// [`Search::reaches`] in place of the costed search; `None` when they find a way
+    /// (only the costed search can say which).
+    ///
+    /// The blockers are the nets whose cells close in the side that ran out — the
+    /// sources', or the goal's when `goal_cells` are given and that side is the smaller —
+    /// counted as [`Search::find`] counts them around the cells it expands, most often
+    /// first; the nearest cell is the cell the sources' flood reached with the least
+    /// `heuristic` (the lowest on ties). A common whose tree was shut in near its dot ran
+    /// one costed search over the rest of the glass per island it could not reach before
+    /// (a two-row layout with its pads on top: 13 islands of about 1.4 s each); the floods
+    /// stop when the tree's side runs out.
+    pub fn fence(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal_cells: Option<&[usize]>, goal: impl Fn(usize) -> bool, heuristic: impl Fn(usize) -> f32) -> Option<Blocked> {
+        let mut nearest = (f32::MAX, sources.first().copied().unwrap_or(0));
+        let visit = |c: usize| {
+            let h = heuristic(c);
+            if h < nearest.0 || (h == nearest.0 && c < nearest.1) {
+                nearest = (h, c);
+            }
+        };
+        let cells = match self.floods(grid, owner, sources, goal_cells, goal, visit) {
+            Floods::Way => return None,
+            Floods::OverBudget => return Some(Blocked { blockers: Vec::new(), nearest: nearest.1, over_budget: true }),
+            Floods::NoWay { cells } => cells,
+        };
+        let mut blockers: Vec<(u32, usize)> = Vec::new();
+        for c in cells {
+            for (_, x, y, _) in neighbours(c as usize, grid.nx, grid.ny) {
+                let o = grid.owner_xy(x as usize, y as usize);
+                if o != FREE && o != owner && o != BLOCKED {
+                    match blockers.iter_mut().find(|b| b.0 == o) {
+                        Some(b) => b.1 += 1,
+                        None => blockers.push((o, 1)),
+                    }
+                }
+            }
+        }
+        blockers.sort_by(|x, y| y.1.cmp(&x.1).then(x.0.cmp(&y.0)));
+        Some(Blocked { blockers: blockers.into_iter().map(|b| b.0).collect(), nearest: nearest.1, over_budget: false })
+    }
+
+    /// The flood from `sources` and, given `goal_cells`, the one back from them, a cell of
+    /// each in turn ([`Search::reaches`]); `visit` sees each cell the first flood takes.
+    fn floods(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal_cells: Option<&[usize]>, goal: impl Fn(usize) -> bool, mut visit: impl FnMut(usize)) -> Floods {
         // The flood from the sources marks its cells with one direction value, the flood
-        // from the goal with another.
+        // from the goal with another. Each keeps every cell it marked (its queue, read
+        // from `next`), which is the side that closes in when it runs out.
         const AHEAD: u8 = 8;
         const BEHIND: u8 = 9;
         self.nodes.next_search();
-        let mut ahead = std::collections::VecDeque::new();
+        let mut ahead = Vec::new();
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
             if self.nodes.get(x, y).is_none() {
                 if !self.nodes.set(x, y, flooded(AHEAD)) {
-                    return None;
+                    return Floods::OverBudget;
                 }
-                ahead.push_back(s as u32);
+                ahead.push(s as u32);
             }
         }
-        let mut behind = std::collections::VecDeque::new();
+        let mut behind = Vec::new();
         if let Some(cells) = goal_cells {
             for &g in cells.iter().filter(|&&g| goal(g)) {
                 let (x, y) = (g % grid.nx, g / grid.nx);
                 match self.nodes.get(x, y) {
                     // A source on the goal.
-                    Some(n) if n.dir == AHEAD => return Some(true),
+                    Some(n) if n.dir == AHEAD => return Floods::Way,
                     Some(_) => continue,
                     None => {}
                 }
@@ -308,20 +370,23 @@ impl Search {
                     continue;
                 }
                 if !self.nodes.set(x, y, flooded(BEHIND)) {
-                    return None;
+                    return Floods::OverBudget;
                 }
-                behind.push_back(g as u32);
+                behind.push(g as u32);
             }
         }
+        let (mut next_ahead, mut next_behind) = (0, 0);
         loop {
-            let Some(cell) = ahead.pop_front() else { return Some(false) };
+            let Some(&cell) = ahead.get(next_ahead) else { return Floods::NoWay { cells: ahead } };
+            next_ahead += 1;
+            visit(cell as usize);
             if goal(cell as usize) {
-                return Some(true);
+                return Floods::Way;
             }
             match self.spread(grid, owner, cell, AHEAD, &mut ahead) {
                 Spread::Going => {}
-                Spread::Met => return Some(true),
-                Spread::OverBudget => return None,
+                Spread::Met => return Floods::Way,
+                Spread::OverBudget => return Floods::OverBudget,
             }
             if goal_cells.is_none() {
                 continue;
@@ -329,11 +394,12 @@ impl Search {
             // One cell back from the goal: the cells from which a move of the first flood
             // enters this one (the moves are the same both ways: into a cell a lead may
             // enter, past no corner of another net's cells).
-            let Some(cell) = behind.pop_front() else { return Some(false) };
+            let Some(&cell) = behind.get(next_behind) else { return Floods::NoWay { cells: behind } };
+            next_behind += 1;
             match self.spread(grid, owner, cell, BEHIND, &mut behind) {
                 Spread::Going => {}
-                Spread::Met => return Some(true),
-                Spread::OverBudget => return None,
+                Spread::Met => return Floods::Way,
+                Spread::OverBudget => return Floods::OverBudget,
             }
         }
     }
@@ -343,7 +409,7 @@ impl Search {
     /// `side` and queued; a neighbour marked by the other flood means the two have met
     /// (a cell where a lead starts counts though no lead may enter it: it is where one
     /// starts).
-    fn spread(&mut self, grid: &Grid, owner: u32, cell: u32, side: u8, queue: &mut std::collections::VecDeque<u32>) -> Spread {
+    fn spread(&mut self, grid: &Grid, owner: u32, cell: u32, side: u8, queue: &mut Vec<u32>) -> Spread {
         let c = cell as usize;
         let (cx, cy) = (c % grid.nx, c / grid.nx);
         for (d, x, y, n) in neighbours(c, grid.nx, grid.ny) {
@@ -362,7 +428,7 @@ impl Search {
             if !self.nodes.set(x, y, flooded(side)) {
                 return Spread::OverBudget;
             }
-            queue.push_back(n as u32);
+            queue.push(n as u32);
         }
         Spread::Going
     }
@@ -445,30 +511,8 @@ mod tests {
     /// sources, some shut in, and sources on blocked cells all occur.
     #[test]
     fn the_flood_from_both_ends_agrees_with_the_search_on_random_walls() {
-        let mut seed = 0x2545_f491_4f6c_dd1du64;
-        let mut next = |n: usize| {
-            // xorshift64 (Marsaglia 2003)
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            (seed % n as u64) as usize
-        };
         let (mut found, mut not) = (0, 0);
-        for _ in 0..300 {
-            let mut g = Grid::new(0.0, 0.0, 6.0, 6.0, 0.25);
-            for _ in 0..20 + next(60) {
-                let (x, y, w, h) = (next(24) as f64 * 0.25, next(24) as f64 * 0.25, 0.1 + next(12) as f64 * 0.25, 0.1 + next(3) as f64 * 0.25);
-                let r = if next(2) == 0 { rect(x, y, x + w, y + h) } else { rect(x, y, x + h, y + w) };
-                g.claim(&region_of([r]), 2 + next(2) as u32);
-            }
-            for _ in 0..next(6) {
-                let c = next(g.nx * g.ny);
-                g.set_cost(c, f32::INFINITY);
-            }
-            let cells = g.nx * g.ny;
-            let sources: Vec<usize> = (0..1 + next(3)).map(|_| next(cells)).collect();
-            let goal: Vec<usize> = (0..1 + next(4)).map(|_| next(cells)).collect();
-            let owner = 1 + next(2) as u32;
+        for (g, sources, goal, owner) in random_walls() {
             let is_goal = |c: usize| goal.contains(&c);
             let mut s = Search::new(&g);
             let one_way = s.reaches(&g, owner, &sources, None, is_goal);
@@ -477,6 +521,80 @@ mod tests {
             if one_way == Some(true) { found += 1 } else { not += 1 }
         }
         assert!(found > 50 && not > 50, "both answers occur often: {found} found, {not} not");
+    }
+
+    /// On the same walls, the fence finds no way exactly when the costed search fails,
+    /// and flooding from the sources alone it names the blockers a failing weighted search
+    /// names (which expands each cell it reaches once), in the same order; from both ends
+    /// it names only nets that touch a cell of the side that ran out.
+    #[test]
+    fn the_fence_reports_what_a_failing_search_reports() {
+        let mut named = 0;
+        for (g, sources, goal, owner) in random_walls() {
+            let is_goal = |c: usize| goal.contains(&c);
+            let mut s = Search::weighted(&g, 1.5);
+            let searched = s.find(&g, owner, &sources, is_goal, |_| 0.0);
+            let fenced = s.fence(&g, owner, &sources, None, is_goal, |_| 0.0);
+            assert_eq!(fenced.is_none(), searched.is_ok());
+            let (Some(f), Err(b)) = (fenced, searched) else { continue };
+            assert_eq!(f.blockers, b.blockers);
+            named += usize::from(!f.blockers.is_empty());
+            assert!(s.fence(&g, owner, &sources, Some(&goal), is_goal, |_| 0.0).is_some(), "no way from either end");
+        }
+        assert!(named > 50, "failures that name a blocker occur often: {named}");
+    }
+
+    /// A goal shut in a ring of net 2, the sources out on an open glass that also holds a
+    /// wall of net 3: from the sources alone the fence names both nets (its flood covers the
+    /// open glass), from both ends only net 2, which closes in the side that runs out.
+    #[test]
+    fn the_fence_from_both_ends_names_what_closes_in_the_smaller_side() {
+        let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.25);
+        for r in [rect(13.0, 13.0, 17.0, 13.5), rect(13.0, 16.5, 17.0, 17.0), rect(13.0, 13.0, 13.5, 17.0), rect(16.5, 13.0, 17.0, 17.0)] {
+            g.claim(&region_of([r]), 2);
+        }
+        g.claim(&region_of([rect(2.0, 5.0, 10.0, 5.5)]), 3);
+        let source = g.index_of(crate::geom::pt(2.0, 2.0)).unwrap();
+        let goal = g.index_of(crate::geom::pt(15.0, 15.0)).unwrap();
+        let mut s = Search::weighted(&g, 1.5);
+        let one_way = s.fence(&g, 1, &[source], None, |c| c == goal, |_| 0.0).expect("shut in");
+        assert_eq!(one_way.blockers.len(), 2, "{:?}", one_way.blockers);
+        assert_eq!(s.find(&g, 1, &[source], |c| c == goal, |_| 0.0).unwrap_err().blockers, one_way.blockers);
+        let both = s.fence(&g, 1, &[source], Some(&[goal]), |c| c == goal, |_| 0.0).expect("shut in");
+        assert_eq!(both.blockers, [2]);
+    }
+
+    /// 300 grids of 24 × 24 cells with random walls of two nets (2 and 3), random cells of
+    /// infinite cost, sources and goal cells, and the net that searches (1 or 2): from a
+    /// fixed generator, so the walls are the same run after run.
+    fn random_walls() -> Vec<(Grid, Vec<usize>, Vec<usize>, u32)> {
+        let mut seed = 0x2545_f491_4f6c_dd1du64;
+        let mut next = |n: usize| {
+            // xorshift64 (Marsaglia 2003)
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed % n as u64) as usize
+        };
+        (0..300)
+            .map(|_| {
+                let mut g = Grid::new(0.0, 0.0, 6.0, 6.0, 0.25);
+                for _ in 0..20 + next(60) {
+                    let (x, y, w, h) = (next(24) as f64 * 0.25, next(24) as f64 * 0.25, 0.1 + next(12) as f64 * 0.25, 0.1 + next(3) as f64 * 0.25);
+                    let r = if next(2) == 0 { rect(x, y, x + w, y + h) } else { rect(x, y, x + h, y + w) };
+                    g.claim(&region_of([r]), 2 + next(2) as u32);
+                }
+                for _ in 0..next(6) {
+                    let c = next(g.nx * g.ny);
+                    g.set_cost(c, f32::INFINITY);
+                }
+                let cells = g.nx * g.ny;
+                let sources: Vec<usize> = (0..1 + next(3)).map(|_| next(cells)).collect();
+                let goal: Vec<usize> = (0..1 + next(4)).map(|_| next(cells)).collect();
+                let owner = 1 + next(2) as u32;
+                (g, sources, goal, owner)
+            })
+            .collect()
     }
 
     /// The flood reaches what the costed search reaches: round a wall with a gap, not

@@ -86,6 +86,8 @@ pub struct Targets {
     bound: TileBound,
     version: u32,
     mark: Scratch<()>,
+    /// Every cell of the set, in the order added (the goal's cells, [`Goal::cells`]).
+    members: Vec<usize>,
     tiles: HashSet<(usize, usize)>,
     /// The tile of the last cell added: cells come in rows and runs, most in the tile of
     /// the one before, which then needs no hashing.
@@ -101,6 +103,7 @@ impl Targets {
             bound: TileBound::new(grid),
             version: 1,
             mark: Scratch::new(PageGeom::of(grid.nx, grid.ny), ()),
+            members: Vec::new(),
             tiles: HashSet::new(),
             last_tile: None,
             index: RTree::new(),
@@ -110,6 +113,7 @@ impl Targets {
     /// Empties the set (O(number of tiles), not O(grid)).
     pub fn clear(&mut self) {
         self.mark.next_search();
+        self.members.clear();
         self.tiles.clear();
         self.last_tile = None;
         self.index = RTree::new();
@@ -135,6 +139,7 @@ impl Targets {
             // the cell stays out of the set, and searches for the tree end short of it.
             return;
         }
+        self.members.push(c);
         let (tx, ty) = (x / TILE, y / TILE);
         if self.last_tile == Some((tx, ty)) {
             return;
@@ -182,6 +187,9 @@ impl Goal for Targets {
     }
     fn bound(&self, c: usize) -> f32 {
         self.lower_bound(c)
+    }
+    fn cells(&self) -> Option<Vec<usize>> {
+        Some(self.members.clone())
     }
 }
 
