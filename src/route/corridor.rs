@@ -468,18 +468,16 @@ pub fn find_guided(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_,
 }
 
 /// [`find_guided`] for a search that often has no way and whose failure is read only for
-/// what blocks it: when neither corridor holds a way, the floods of [`Search::fence`] from
-/// the sources and back from the goal's cells give the failure's report in place of the
-/// costed search over the whole grid, which runs only when they find a way.
+/// what blocks it: first the floods of [`Search::fence`] from the sources and back from the
+/// goal's cells, which give the failure's report without any costed search; only when they
+/// find a way, the corridors and, failing them, the costed search over the whole grid, so
+/// the lead found is the one [`find_guided`] finds.
 pub fn find_guided_or_fence(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Result<Vec<usize>, Blocked> {
-    if let Some(path) = find_in_corridors(search, corridors, ask) {
-        return Ok(path);
-    }
     let Ask { grid, owner, sources, goal } = *ask;
     if let Some(blocked) = search.fence(grid, owner, sources, goal.cells().as_deref(), |i| goal.is_goal(i), |i| goal.bound(i)) {
         return Err(blocked);
     }
-    search.find(grid, owner, sources, |i| goal.is_goal(i), |i| goal.bound(i))
+    find_guided(search, corridors, ask)
 }
 
 /// What one search asks for: a lead of `owner` on `grid` from any of `sources` to `goal`.
