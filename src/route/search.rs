@@ -340,8 +340,8 @@ impl Search {
     /// each in turn ([`Search::reaches`]); `visit` sees each cell the first flood takes.
     fn floods(&mut self, grid: &Grid, owner: u32, sources: &[usize], goal_cells: Option<&[usize]>, goal: impl Fn(usize) -> bool, mut visit: impl FnMut(usize)) -> Floods {
         // The flood from the sources marks its cells with one direction value, the flood
-        // from the goal with another. Each keeps every cell it marked (its queue, read
-        // from `next`), which is the side that closes in when it runs out.
+        // from the goal with another. Each keeps every cell it marked in its queue (read
+        // from an index, not popped): when one side runs out, they are what is closed in.
         const AHEAD: u8 = 8;
         const BEHIND: u8 = 9;
         self.nodes.next_search();
@@ -526,7 +526,7 @@ mod tests {
     /// On the same walls, the fence finds no way exactly when the costed search fails,
     /// and flooding from the sources alone it names the blockers a failing weighted search
     /// names (which expands each cell it reaches once), in the same order; from both ends
-    /// it names only nets that touch a cell of the side that ran out.
+    /// it finds no way either.
     #[test]
     fn the_fence_reports_what_a_failing_search_reports() {
         let mut named = 0;
