@@ -214,7 +214,7 @@ struct Growth {
     /// Every cell of the tree, in the order it grew.
     tree_cells: Vec<usize>,
     /// Corridor tiles that hold a seed already.
-    seed_tiles: std::collections::HashSet<usize>,
+    seed_tiles: super::TileSet<usize>,
 }
 
 /// Grows a common's tree from its dots (Prim's order by the lead's true cost): each search

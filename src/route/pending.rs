@@ -14,7 +14,7 @@ use super::target::TileBound;
 use super::pages::{PageGeom, Scratch};
 use rstar::primitives::{GeomWithData, Rectangle};
 use rstar::{PointDistance, RTree};
-use std::collections::HashMap;
+use super::TileMap;
 
 type Boxed = GeomWithData<Rectangle<[f64; 2]>, usize>;
 
@@ -26,7 +26,7 @@ pub struct Pending {
     island_of: Scratch<u32>,
     waiting: Vec<bool>,
     boxes: Vec<Option<Boxed>>,
-    by_tile: HashMap<(usize, usize), Vec<usize>>,
+    by_tile: TileMap<(usize, usize), Vec<usize>>,
     index: RTree<Boxed>,
     /// Distances to the nearest waiting box, one R-tree query per tile until that box's
     /// island is joined.
@@ -40,7 +40,7 @@ impl Pending {
         let nx = grid.nx;
         let mut island_of = Scratch::new(PageGeom::of(grid.nx, grid.ny), u32::MAX);
         island_of.next_search();
-        let mut by_tile: HashMap<(usize, usize), Vec<usize>> = HashMap::new();
+        let mut by_tile: TileMap<(usize, usize), Vec<usize>> = TileMap::default();
         let mut boxes = Vec::with_capacity(ends.len());
         for (k, cells) in ends.iter().enumerate() {
             let (mut x0, mut y0, mut x1, mut y1) = (usize::MAX, usize::MAX, 0, 0);

@@ -20,7 +20,7 @@ use super::pages::{PageGeom, Scratch};
 use rstar::primitives::Rectangle;
 use rstar::{PointDistance, RTree};
 use std::cell::RefCell;
-use std::collections::HashSet;
+use super::TileSet;
 
 use super::corridor::{Goal, TileGeom, TILE};
 
@@ -88,7 +88,7 @@ pub struct Targets {
     mark: Scratch<()>,
     /// Every cell of the set, in the order added (the goal's cells, [`Goal::cells`]).
     members: Vec<usize>,
-    tiles: HashSet<(usize, usize)>,
+    tiles: TileSet<(usize, usize)>,
     /// The tile of the last cell added: cells come in rows and runs, most in the tile of
     /// the one before, which then needs no hashing.
     last_tile: Option<(usize, usize)>,
@@ -104,7 +104,7 @@ impl Targets {
             version: 1,
             mark: Scratch::new(PageGeom::of(grid.nx, grid.ny), ()),
             members: Vec::new(),
-            tiles: HashSet::new(),
+            tiles: TileSet::default(),
             last_tile: None,
             index: RTree::new(),
         }
