@@ -50,6 +50,31 @@ const fn flooded(side: u8) -> Node {
     Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }
 }
 
+/// The nets whose cells stopped a search, and how many of its steps each stopped. Few
+/// nets ever stop one search: a short list beats hashing on every blocked step.
+#[derive(Default)]
+struct Tally(Vec<(u32, usize)>);
+
+impl Tally {
+    /// Counts a step stopped by a cell of owner `o` (the glass edge's blocked cells are
+    /// no net and are not counted).
+    fn count(&mut self, o: u32) {
+        if o == BLOCKED {
+            return;
+        }
+        match self.0.iter_mut().find(|b| b.0 == o) {
+            Some(b) => b.1 += 1,
+            None => self.0.push((o, 1)),
+        }
+    }
+
+    /// The owners, the one that stopped most steps first (the lower on ties).
+    fn ranked(mut self) -> Vec<u32> {
+        self.0.sort_by(|x, y| y.1.cmp(&x.1).then(x.0.cmp(&y.0)));
+        self.0.into_iter().map(|b| b.0).collect()
+    }
+}
+
 /// How the floods of [`Search::reaches`] ended.
 enum Floods {
     /// A way exists: the floods met, or the first took a goal cell.
@@ -195,8 +220,7 @@ impl Search {
         debug_assert_eq!(self.nx, grid.nx, "search state made for another grid");
         self.nodes.next_search();
         let mut open = BinaryHeap::new();
-        // Few nets ever stop one search: a short list beats hashing on every blocked step.
-        let mut blockers: Vec<(u32, usize)> = Vec::new();
+        let mut blockers = Tally::default();
         let mut nearest = (f32::MAX, sources.first().copied().unwrap_or(0));
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
@@ -235,12 +259,7 @@ impl Search {
                 }
                 let o = grid.owner_xy(x, y);
                 if o != FREE && o != owner {
-                    if o != BLOCKED {
-                        match blockers.iter_mut().find(|b| b.0 == o) {
-                            Some(b) => b.1 += 1,
-                            None => blockers.push((o, 1)),
-                        }
-                    }
+                    blockers.count(o);
                     continue;
                 }
                 if d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner) {
@@ -270,9 +289,7 @@ impl Search {
                 break;
             }
         }
-        let mut b = blockers;
-        b.sort_by(|x, y| y.1.cmp(&x.1).then(x.0.cmp(&y.0)));
-        Err(Blocked { blockers: b.into_iter().map(|x| x.0).collect(), nearest: nearest.1, over_budget })
+        Err(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget })
     }
 
     /// Whether a cell where `goal` holds can be reached from `sources` by the moves
@@ -320,20 +337,16 @@ impl Search {
             Floods::OverBudget => return Some(Blocked { blockers: Vec::new(), nearest: nearest.1, over_budget: true }),
             Floods::NoWay { cells } => cells,
         };
-        let mut blockers: Vec<(u32, usize)> = Vec::new();
+        let mut blockers = Tally::default();
         for c in cells {
             for (_, x, y, _) in neighbours(c as usize, grid.nx, grid.ny) {
                 let o = grid.owner_xy(x as usize, y as usize);
-                if o != FREE && o != owner && o != BLOCKED {
-                    match blockers.iter_mut().find(|b| b.0 == o) {
-                        Some(b) => b.1 += 1,
-                        None => blockers.push((o, 1)),
-                    }
+                if o != FREE && o != owner {
+                    blockers.count(o);
                 }
             }
         }
-        blockers.sort_by(|x, y| y.1.cmp(&x.1).then(x.0.cmp(&y.0)));
-        Some(Blocked { blockers: blockers.into_iter().map(|b| b.0).collect(), nearest: nearest.1, over_budget: false })
+        Some(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget: false })
     }
 
     /// The flood from `sources` and, given `goal_cells`, the one back from them, a cell of
