@@ -67,11 +67,8 @@ struct Stuck {
     blockers: Vec<u32>,
 }
 
-/// Cuts and routes every common electrode: `transfers` are the dots, `pads` every pad
-/// (the middle of the pads orders the first attempt, [`outer_dots_first`]), and
-/// `second_dots_beside_pads` says whether the far row's commons have second dots beside
-/// the first pad row.
-pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], pads: &[super::PadSite], second_dots_beside_pads: bool, findings: &mut Vec<Finding>) -> BackRoutes {
+/// Cuts and routes every common electrode.
+pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], findings: &mut Vec<Finding>) -> BackRoutes {
     let tol = layout.tolerance;
     let electrodes = union_all(el.segs.iter().flat_map(|s| s.outline.0.iter().cloned()));
     let leads = union_all(front_leads.iter().flat_map(|l| l.outline.0.iter().cloned()));
@@ -113,56 +110,13 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     // stacked icons at the end of a row, moved 5 mm left, left COM3 and COM4 shut in by
     // COM2 and every later order worse with COM3 first; with COM4 first it routed.
     let stuck_order = |stuck: &mut Vec<usize>| stuck.sort_unstable_by(|a, b| b.cmp(a));
-    let guess = outer_dots_first(&commons, pads, second_dots_beside_pads);
-    // A guess whose leads cross front leads in the liquid crystal (a warning of the
-    // check, ghost pixels behind the bezel) gives way to the usual attempts: on the
-    // starter layout at 1/3 duty it routed that way where number order does not.
-    let clear_of_front_leads = |(back, _): &(Vec<Lead>, Vec<Stuck>)| !face_front_leads_in_lc(layout, &leads, back);
-    let ((out, stuck), _) = super::retry::guess_then_retry(guess, (0..commons.len()).collect(), ATTEMPTS, stuck_order, clear_of_front_leads, |order| {
+    let ((out, stuck), _) = super::retry::rip_up_and_retry_arranged((0..commons.len()).collect(), ATTEMPTS, stuck_order, |order| {
         attempt(layout, &commons, order, base.clone(), &mut search)
     })
     .unwrap_or_default();
     findings.extend(by_cause(layout, el, &commons, &stuck));
     let kept = commons.iter().flat_map(|c| c.islands.iter().map(|r| (c.net.clone(), r.clone()))).collect();
     BackRoutes { leads: out, kept }
-}
-
-/// Whether some of `leads` (back leads) face the front leads `front` in the liquid
-/// crystal, the overlap the check warns of as a ghost behind the bezel (inside the
-/// window the grid forbids it).
-fn face_front_leads_in_lc(layout: &Layout, front: &Region, leads: &[Lead]) -> bool {
-    use geo::BoundingRect;
-    let lc = layout.glass.back.inset(layout.seal.inset + layout.seal.width).polygon();
-    let front_in_lc = crate::geom::intersection(front, &region_of([lc]));
-    leads.iter().any(|l| {
-        let Some(bb) = l.outline.bounding_rect() else { return false };
-        let near = cut_to_box(&front_in_lc.0, &bb);
-        !near.0.is_empty() && crate::geom::area(&crate::geom::intersection(&l.outline, &near)) > 1e-6
-    })
-}
-
-/// The commons in the order of their transfer dot's distance from the middle of the
-/// pads, the farthest first; on equal distances in number order. The dots flank the pad
-/// row in the seal, so this lays the commons whose leads come round outermost before
-/// those whose dots lie next to the pads. It is a guess tried first
-/// ([`super::retry::guess_then_retry`]); over the position sweeps of the multiplexed
-/// demos it routed at once at all but 3 of 343 positions, number order at all but 54
-/// (docs/performance.md, *The outer dots' commons first, as a guess*). Where the far
-/// row's commons come round to second dots beside the same pad row
-/// (`second_dots_beside_pads`, see `route::dots::far_tier_dots`) they are numbered for
-/// that, and the guess is number order: there this order failed at 26 of 49 positions.
-fn outer_dots_first(commons: &[Common], pads: &[super::PadSite], second_dots_beside_pads: bool) -> Vec<usize> {
-    use geo::Centroid;
-    if second_dots_beside_pads {
-        return (0..commons.len()).collect();
-    }
-    let centres: Vec<Pt> = pads.iter().filter_map(|p| p.outline.centroid()).map(|c| c.0).collect();
-    let n = centres.len().max(1) as f64;
-    let middle = centres.iter().fold(Pt { x: 0.0, y: 0.0 }, |m, c| Pt { x: m.x + c.x / n, y: m.y + c.y / n });
-    let distance = |c: &Common| c.dots.first().and_then(|d| d.centroid()).map_or(0.0, |p| (p.x() - middle.x).hypot(p.y() - middle.y));
-    let mut order: Vec<usize> = (0..commons.len()).collect();
-    order.sort_by(|&a, &b| distance(&commons[b]).total_cmp(&distance(&commons[a])));
-    order
 }
 
 /// The pieces of a grown common that remain after the cuts and face one of its pixels.
@@ -514,43 +468,4 @@ fn claim_commons(layout: &Layout, g: &mut Grid, commons: &[Common]) {
         }
     }
     g.compact();
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-    use crate::geom::rect;
-
-    /// A common with its one dot, a 1 mm square centred on `x` at y = 1.
-    fn common_with_dot_at(k: u32, x: f64) -> Common {
-        Common {
-            net: format!("COM{k}"),
-            owner: k,
-            islands: Vec::new(),
-            landings: Vec::new(),
-            behind: Vec::new(),
-            dots: vec![rect(x - 0.5, 0.5, x + 0.5, 1.5)],
-            dot_landings: Vec::new(),
-        }
-    }
-
-    /// Pads from x = 10 to 14 (middle 12); dots of COM1 at 22 and COM4 at 18 on the
-    /// right, COM2 at 1 and COM3 at 5 on the left: the farthest first, COM2 (11 mm),
-    /// COM1 (10 mm), COM3 (7 mm), COM4 (6 mm). With second dots beside the pads, number
-    /// order.
-    #[test]
-    fn the_farthest_dot_from_the_pads_goes_first() {
-        let commons: Vec<Common> = [22.0, 1.0, 5.0, 18.0].iter().enumerate().map(|(k, &x)| common_with_dot_at(k as u32 + 1, x)).collect();
-        let pads: Vec<super::super::PadSite> = (0..5)
-            .map(|i| {
-                let x = 10.0 + i as f64;
-                super::super::PadSite { pin: i + 1, net: format!("SEG{i}"), outline: rect(x - 0.2, -3.0, x + 0.2, 0.0) }
-            })
-            .collect();
-        assert_eq!(outer_dots_first(&commons, &pads, false), [1, 0, 2, 3]);
-        assert_eq!(outer_dots_first(&commons, &pads, true), [0, 1, 2, 3]);
-        // Equal distances keep number order.
-        let even: Vec<Common> = [18.0, 6.0].iter().enumerate().map(|(k, &x)| common_with_dot_at(k as u32 + 1, x)).collect();
-        assert_eq!(outer_dots_first(&even, &pads, false), [0, 1]);
-    }
 }

@@ -164,7 +164,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
         findings.push(note);
     }
     let front_leads: Vec<&Lead> = leads.iter().filter(|l| l.plate == PlateId::Front).collect();
-    let back = back::route_commons(layout, el, &front_leads, &transfers, &pads, !near_extra.is_empty(), &mut findings);
+    let back = back::route_commons(layout, el, &front_leads, &transfers, &mut findings);
     leads.extend(back.leads);
     Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings })
 }
