@@ -68,19 +68,27 @@ pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, pad_width: f64, u
 /// The commons of the far tier that take a second transfer dot of their own, as
 /// `(common, at the low-u end)`, when some elements are in the far tier.
 ///
-/// The far tier's commons are numbered from the near tier outwards
-/// (`assign::tiers`): its first common meets the near tier's across the space between
-/// the rows, and its second (at four or more commons) comes down the low end beside the
-/// near tier's middle commons and joins them where they leave the near row. The rest —
-/// the far row's upper middle common and the one along its outer edge, which runs in
-/// the seal band on the far side — cannot join their near halves without crossing the
-/// near tier's commons on their way to the dots, so they come round the seal band to a
-/// dot of their own, outermost among the dots: each of them is on two pins.
-pub fn far_tier_dots(commons: usize, any_far: bool) -> Vec<(usize, bool)> {
+/// Counted from the near tier outwards (`assign::tiers`), the far tier's first common
+/// meets the near tier's across the space between the rows, and its second (at four or
+/// more commons) comes down the low end beside the near tier's middle commons and joins
+/// them where they leave the near row. The rest — the far row's upper middle common and
+/// the one along its outer edge, which runs in the seal band on the far side — cannot
+/// join their near halves without crossing the near tier's commons on their way to the
+/// dots, so they come round the seal band to a dot of their own, outermost among the
+/// dots: each of them is on two pins.
+///
+/// The commons are numbered down the glass, so counted from the near tier outwards
+/// they run COM1, COM2, … with the pads at the bottom and the other way with the pads
+/// on top (`pads_on_top`). Taking the bottom's numbers with the pads on top gave the
+/// second dots to the far row's commons nearest the near row: the cold-store demo
+/// mirrored top to bottom left four parts of its commons cut off; counted from the
+/// near tier it builds clean at all 49 positions of its sweep.
+pub fn far_tier_dots(commons: usize, any_far: bool, pads_on_top: bool) -> Vec<(usize, bool)> {
     if !any_far || commons < 2 {
         return Vec::new();
     }
-    (2..commons).chain((commons == 2).then_some(1)).map(|k| (k, k + 1 < commons)).collect()
+    let outwards = |k: usize| if pads_on_top { commons - 1 - k } else { k };
+    (2..commons).chain((commons == 2).then_some(1)).map(|k| (outwards(k), k + 1 < commons)).collect()
 }
 
 /// How far the dots and a pad row of centre span `span` overrun the room for them, by
@@ -120,6 +128,19 @@ mod tests {
         assert!((at[0].x - at[3].x - (layout.transfer.pad + 0.3)).abs() < 1e-9);
         let one = place_transfer_dots(&layout, &frame, layout.pads.width, &us, 0.3, 1, frame.u_back, &[]).unwrap();
         assert!(one[0].x < 12.0);
+    }
+
+    /// The second dots go to the far row's two outer commons, counted from the near
+    /// row: COM3 at the low end and COM4 at the high end with the pads at the bottom,
+    /// COM2 and COM1 with the pads on top (commons are numbered down the glass); none
+    /// without a far tier.
+    #[test]
+    fn second_dots_take_the_far_rows_outer_commons() {
+        assert_eq!(far_tier_dots(4, true, false), vec![(2, true), (3, false)]);
+        assert_eq!(far_tier_dots(4, true, true), vec![(1, true), (0, false)]);
+        assert_eq!(far_tier_dots(3, true, true), vec![(0, false)]);
+        assert_eq!(far_tier_dots(2, true, true), vec![(0, false)]);
+        assert!(far_tier_dots(4, false, true).is_empty());
     }
 
     /// `room_shortfall` is exact for the placement: with the pad span a hair under the

@@ -347,8 +347,10 @@ fn with_pads_on_top(text: &str) -> String {
     flip(&mut v["glass"]["back"], "y", back_h);
     let win_h = num(&v["window"]["height"]);
     flip(&mut v["window"], "y", win_h);
-    let port_side = if v["seal"]["fill_port"]["side"] == "top" { "bottom" } else { "top" };
-    v["seal"]["fill_port"]["side"] = Value::from(port_side);
+    if v["seal"]["fill_port"].is_mapping() {
+        let port_side = if v["seal"]["fill_port"]["side"] == "top" { "bottom" } else { "top" };
+        v["seal"]["fill_port"]["side"] = Value::from(port_side);
+    }
     assert_eq!(v["pads"]["side"], "bottom");
     v["pads"]["side"] = Value::from("top");
     let flip_point = |item: &mut Value, key: &str, size: f64| {
@@ -364,8 +366,22 @@ fn with_pads_on_top(text: &str) -> String {
         flip_point(l, "at", size);
     }
     for i in v["icons"].as_sequence_mut().into_iter().flatten() {
-        let size = num(&i["size"]);
-        flip_point(i, "at", size);
+        if i["at"].is_sequence() {
+            let size = num(&i["size"]);
+            flip_point(i, "at", size);
+        } else if i["rectangle"].is_mapping() {
+            let size = num(&i["rectangle"]["height"]);
+            flip_point(&mut i["rectangle"], "at", size);
+        } else if i["circle"].is_mapping() {
+            flip_point(&mut i["circle"], "centre", 0.0);
+        } else {
+            // A path drawn with absolute coordinates from `at`: its height is its
+            // largest y (every second number).
+            let d = i["path"]["d"].as_str().unwrap().to_string();
+            let numbers: Vec<f64> = d.split(|c: char| c.is_whitespace() || c == ',').filter_map(|t| t.parse().ok()).collect();
+            let size = numbers.iter().skip(1).step_by(2).copied().fold(0.0, f64::max);
+            flip_point(&mut i["path"], "at", size);
+        }
     }
     serde_yaml::to_string(&v).unwrap()
 }
@@ -382,6 +398,29 @@ fn the_multiplexed_demos_route_with_their_pads_on_top() {
         let report = build_clean_with_pads_on_top(name, &with_pads_on_top(&text));
         // As drawn, each of these takes the fewest pins (`assert_multiplexed_demo`).
         assert_eq!(report["drive"]["pin_count"], report["drive"]["pin_count_formula"], "{name}");
+    }
+}
+
+/// Two rows with the pads on top: the cold-store demo (one pad row; the upper row's
+/// leads go round the seal) and the germination demo (its second pad row now below),
+/// mirrored top to bottom, build with no error and no warning, and the far row's two
+/// outer commons take the second pins — COM1 and COM2 now, the commons being numbered
+/// down the glass (COM3 and COM4 as drawn, `two_rows_with_the_pads_on_one_side_route_themselves`).
+/// Before the second dots were counted from the near row, both gave four `unroutable`
+/// findings.
+#[test]
+fn two_rows_route_with_their_pads_on_top() {
+    for name in ["cold-store-monitor", "germination-cabinet"] {
+        let text = std::fs::read_to_string(root().join("demo-layouts").join(format!("{name}.yaml"))).unwrap();
+        let report = build_clean_with_pads_on_top(name, &with_pads_on_top(&text));
+        let twice: BTreeSet<&str> = report["nets"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .filter(|n| n["kind"] == "common" && n["pins"].as_array().unwrap().len() == 2)
+            .map(|n| n["name"].as_str().unwrap())
+            .collect();
+        assert_eq!(twice, BTreeSet::from(["COM1", "COM2"]), "{name}");
     }
 }
 
