@@ -2,7 +2,7 @@
 //! N + ⌈S/N⌉ pins and pass the drive truth check; a bus that makes a common face a SEG
 //! lead in the window fails the check naming the pair; a digit whose junction gap is too
 //! narrow for the back-plate passage is unroutable, naming the common; pins above the
-//! fewest are explained in one note.
+//! fewest are explained in one note; the demos route with their pads on top too.
 
 use std::collections::BTreeSet;
 use std::path::{Path, PathBuf};
@@ -28,18 +28,15 @@ fn rows(path: &Path) -> Vec<Vec<String>> {
 /// common practice), each (COM, SEG) pair used once, every pin on the ledge listed, and
 /// drive truth clean (exit 0: no errors, no warnings counted as errors). Gives the folder
 /// the outputs are in.
-fn assert_multiplexed_demo(name: &str, commons: usize) -> tempfile::TempDir {
+fn assert_multiplexed_demo(name: &str, commons: usize) -> PathBuf {
     assert_multiplexed_demo_with(name, commons, 0)
 }
 
 /// As [`assert_multiplexed_demo`], with `twice` commons out on a second pin each.
-fn assert_multiplexed_demo_with(name: &str, commons: usize, twice: usize) -> tempfile::TempDir {
-    let dir = tempfile::tempdir().unwrap();
-    let (code, err) = build(&root().join("demo-layouts").join(format!("{name}.yaml")), dir.path());
-    assert_eq!(code, Some(0), "{err}");
-    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
-    let segmap = rows(&dir.path().join(format!("{name}.segmap.csv")));
-    let pins = rows(&dir.path().join(format!("{name}.pins.csv")));
+fn assert_multiplexed_demo_with(name: &str, commons: usize, twice: usize) -> PathBuf {
+    let out = built_clean(name);
+    let segmap = rows(&out.join(format!("{name}.segmap.csv")));
+    let pins = rows(&out.join(format!("{name}.pins.csv")));
     let s = segmap.len();
     assert_eq!(pins.len(), commons + s.div_ceil(commons) + twice, "{name}: {} pins for {s} elements", pins.len());
     let com_pins = pins.iter().filter(|p| p[3] == "COM").count();
@@ -52,7 +49,23 @@ fn assert_multiplexed_demo_with(name: &str, commons: usize, twice: usize) -> tem
     }
     let coms: BTreeSet<&str> = segmap.iter().map(|r| r[3].as_str()).collect();
     assert_eq!(coms.len(), commons, "{name}: every common drives something");
-    dir
+    out
+}
+
+/// The output folder of the demo's build, shared with the other tests of the run
+/// (`demo_build`: each demo is routed once), after checking that its report counts no
+/// error and no warning.
+fn built_clean(name: &str) -> PathBuf {
+    let (_, out) = crate::demo_build::build_demo(name);
+    let summary = &report(&out, name)["summary"];
+    assert_eq!((summary["errors"].as_u64(), summary["warnings"].as_u64()), (Some(0), Some(0)), "{name}: {summary}");
+    out
+}
+
+/// The report of a build in `out`.
+fn report(out: &Path, name: &str) -> serde_json::Value {
+    let text = std::fs::read_to_string(out.join(format!("{name}.report.json"))).unwrap();
+    serde_json::from_str(&text).unwrap()
 }
 
 /// Two rows with the pads on one side (large digits with points and a legend above, small
@@ -60,8 +73,8 @@ fn assert_multiplexed_demo_with(name: &str, commons: usize, twice: usize) -> tem
 /// upper row's two outer commons come out on a second pin each (their own transfer dots).
 #[test]
 fn two_rows_with_the_pads_on_one_side_route_themselves() {
-    let dir = assert_multiplexed_demo_with("cold-store-monitor", 4, 2);
-    let pins = rows(&dir.path().join("cold-store-monitor.pins.csv"));
+    let out = assert_multiplexed_demo_with("cold-store-monitor", 4, 2);
+    let pins = rows(&out.join("cold-store-monitor.pins.csv"));
     let twice: BTreeSet<&str> = pins.iter().filter(|p| pins.iter().filter(|q| q[1] == p[1]).count() == 2).map(|p| p[1].as_str()).collect();
     assert_eq!(twice, BTreeSet::from(["COM3", "COM4"]));
 }
@@ -74,9 +87,9 @@ fn two_rows_with_the_pads_on_one_side_route_themselves() {
 /// neighbours in the digits), so each column of four icons is one SEG line.
 #[test]
 fn forty_digits_in_two_rows_route_to_two_pad_rows() {
-    let dir = assert_multiplexed_demo_with("germination-cabinet", 4, 2);
-    let pins = rows(&dir.path().join("germination-cabinet.pins.csv"));
-    let segmap = rows(&dir.path().join("germination-cabinet.segmap.csv"));
+    let out = assert_multiplexed_demo_with("germination-cabinet", 4, 2);
+    let pins = rows(&out.join("germination-cabinet.pins.csv"));
+    let segmap = rows(&out.join("germination-cabinet.segmap.csv"));
     let (top, bottom): (Vec<&Vec<String>>, Vec<&Vec<String>>) = pins.iter().partition(|p| p[6] == "top");
     assert!(bottom.iter().all(|p| p[6] == "bottom"), "{bottom:?}");
     let last_bottom = bottom.iter().map(|p| p[0].parse::<u32>().unwrap()).max().unwrap();
@@ -151,12 +164,9 @@ fn a_pin_fixed_on_the_other_pad_row_is_reported() {
 /// that names the fourteen-segment template.
 #[test]
 fn fourteen_segments_at_third_duty_route_on_the_outer_commons() {
-    let dir = tempfile::tempdir().unwrap();
-    let (code, err) = build(&root().join("demo-layouts/borehole-pump.yaml"), dir.path());
-    assert_eq!(code, Some(0), "{err}");
-    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
-    let segmap = rows(&dir.path().join("borehole-pump.segmap.csv"));
-    let pins = rows(&dir.path().join("borehole-pump.pins.csv"));
+    let out = built_clean("borehole-pump");
+    let segmap = rows(&out.join("borehole-pump.segmap.csv"));
+    let pins = rows(&out.join("borehole-pump.pins.csv"));
     assert_eq!(segmap.len(), 6 * 15 + 10 + 4 + 4);
     let mut pairs = BTreeSet::new();
     for r in &segmap {
@@ -171,8 +181,16 @@ fn fourteen_segments_at_third_duty_route_on_the_outer_commons() {
     let lines: BTreeSet<&str> = segmap.iter().filter(|r| r[0].starts_with('T')).map(|r| r[5].as_str()).collect();
     assert_eq!(lines.len(), 6 * 8, "eight SEG lines a character");
     assert_eq!(pins.len(), 3 + 48 + 18);
-    assert!(err.contains("69 pins (3 COM + 66 SEG) where 3 + ⌈108/3⌉ = 39 is the fewest"), "{err}");
-    assert!(err.contains("the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM3"), "{err}");
+    let notes: Vec<String> = report(&out, "borehole-pump")["findings"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|f| f["rule"] == "pin-count")
+        .map(|f| f["message"].as_str().unwrap().to_string())
+        .collect();
+    assert_eq!(notes.len(), 1, "{notes:?}");
+    assert!(notes[0].contains("69 pins (3 COM + 66 SEG) where 3 + ⌈108/3⌉ = 39 is the fewest"), "{}", notes[0]);
+    assert!(notes[0].contains("the fourteen-segment template puts the upper half of each digit on COM1 and the lower half on COM3"), "{}", notes[0]);
 }
 
 /// A colon after a fourteen-segment character routes at 1/2, 1/3 and 1/4 duty: its upper
@@ -215,8 +233,8 @@ fn six_digit_third_duty_demo_routes_itself() {
 /// commons that cross the gap between the digits at each dot's height.
 #[test]
 fn timer_with_a_colon_under_laser_rules_routes_itself() {
-    let dir = assert_multiplexed_demo("darkroom-timer", 4);
-    let segmap = rows(&dir.path().join("darkroom-timer.segmap.csv"));
+    let out = assert_multiplexed_demo("darkroom-timer", 4);
+    let segmap = rows(&out.join("darkroom-timer.segmap.csv"));
     let dot = |name: &str| segmap.iter().find(|r| r[0] == name).unwrap_or_else(|| panic!("{name} missing: {segmap:?}")).clone();
     let (top, bottom) = (dot("T2.col_top"), dot("T2.col_bottom"));
     assert_eq!((top[3].as_str(), bottom[3].as_str()), ("COM2", "COM3"));
@@ -297,11 +315,8 @@ fn a_third_row_behind_two_is_refused_before_routing() {
 /// The pins of a built demo against the fewest, from its report: (`pin_count`,
 /// `pin_count_formula`, the `pin-count` notes' messages).
 fn pins_and_notes(name: &str) -> (u64, u64, Vec<String>) {
-    let dir = tempfile::tempdir().unwrap();
-    let (code, err) = build(&root().join("demo-layouts").join(format!("{name}.yaml")), dir.path());
-    assert_eq!(code, Some(0), "{err}");
-    let text = std::fs::read_to_string(dir.path().join(format!("{name}.report.json"))).unwrap();
-    let r: serde_json::Value = serde_json::from_str(&text).unwrap();
+    let (_, out) = crate::demo_build::build_demo(name);
+    let r = report(&out, name);
     let notes = r["findings"]
         .as_array()
         .unwrap()
