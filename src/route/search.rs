@@ -79,8 +79,8 @@ impl Tally {
 enum Floods {
     /// A way exists: the floods met, or the first took a goal cell.
     Way,
-    /// No way: one side ran out; every cell it marked.
-    NoWay { cells: Vec<u32> },
+    /// No way: one side ran out; every cell it marked, and whether it was the sources'.
+    NoWay { cells: Vec<u32>, sources_side: bool },
     /// The floods would lend more pages of state than one search may.
     OverBudget,
 }
@@ -114,6 +114,10 @@ pub struct Blocked {
     /// The search stopped at its memory budget ([`MAX_OPEN`] entries or
     /// [`super::pages::MAX_PAGES_LENT`] pages), not because it ran out of cells.
     pub over_budget: bool,
+    /// When the sources' own flood ran out ([`Search::fence`]): every cell it took,
+    /// sorted. No flood leaves it (each of its cells was spread from), so sources that
+    /// all lie in it are shut in there too; empty otherwise.
+    pub shut_in: Vec<u32>,
 }
 
 /// Most entries one search keeps in its open list (16 M entries of 8 bytes): with the
@@ -227,7 +231,7 @@ impl Search {
             if self.nodes.get(x, y).is_none() {
                 let h = self.weight * heuristic(s);
                 if !self.nodes.set(x, y, Node { g: 0.0, h, parent: s as u32, dir: 8, closed: false }) {
-                    return Err(Blocked { blockers: Vec::new(), nearest: s, over_budget: true });
+                    return Err(Blocked { blockers: Vec::new(), nearest: s, over_budget: true, shut_in: Vec::new() });
                 }
                 open.push(Open::new(h, s as u32));
             }
@@ -289,7 +293,7 @@ impl Search {
                 break;
             }
         }
-        Err(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget })
+        Err(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget, shut_in: Vec::new() })
     }
 
     /// Whether a cell where `goal` holds can be reached from `sources` by the moves
@@ -332,13 +336,13 @@ impl Search {
                 nearest = (h, c);
             }
         };
-        let cells = match self.floods(grid, owner, sources, goal_cells, goal, visit) {
+        let (cells, sources_side) = match self.floods(grid, owner, sources, goal_cells, goal, visit) {
             Floods::Way => return None,
-            Floods::OverBudget => return Some(Blocked { blockers: Vec::new(), nearest: nearest.1, over_budget: true }),
-            Floods::NoWay { cells } => cells,
+            Floods::OverBudget => return Some(Blocked { blockers: Vec::new(), nearest: nearest.1, over_budget: true, shut_in: Vec::new() }),
+            Floods::NoWay { cells, sources_side } => (cells, sources_side),
         };
         let mut blockers = Tally::default();
-        for c in cells {
+        for &c in &cells {
             for (_, x, y, _) in neighbours(c as usize, grid.nx, grid.ny) {
                 let o = grid.owner_xy(x as usize, y as usize);
                 if o != FREE && o != owner {
@@ -346,7 +350,14 @@ impl Search {
                 }
             }
         }
-        Some(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget: false })
+        let shut_in = if sources_side {
+            let mut cells = cells;
+            cells.sort_unstable();
+            cells
+        } else {
+            Vec::new()
+        };
+        Some(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget: false, shut_in })
     }
 
     /// The flood from `sources` and, given `goal_cells`, the one back from them, a cell of
@@ -390,7 +401,7 @@ impl Search {
         }
         let (mut next_ahead, mut next_behind) = (0, 0);
         loop {
-            let Some(&cell) = ahead.get(next_ahead) else { return Floods::NoWay { cells: ahead } };
+            let Some(&cell) = ahead.get(next_ahead) else { return Floods::NoWay { cells: ahead, sources_side: true } };
             next_ahead += 1;
             visit(cell as usize);
             if goal(cell as usize) {
@@ -407,7 +418,7 @@ impl Search {
             // One cell back from the goal: the cells from which a move of the first flood
             // enters this one (the moves are the same both ways: into a cell a lead may
             // enter, past no corner of another net's cells).
-            let Some(&cell) = behind.get(next_behind) else { return Floods::NoWay { cells: behind } };
+            let Some(&cell) = behind.get(next_behind) else { return Floods::NoWay { cells: behind, sources_side: false } };
             next_behind += 1;
             match self.spread(grid, owner, cell, BEHIND, &mut behind) {
                 Spread::Going => {}
@@ -575,6 +586,17 @@ mod tests {
         assert_eq!(s.find(&g, 1, &[source], |c| c == goal, |_| 0.0).unwrap_err().blockers, one_way.blockers);
         let both = s.fence(&g, 1, &[source], Some(&[goal]), |c| c == goal, |_| 0.0).expect("shut in");
         assert_eq!(both.blockers, [2]);
+        assert!(both.shut_in.is_empty(), "the goal's side ran out, not the sources'");
+        // From the goal's side, the sources' flood runs out inside the ring: it names the
+        // free cells within the ring's outline, sorted, the goal among them.
+        let inside = s.fence(&g, 1, &[goal], Some(&[source]), |c| c == source, |_| 0.0).expect("shut in");
+        assert_eq!(inside.blockers, [2]);
+        let within = |c: usize| {
+            let p = g.centre(c);
+            (13.0..17.0).contains(&p.x) && (13.0..17.0).contains(&p.y) && g.owner(c) == FREE
+        };
+        assert_eq!(inside.shut_in.len(), (0..g.nx * g.ny).filter(|&c| within(c)).count());
+        assert!(inside.shut_in.windows(2).all(|w| w[0] < w[1]) && inside.shut_in.binary_search(&(goal as u32)).is_ok());
     }
 
     /// 300 grids of 24 × 24 cells with random walls of two nets (2 and 3), random cells of
