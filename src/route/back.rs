@@ -11,7 +11,7 @@
 //! order), with rip-up and a new order when one is stuck.
 
 use super::grid::Grid;
-use super::search::{corners, Search};
+use super::search::{corners, enterable, neighbours, Blocked, Search};
 use super::corridor::{find_guided_or_fence, find_guided_or_give_up, Ask, Corridors};
 use super::pending::Pending;
 use super::target::Targets;
@@ -357,8 +357,8 @@ fn landing_area(layout: &Layout, piece: &Region) -> Region {
 /// The places a common's failed joins found shut in, each with the nets that close it
 /// in. They stay shut in while the common's tree grows elsewhere: its own claims
 /// ([`Grid::claim_near`]) turn free cells into its own and other nets' cells into
-/// blocked ones, so no cell changes between open and closed for it. A wall of other commons' leads across the glass
-/// leaves most islands of a common on its far side: on the 32-digit two-row benchmark
+/// blocked ones, so no cell changes between open and closed for it. A wall of other
+/// commons' leads across the glass leaves most islands of a common on its far side: on the 32-digit two-row benchmark
 /// with its commons in the order 2, 1, 3, 4 (a temporary switch) the joins of COM3's 34
 /// islands each flooded the same 2.55 M cells, 29.8 s, and COM4's 16 islands 14.7 s.
 #[derive(Default)]
@@ -374,30 +374,23 @@ impl ShutIn {
     /// a front lead) every open neighbour; at least one must lie in it.
     fn blockers_around(&self, grid: &Grid, owner: u32, cells: &[usize]) -> Option<(&[u32], usize)> {
         let has = |place: &[u32], i: usize| u32::try_from(i).is_ok_and(|i| place.binary_search(&i).is_ok());
-        let open = |i: usize| grid.open_to(i % grid.nx, i / grid.nx, owner) && !grid.cost(i).is_infinite();
+        let open = |i: usize| enterable(grid, i % grid.nx, i / grid.nx, owner);
+        // Every open neighbour, diagonals too (the flood steps past no corner of another
+        // net, so this asks for more than it needs, never less).
+        let closed_in = |place: &[u32], i: usize| neighbours(i, grid.nx, grid.ny).all(|(_, _, _, n)| !open(n) || has(place, n));
         let shut_in = |place: &[u32]| {
-            cells.iter().any(|&i| has(place, i))
-                && cells.iter().all(|&i| if open(i) { has(place, i) } else { neighbours_of(grid, i).all(|n| !open(n) || has(place, n)) })
+            cells.iter().any(|&i| has(place, i)) && cells.iter().all(|&i| if open(i) { has(place, i) } else { closed_in(place, i) })
         };
         self.places.iter().find(|(place, _, _)| shut_in(place)).map(|(_, b, nearest)| (b.as_slice(), *nearest))
     }
 
     /// What the floods found: the place shut in (its cells sorted; none when the tree's
     /// side ran out), the nets closing it in and its cell nearest the tree.
-    fn add(&mut self, blocked: &crate::route::search::Blocked) {
+    fn add(&mut self, blocked: &Blocked) {
         if !blocked.shut_in.is_empty() {
             self.places.push((blocked.shut_in.clone(), blocked.blockers.clone(), blocked.nearest));
         }
     }
-}
-
-/// The up to eight cells around cell `i`.
-fn neighbours_of(grid: &Grid, i: usize) -> impl Iterator<Item = usize> + '_ {
-    let (x, y) = ((i % grid.nx) as isize, (i / grid.nx) as isize);
-    (-1..=1isize).flat_map(move |dy| (-1..=1isize).map(move |dx| (x + dx, y + dy))).filter_map(move |(nx, ny)| {
-        let inside = (nx, ny) != (x, y) && nx >= 0 && ny >= 0 && (nx as usize) < grid.nx && (ny as usize) < grid.ny;
-        inside.then(|| ny as usize * grid.nx + nx as usize)
-    })
 }
 
 /// Joins island `k` of a common to the tree; the lead drawn, if one was needed, or the place where

@@ -41,7 +41,7 @@ const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8, clos
 
 /// Whether a lead of `owner` may enter the cell at column `x`, row `y`: free or its own,
 /// at a finite cost.
-fn enterable(grid: &Grid, x: usize, y: usize, owner: u32) -> bool {
+pub(crate) fn enterable(grid: &Grid, x: usize, y: usize, owner: u32) -> bool {
     grid.open_to(x, y, owner) && !grid.cost_xy(x, y).is_infinite()
 }
 
