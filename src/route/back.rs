@@ -358,9 +358,10 @@ fn landing_area(layout: &Layout, piece: &Region) -> Region {
 /// in. They stay shut in while the common's tree grows elsewhere: its own claims
 /// ([`Grid::claim_near`]) turn free cells into its own and other nets' cells into
 /// blocked ones, so no cell changes between open and closed for it. A wall of other
-/// commons' leads across the glass leaves most islands of a common on its far side: on the 32-digit two-row benchmark
-/// with its commons in the order 2, 1, 3, 4 (a temporary switch) the joins of COM3's 34
-/// islands each flooded the same 2.55 M cells, 29.8 s, and COM4's 16 islands 14.7 s.
+/// commons' leads across the glass leaves most islands of a common on its far side: on
+/// the 32-digit two-row benchmark with its commons in the order 2, 1, 3, 4 (a temporary
+/// switch) the joins of COM3's 34 islands each flooded the same 2.55 M cells, 29.8 s,
+/// and COM4's 16 islands 14.7 s.
 #[derive(Default)]
 struct ShutIn {
     places: Vec<(Vec<u32>, Vec<u32>, usize)>,
@@ -386,9 +387,9 @@ impl ShutIn {
 
     /// What the floods found: the place shut in (its cells sorted; none when the tree's
     /// side ran out), the nets closing it in and its cell nearest the tree.
-    fn add(&mut self, blocked: &Blocked) {
+    fn add(&mut self, blocked: Blocked) {
         if !blocked.shut_in.is_empty() {
-            self.places.push((blocked.shut_in.clone(), blocked.blockers.clone(), blocked.nearest));
+            self.places.push((blocked.shut_in, blocked.blockers, blocked.nearest));
         }
     }
 }
@@ -434,8 +435,9 @@ fn join(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &mut C
             Ok(Some(Lead { net: c.net.clone(), plate: PlateId::Back, path: pts, outline, user_bus: false }))
         }
         Err(b) => {
-            shut.add(&b);
-            Err((at(b.nearest), b.blockers))
+            let found = (at(b.nearest), b.blockers.clone());
+            shut.add(b);
+            Err(found)
         }
     }
 }
@@ -539,7 +541,7 @@ mod tests {
         let blocked = search.fence(&g, 1, &[inside], Some(&[outside]), |c| c == outside, |_| 0.0).expect("shut in");
         let mut shut = ShutIn::default();
         assert!(shut.blockers_around(&g, 1, &[inside]).is_none(), "nothing found yet");
-        shut.add(&blocked);
+        shut.add(blocked);
         let (a, b) = (cell(14.0, 14.0), cell(16.0, 16.0));
         assert_eq!(shut.blockers_around(&g, 1, &[a, b]).map(|(b, _)| b.to_vec()), Some(vec![2]));
         assert!(shut.blockers_around(&g, 1, &[a, cell(12.0, 12.0)]).is_none(), "a cell outside the ring");

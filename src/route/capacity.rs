@@ -146,7 +146,7 @@ fn ring_room(layout: &Layout, el: &Electrodes) -> Option<InputProblem> {
 fn dot_room(layout: &Layout, el: &Electrodes, frame: &SideFrame) -> Option<InputProblem> {
     // With a second pad row the far tier's own dots go beside it, on the far side.
     let any_far = el.assignment.far.iter().any(|f| *f) && layout.pads.second_row.is_none();
-    let commons = el.coms.len() + super::dots::far_tier_dots(el.coms.len(), any_far, layout.pads.side == crate::layout::Side::Top).len();
+    let commons = el.coms.len() + super::dots::far_tier_dots(el.coms.len(), any_far, layout.pads.side).len();
     if commons == 0 {
         return None;
     }

@@ -78,15 +78,16 @@ pub fn place_transfer_dots(layout: &Layout, frame: &SideFrame, pad_width: f64, u
 /// dots: each of them is on two pins.
 ///
 /// The commons are numbered down the glass, so counted from the near tier outwards
-/// they run COM1, COM2, … with the pads at the bottom and the other way with the pads
-/// on top (`pads_on_top`). Taking the bottom's numbers with the pads on top gave the
+/// they run COM1, COM2, … with the pads at the bottom (`pads_side`) and the other way
+/// with the pads on top. Taking the bottom's numbers with the pads on top gave the
 /// second dots to the far row's commons nearest the near row: the cold-store demo
 /// mirrored top to bottom left four parts of its commons cut off; counted from the
 /// near tier it builds clean at all 49 positions of its sweep.
-pub fn far_tier_dots(commons: usize, any_far: bool, pads_on_top: bool) -> Vec<(usize, bool)> {
+pub fn far_tier_dots(commons: usize, any_far: bool, pads_side: crate::layout::Side) -> Vec<(usize, bool)> {
     if !any_far || commons < 2 {
         return Vec::new();
     }
+    let pads_on_top = pads_side == crate::layout::Side::Top;
     let outwards = |k: usize| if pads_on_top { commons - 1 - k } else { k };
     (2..commons).chain((commons == 2).then_some(1)).map(|k| (outwards(k), k + 1 < commons)).collect()
 }
@@ -136,11 +137,12 @@ mod tests {
     /// without a far tier.
     #[test]
     fn second_dots_take_the_far_rows_outer_commons() {
-        assert_eq!(far_tier_dots(4, true, false), vec![(2, true), (3, false)]);
-        assert_eq!(far_tier_dots(4, true, true), vec![(1, true), (0, false)]);
-        assert_eq!(far_tier_dots(3, true, true), vec![(0, false)]);
-        assert_eq!(far_tier_dots(2, true, true), vec![(0, false)]);
-        assert!(far_tier_dots(4, false, true).is_empty());
+        use crate::layout::Side::{Bottom, Top};
+        assert_eq!(far_tier_dots(4, true, Bottom), vec![(2, true), (3, false)]);
+        assert_eq!(far_tier_dots(4, true, Top), vec![(1, true), (0, false)]);
+        assert_eq!(far_tier_dots(3, true, Top), vec![(0, false)]);
+        assert_eq!(far_tier_dots(2, true, Top), vec![(0, false)]);
+        assert!(far_tier_dots(4, false, Top).is_empty());
     }
 
     /// `room_shortfall` is exact for the placement: with the pad span a hair under the

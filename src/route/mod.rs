@@ -122,7 +122,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let mut findings = Vec::new();
     let far_frame = SideFrame::opposite(layout);
     let mut escapes = escape::escape_all(layout, el, &frame, &far_frame, &mut findings);
-    let extra = dots::far_tier_dots(el.coms.len(), el.assignment.far.iter().any(|f| *f), layout.pads.side == crate::layout::Side::Top);
+    let extra = dots::far_tier_dots(el.coms.len(), el.assignment.far.iter().any(|f| *f), layout.pads.side);
     let second = layout.pads.second_row.as_deref();
     // Without a second pad row the far tier's leads go round the seal to the pad side
     // and its own dots sit beside the one row; with one, both go to the second row.
