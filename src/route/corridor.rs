@@ -189,20 +189,32 @@ impl Corridors {
     /// Mean step factor (1 + extra cost) over the cells of tile `t` that `owner` may use,
     /// or infinity when it may use none.
     fn work_out_factor(&self, grid: &Grid, owner: u32, t: usize) -> f32 {
-        let (tx, ty) = (t % self.ntx, t / self.ntx);
-        let (x0, y0) = (tx * TILE, ty * TILE);
-        let (x1, y1) = ((x0 + TILE).min(grid.nx), (y0 + TILE).min(grid.ny));
-        let (mut sum, mut n) = (0.0f32, 0u32);
-        for y in y0..y1 {
-            for x in x0..x1 {
-                if usable(grid, owner, x, y) {
-                    let extra = grid.cost_xy(x, y);
-                    sum += 1.0 + extra;
-                    n += 1;
-                }
-            }
+        let (x0, y0, x1, y1) = self.cell_span(grid, t);
+        // A tile lies inside one page; where the page holds one owner and one cost, every
+        // cell adds the same step factor: summed as `factor_cell_by_cell` sums it, so the
+        // factor is the same to the bit, without reading each cell twice (the coarse
+        // searches work out the factor of every tile they reach once per common).
+        const _: () = assert!(super::pages::SIDE % TILE == 0, "a tile must lie inside one page");
+        match grid.uniform_page_xy(x0, y0) {
+            Some(page) => mean_factor((x1 - x0) * (y1 - y0), |_| page_usable(page, owner).then_some(page.1)),
+            None => self.factor_cell_by_cell(grid, owner, t),
         }
-        if (n as usize) < TILE { f32::INFINITY } else { sum / n as f32 }
+    }
+
+    /// [`Corridors::work_out_factor`], reading every cell.
+    fn factor_cell_by_cell(&self, grid: &Grid, owner: u32, t: usize) -> f32 {
+        let (x0, y0, x1, y1) = self.cell_span(grid, t);
+        let w = x1 - x0;
+        mean_factor(w * (y1 - y0), |k| {
+            let (x, y) = (x0 + k % w, y0 + k / w);
+            usable(grid, owner, x, y).then(|| grid.cost_xy(x, y))
+        })
+    }
+
+    /// The cells of tile `t`: columns `x0..x1`, rows `y0..y1`.
+    fn cell_span(&self, grid: &Grid, t: usize) -> (usize, usize, usize, usize) {
+        let (x0, y0) = ((t % self.ntx) * TILE, (t / self.ntx) * TILE);
+        (x0, y0, (x0 + TILE).min(grid.nx), (y0 + TILE).min(grid.ny))
     }
 
     /// Whether a lead of `owner` can step from tile `t` to its neighbour `n` (direction
@@ -409,23 +421,60 @@ fn usable(grid: &Grid, owner: u32, x: usize, y: usize) -> bool {
     grid.open_to(x, y, owner) && grid.cost_xy(x, y).is_finite()
 }
 
+/// The mean of `1 + extra` over the first `cells` of a tile, where `extra_of` gives the
+/// extra cost of each cell `owner` may use (`None` for the others); infinity when fewer
+/// than a tile's width of cells are usable.
+fn mean_factor(cells: usize, extra_of: impl Fn(usize) -> Option<f32>) -> f32 {
+    let (mut sum, mut n) = (0.0f32, 0u32);
+    for extra in (0..cells).filter_map(extra_of) {
+        sum += 1.0 + extra;
+        n += 1;
+    }
+    if (n as usize) < TILE { f32::INFINITY } else { sum / n as f32 }
+}
+
+/// Whether `owner` may use a cell of a page that holds one owner and one extra cost.
+fn page_usable((o, extra): (u32, f32), owner: u32) -> bool {
+    (o == super::grid::FREE || o == owner) && extra.is_finite()
+}
+
+/// Whether `owner` may use the cells of the pages holding cells `a` and `b` (column,
+/// row), when each page stores one owner and one cost (every cell of a tile edge then
+/// answers alike); `None` when either page stores its cells one by one.
+fn uniform_pages_open(grid: &Grid, owner: u32, a: (usize, usize), b: (usize, usize)) -> Option<bool> {
+    Some(page_usable(grid.uniform_page_xy(a.0, a.1)?, owner) && page_usable(grid.uniform_page_xy(b.0, b.1)?, owner))
+}
+
 /// Whether some cell of tile `t` next to its shared edge with the orthogonal neighbour
 /// `n` and the cell facing it in `n` are both usable by `owner`.
 fn edge_open(grid: &Grid, owner: u32, ntx: usize, t: usize, n: usize) -> bool {
+    let Some(((xa, ya), (xb, yb))) = edge_cells(grid, ntx, t, n) else { return false };
+    // Each of the two columns (rows) of facing cells lies inside one page.
+    uniform_pages_open(grid, owner, (xa, ya), (xb, yb)).unwrap_or_else(|| edge_open_cell_by_cell(grid, owner, ntx, t, n))
+}
+
+/// The first pair of facing cells (column, row) across the edge between tile `t` and its
+/// orthogonal neighbour `n`, the one in `t` first; the others follow along the edge.
+/// `None` when the edge is the grid's.
+fn edge_cells(grid: &Grid, ntx: usize, t: usize, n: usize) -> Option<((usize, usize), (usize, usize))> {
     let (tx, ty) = (t % ntx, t / ntx);
     let (nx, ny) = (n % ntx, n / ntx);
     if ty == ny {
         let (xa, xb) = if nx > tx { ((tx + 1) * TILE - 1, nx * TILE) } else { (tx * TILE, (nx + 1) * TILE - 1) };
-        if xa >= grid.nx || xb >= grid.nx {
-            return false;
-        }
-        (ty * TILE..((ty + 1) * TILE).min(grid.ny)).any(|y| usable(grid, owner, xa, y) && usable(grid, owner, xb, y))
+        (xa < grid.nx && xb < grid.nx).then_some(((xa, ty * TILE), (xb, ty * TILE)))
     } else {
         let (ya, yb) = if ny > ty { ((ty + 1) * TILE - 1, ny * TILE) } else { (ty * TILE, (ny + 1) * TILE - 1) };
-        if ya >= grid.ny || yb >= grid.ny {
-            return false;
-        }
-        (tx * TILE..((tx + 1) * TILE).min(grid.nx)).any(|x| usable(grid, owner, x, ya) && usable(grid, owner, x, yb))
+        (ya < grid.ny && yb < grid.ny).then_some(((tx * TILE, ya), (tx * TILE, yb)))
+    }
+}
+
+/// [`edge_open`], reading every pair of facing cells.
+fn edge_open_cell_by_cell(grid: &Grid, owner: u32, ntx: usize, t: usize, n: usize) -> bool {
+    let Some(((xa, ya), (xb, yb))) = edge_cells(grid, ntx, t, n) else { return false };
+    if ya == yb {
+        (ya..(ya + TILE).min(grid.ny)).any(|y| usable(grid, owner, xa, y) && usable(grid, owner, xb, y))
+    } else {
+        (xa..(xa + TILE).min(grid.nx)).any(|x| usable(grid, owner, x, ya) && usable(grid, owner, x, yb))
     }
 }
 
@@ -572,6 +621,38 @@ pub fn find_guided_or_give_up(search: &mut Search, corridors: &mut Corridors, as
 mod tests {
     use super::*;
     use crate::geom::{pt, rect, region_of};
+
+    /// The shortcut for tiles in pages that hold one owner and one cost gives every
+    /// tile's factor to the bit, and every edge's answer, that reading each cell gives:
+    /// on a grid with untouched pages, pages filled whole, pages half claimed, costly and
+    /// forbidden areas, and part tiles and part pages along its far edges (the shortcut
+    /// must never see a cell outside its page).
+    #[test]
+    fn pages_of_one_value_answer_as_their_cells_do() {
+        // 30.05 mm at 0.1 mm: 302 cells, 4 whole pages of 64 and a part one, 37 whole
+        // tiles of 8 and a part one.
+        let mut g = Grid::new(0.0, 0.0, 30.05, 30.05, 0.1);
+        g.claim(&region_of([rect(0.0, 0.0, 12.75, 30.05)]), 2); // pages 0 and 1 whole, 2 in part
+        g.add_cost(&region_of([rect(14.0, 14.0, 25.0, 20.0)]), 0.3);
+        g.add_cost(&region_of([rect(26.0, 2.0, 30.05, 4.0)]), f32::INFINITY);
+        g.block(&region_of([rect(3.0, 27.0, 9.0, 28.0)]));
+        g.compact();
+        let c = Corridors::new(&g);
+        let (ntx, nty) = (c.ntx, c.nty);
+        let mut uniform = 0;
+        for owner in [1, 2] {
+            for t in 0..ntx * nty {
+                let (x0, y0, _, _) = c.cell_span(&g, t);
+                uniform += usize::from(g.uniform_page_xy(x0, y0).is_some());
+                assert_eq!(c.work_out_factor(&g, owner, t).to_bits(), c.factor_cell_by_cell(&g, owner, t).to_bits(), "tile {t}, owner {owner}");
+                for (d, _, _, n) in neighbours(t, ntx, nty).filter(|(d, ..)| d % 2 == 0) {
+                    assert_eq!(edge_open(&g, owner, ntx, t, n), edge_open_cell_by_cell(&g, owner, ntx, t, n), "tiles {t} and {n} ({d}), owner {owner}");
+                }
+            }
+        }
+        assert!(uniform > ntx * nty, "the shortcut is taken: {uniform} tiles in pages of one value");
+        assert!(uniform < 2 * ntx * nty, "and the cell-by-cell reading too");
+    }
 
     /// A wall 14 cells thick lying across the edge between two columns of tiles, leaving
     /// each of them one free column: counting usable cells, both tiles are passable and

@@ -68,6 +68,15 @@ impl Grid {
         self.open_to(cx, y, owner) && self.open_to(x, cy, owner)
     }
 
+    /// The owner and extra cost shared by every cell of the page (a square of
+    /// [`super::pages::SIDE`] cells) holding column `x`, row `y`, when the page stores
+    /// each as one value: a question about a block of cells inside one page is then
+    /// answered once, not cell by cell.
+    #[inline]
+    pub fn uniform_page_xy(&self, x: usize, y: usize) -> Option<(u32, f32)> {
+        Some((self.owner.uniform_xy(x, y)?, self.cost.uniform_xy(x, y)?))
+    }
+
     /// Extra cost of entering cell `i` (0 = none; `f32::INFINITY` = forbidden).
     #[inline]
     pub fn cost(&self, i: usize) -> f32 {

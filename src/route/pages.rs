@@ -90,6 +90,17 @@ impl<T: Copy + PartialEq> PagedCells<T> {
         self.at(p, o)
     }
 
+    /// The one value of every cell in the page holding column `x`, row `y`, when the
+    /// page stores one value; `None` when its cells are stored one by one (they may
+    /// still be alike until the grid is compacted).
+    #[inline]
+    pub fn uniform_xy(&self, x: usize, y: usize) -> Option<T> {
+        match &self.pages[self.geom.locate_xy(x, y).0] {
+            Page::Uniform(v) => Some(*v),
+            Page::Dense(_) => None,
+        }
+    }
+
     #[inline]
     fn at(&self, p: usize, o: usize) -> T {
         match &self.pages[p] {
