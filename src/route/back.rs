@@ -50,8 +50,6 @@ struct Common {
     islands: Vec<Region>,
     /// Per island, where a lead may end on it ([`landing_area`]).
     landings: Vec<Region>,
-    /// Per island, the indices of the elements (pixels) it lies behind, for messages.
-    behind: Vec<Vec<usize>>,
     /// Its transfer dots' pads (the far tier's commons may have two).
     dots: Vec<Polygon>,
     /// Per dot, where a lead may end on it.
@@ -91,10 +89,11 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
                 islands.push(stroke_polyline(&b.points, b.width, tol));
             }
             let dots: Vec<Polygon> = transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
-            // Worked out once here, on all cores, not in every attempt.
-            let (behind, landings) = islands.par_iter().map(|isl| (elements_behind(el, k as u32, isl), landing_area(layout, isl))).unzip();
+            // Worked out once here, on all cores, not in every attempt. (The elements behind
+            // each island, which only messages name, are found for the stuck ones alone.)
+            let landings = islands.par_iter().map(|isl| landing_area(layout, isl)).collect();
             let dot_landings = dots.iter().map(|d| landing_area(layout, &region_of([d.clone()]))).collect();
-            Common { net: c.net.clone(), owner: k as u32 + 1, islands, landings, behind, dots, dot_landings }
+            Common { net: c.net.clone(), owner: k as u32 + 1, islands, landings, dots, dot_landings }
         })
         .collect::<Vec<Common>>()
     };
@@ -296,7 +295,7 @@ fn by_cause(layout: &Layout, el: &Electrodes, commons: &[Common], islands: &[Stu
             let mut names: Vec<String> = Vec::new();
             let mut entries: Vec<String> = Vec::new();
             for m in &members {
-                for &e in &c.behind[m.island] {
+                for e in elements_behind(el, k as u32, &c.islands[m.island]) {
                     let e = &el.elements[e];
                     if !names.contains(&e.name) {
                         names.push(e.name.clone());
