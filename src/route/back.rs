@@ -506,13 +506,16 @@ fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
 fn claim_commons(layout: &Layout, g: &mut Grid, commons: &[Common]) {
     let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + g.h;
     if commons.len() > 1 {
-        for c in commons {
-            for island in &c.islands {
-                g.claim_near(island, reach, c.owner);
-            }
-            for dot in &c.dots {
-                g.claim_near(&region_of([dot.clone()]), reach, c.owner);
-            }
+        // The cells near each piece are found on all cores, then claimed one piece after
+        // another in the order they were claimed when each was found in turn (commons in
+        // order, each its islands then its dots), so the grid comes out the same.
+        use rayon::prelude::*;
+        let dots: Vec<Vec<Region>> = commons.iter().map(|c| c.dots.iter().map(|d| region_of([d.clone()])).collect()).collect();
+        let pieces: Vec<(u32, &Region)> =
+            commons.iter().zip(&dots).flat_map(|(c, ds)| c.islands.iter().chain(ds).map(move |r| (c.owner, r))).collect();
+        let spans: Vec<Vec<(usize, usize, usize)>> = pieces.par_iter().map(|(_, r)| g.spans_near(r, reach)).collect();
+        for ((owner, _), s) in pieces.iter().zip(&spans) {
+            g.claim_spans(s, *owner);
         }
     }
     g.compact();

@@ -198,7 +198,7 @@ impl Grid {
     /// Claims the runs of cells `spans` (row, first column, last column) for `owner`:
     /// free cells become its, another owner's become `BLOCKED` (claiming a cell twice for
     /// one owner changes nothing, so runs may overlap).
-    fn claim_spans(&mut self, spans: &[(usize, usize, usize)], owner: u32) {
+    pub fn claim_spans(&mut self, spans: &[(usize, usize, usize)], owner: u32) {
         let claimed = |o: u32| if o == FREE || o == owner { owner } else { BLOCKED };
         for &(r, c0, c1) in spans {
             self.owner.update_run(r, c0, c1, claimed);
@@ -298,9 +298,17 @@ impl Grid {
 
     /// [`Grid::claim`] of `region` grown by `d` ([`Grid::for_cells_near`]).
     pub fn claim_near(&mut self, region: &Region, d: f64, owner: u32) {
+        let spans = self.spans_near(region, d);
+        self.claim_spans(&spans, owner);
+    }
+
+    /// The runs of cells (row, first column, last column) of `region` grown by `d`, as
+    /// [`Grid::claim_near`] claims them: worked out apart from the claiming, they can be
+    /// found for many regions at once on all cores and claimed after in a fixed order.
+    pub fn spans_near(&self, region: &Region, d: f64) -> Vec<(usize, usize, usize)> {
         let mut spans = Vec::new();
         self.for_spans_near(region, d, |r, c0, c1| spans.push((r, c0, c1)));
-        self.claim_spans(&spans, owner);
+        spans
     }
 
     /// Blocks every cell inside `region`.
