@@ -506,16 +506,19 @@ fn back_grid(layout: &Layout, front_leads: &Region) -> Grid {
 fn claim_commons(layout: &Layout, g: &mut Grid, commons: &[Common]) {
     let reach = layout.rules.min_gap + layout.rules.lead_width / 2.0 + g.h;
     if commons.len() > 1 {
-        // The cells near each piece are found on all cores, then claimed one piece after
-        // another in the order they were claimed when each was found in turn (commons in
-        // order, each its islands then its dots), so the grid comes out the same.
+        // The cells near each piece of a common are found on all cores, then claimed
+        // one piece after another in the order they were claimed when each was found in
+        // turn (commons in order, each its islands then its dots), so the grid comes out
+        // the same; one common's runs at a time, not every common's at once (on the
+        // 40-digit benchmark all of them held some 5 MB at the build's peak).
         use rayon::prelude::*;
-        let dots: Vec<Vec<Region>> = commons.iter().map(|c| c.dots.iter().map(|d| region_of([d.clone()])).collect()).collect();
-        let pieces: Vec<(u32, &Region)> =
-            commons.iter().zip(&dots).flat_map(|(c, ds)| c.islands.iter().chain(ds).map(move |r| (c.owner, r))).collect();
-        let spans: Vec<Vec<(usize, usize, usize)>> = pieces.par_iter().map(|(_, r)| g.spans_near(r, reach)).collect();
-        for ((owner, _), s) in pieces.iter().zip(&spans) {
-            g.claim_spans(s, *owner);
+        for c in commons {
+            let dots: Vec<Region> = c.dots.iter().map(|d| region_of([d.clone()])).collect();
+            let pieces: Vec<&Region> = c.islands.iter().chain(&dots).collect();
+            let spans: Vec<Vec<(usize, usize, usize)>> = pieces.par_iter().map(|r| g.spans_near(r, reach)).collect();
+            for s in &spans {
+                g.claim_spans(s, c.owner);
+            }
         }
     }
     g.compact();
