@@ -509,8 +509,8 @@ fn claim_commons(layout: &Layout, g: &mut Grid, commons: &[Common]) {
         // The cells near each piece of a common are found on all cores, then claimed
         // one piece after another in the order they were claimed when each was found in
         // turn (commons in order, each its islands then its dots), so the grid comes out
-        // the same; one common's runs at a time, not every common's at once (on the
-        // 40-digit benchmark all of them held some 5 MB at the build's peak).
+        // the same. One common's runs at a time: every common's held at once would all
+        // be alive together, a few MB on a large glass, for nothing.
         use rayon::prelude::*;
         for c in commons {
             let dots: Vec<Region> = c.dots.iter().map(|d| region_of([d.clone()])).collect();
