@@ -11,7 +11,7 @@
 //! order), with rip-up and a new order when one is stuck.
 
 use super::grid::Grid;
-use super::search::{corners, enterable, neighbours, Blocked, Search};
+use super::search::{corners, neighbours, Blocked, Search};
 use super::corridor::{find_guided_or_fence, find_guided_or_give_up, Ask, Corridors};
 use super::pending::Pending;
 use super::target::Targets;
@@ -374,7 +374,7 @@ impl ShutIn {
     /// a front lead) every open neighbour; at least one must lie in it.
     fn blockers_around(&self, grid: &Grid, owner: u32, cells: &[usize]) -> Option<(&[u32], usize)> {
         let has = |place: &[u32], i: usize| u32::try_from(i).is_ok_and(|i| place.binary_search(&i).is_ok());
-        let open = |i: usize| enterable(grid, i % grid.nx, i / grid.nx, owner);
+        let open = |i: usize| grid.usable_xy(i % grid.nx, i / grid.nx, owner);
         // Every open neighbour, diagonals too (the flood steps past no corner of another
         // net, so this asks for more than it needs, never less).
         let closed_in = |place: &[u32], i: usize| neighbours(i, grid.nx, grid.ny).all(|(_, _, _, n)| !open(n) || has(place, n));

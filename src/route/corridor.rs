@@ -18,7 +18,7 @@
 //!
 //! Every buffer is allocated once per router and reset by stamp, never per search.
 
-use super::grid::Grid;
+use super::grid::{usable_by, Grid};
 use super::search::{neighbours, Blocked, Open, Search};
 use std::collections::BinaryHeap;
 
@@ -196,7 +196,7 @@ impl Corridors {
         // searches work out the factor of every tile they reach once per common).
         const _: () = assert!(super::pages::SIDE % TILE == 0, "a tile must lie inside one page");
         match grid.uniform_page_xy(x0, y0) {
-            Some(page) => mean_factor((x1 - x0) * (y1 - y0), |_| page_usable(page, owner).then_some(page.1)),
+            Some(page) => mean_factor((x1 - x0) * (y1 - y0), |_| usable_by(page.0, page.1, owner).then_some(page.1)),
             None => self.factor_cell_by_cell(grid, owner, t),
         }
     }
@@ -207,7 +207,7 @@ impl Corridors {
         let w = x1 - x0;
         mean_factor(w * (y1 - y0), |k| {
             let (x, y) = (x0 + k % w, y0 + k / w);
-            usable(grid, owner, x, y).then(|| grid.cost_xy(x, y))
+            grid.usable_xy(x, y, owner).then(|| grid.cost_xy(x, y))
         })
     }
 
@@ -416,11 +416,6 @@ impl Corridors {
     }
 }
 
-/// Whether cell (x, y) is one `owner` may use.
-fn usable(grid: &Grid, owner: u32, x: usize, y: usize) -> bool {
-    grid.open_to(x, y, owner) && grid.cost_xy(x, y).is_finite()
-}
-
 /// The mean of `1 + extra` over the first `cells` of a tile, where `extra_of` gives the
 /// extra cost of each cell `owner` may use (`None` for the others); infinity when fewer
 /// than a tile's width of cells are usable.
@@ -433,16 +428,12 @@ fn mean_factor(cells: usize, extra_of: impl Fn(usize) -> Option<f32>) -> f32 {
     if (n as usize) < TILE { f32::INFINITY } else { sum / n as f32 }
 }
 
-/// Whether `owner` may use a cell of a page that holds one owner and one extra cost.
-fn page_usable((o, extra): (u32, f32), owner: u32) -> bool {
-    (o == super::grid::FREE || o == owner) && extra.is_finite()
-}
-
 /// Whether `owner` may use the cells of the pages holding cells `a` and `b` (column,
 /// row), when each page stores one owner and one cost (every cell of a tile edge then
 /// answers alike); `None` when either page stores its cells one by one.
 fn uniform_pages_open(grid: &Grid, owner: u32, a: (usize, usize), b: (usize, usize)) -> Option<bool> {
-    Some(page_usable(grid.uniform_page_xy(a.0, a.1)?, owner) && page_usable(grid.uniform_page_xy(b.0, b.1)?, owner))
+    let open = |(x, y): (usize, usize)| grid.uniform_page_xy(x, y).map(|(o, extra)| usable_by(o, extra, owner));
+    Some(open(a)? && open(b)?)
 }
 
 /// Whether some cell of tile `t` next to its shared edge with the orthogonal neighbour
@@ -472,9 +463,9 @@ fn edge_cells(grid: &Grid, ntx: usize, t: usize, n: usize) -> Option<((usize, us
 fn edge_open_cell_by_cell(grid: &Grid, owner: u32, ntx: usize, t: usize, n: usize) -> bool {
     let Some(((xa, ya), (xb, yb))) = edge_cells(grid, ntx, t, n) else { return false };
     if ya == yb {
-        (ya..(ya + TILE).min(grid.ny)).any(|y| usable(grid, owner, xa, y) && usable(grid, owner, xb, y))
+        (ya..(ya + TILE).min(grid.ny)).any(|y| grid.usable_xy(xa, y, owner) && grid.usable_xy(xb, y, owner))
     } else {
-        (xa..(xa + TILE).min(grid.nx)).any(|x| usable(grid, owner, x, ya) && usable(grid, owner, x, yb))
+        (xa..(xa + TILE).min(grid.nx)).any(|x| grid.usable_xy(x, ya, owner) && grid.usable_xy(x, yb, owner))
     }
 }
 

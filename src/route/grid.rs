@@ -13,6 +13,14 @@ pub const FREE: u32 = 0;
 /// Owner value of a cell claimed by two or more nets, or by the glass edge.
 pub const BLOCKED: u32 = u32::MAX;
 
+/// Whether a lead of `owner` may use a cell held by `cell_owner` at extra cost `extra`:
+/// the cell is free or its own, and not forbidden (infinite cost). One answer for a cell
+/// and for a page whose cells all hold the same pair.
+#[inline]
+pub fn usable_by(cell_owner: u32, extra: f32, owner: u32) -> bool {
+    (cell_owner == FREE || cell_owner == owner) && !extra.is_infinite()
+}
+
 /// A grid of square cells in the front-plate frame.
 #[derive(Debug, Clone)]
 pub struct Grid {
@@ -66,6 +74,13 @@ impl Grid {
     #[inline]
     pub fn corner_open(&self, cx: usize, cy: usize, x: usize, y: usize, owner: u32) -> bool {
         self.open_to(cx, y, owner) && self.open_to(x, cy, owner)
+    }
+
+    /// Whether a lead of `owner` may use the cell at column `x`, row `y`: free or its own,
+    /// at a finite cost ([`usable_by`]).
+    #[inline]
+    pub fn usable_xy(&self, x: usize, y: usize, owner: u32) -> bool {
+        usable_by(self.owner_xy(x, y), self.cost_xy(x, y), owner)
     }
 
     /// The owner and extra cost shared by every cell of the page (a square of

@@ -39,12 +39,6 @@ struct Node {
 
 const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8, closed: false };
 
-/// Whether a lead of `owner` may enter the cell at column `x`, row `y`: free or its own,
-/// at a finite cost.
-pub(crate) fn enterable(grid: &Grid, x: usize, y: usize, owner: u32) -> bool {
-    grid.open_to(x, y, owner) && !grid.cost_xy(x, y).is_infinite()
-}
-
 /// The mark a reachability flood leaves on a cell: only the side (`dir`) is read.
 const fn flooded(side: u8) -> Node {
     Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }
@@ -390,7 +384,7 @@ impl Search {
                     None => {}
                 }
                 // The first flood ends on a goal cell only by entering it.
-                if !enterable(grid, x, y, owner) {
+                if !grid.usable_xy(x, y, owner) {
                     continue;
                 }
                 if !self.nodes.set(x, y, flooded(BEHIND)) {
@@ -446,7 +440,7 @@ impl Search {
                 Some(_) => continue,
                 None => {}
             }
-            if !enterable(grid, x, y, owner) {
+            if !grid.usable_xy(x, y, owner) {
                 continue;
             }
             if !self.nodes.set(x, y, flooded(side)) {
