@@ -18,9 +18,9 @@
 //!
 //! Every buffer is allocated once per router and reset by stamp, never per search.
 
+use super::open_list::OpenList;
 use super::grid::{usable_by, Grid};
 use super::search::{neighbours, Blocked, Open, Search};
-use std::collections::BinaryHeap;
 
 /// Side of a tile, in grid cells.
 pub const TILE: usize = 8;
@@ -81,6 +81,8 @@ pub struct Corridors {
     ntx: usize,
     nty: usize,
     generation: u32,
+    /// The coarse search's open list, kept between searches.
+    open: OpenList,
     stamp: Vec<u32>,
     g: Vec<f32>,
     h: Vec<f32>,
@@ -128,6 +130,7 @@ impl Corridors {
             ntx,
             nty,
             generation: 0,
+            open: OpenList::new(),
             stamp: vec![0; n],
             g: vec![0.0; n],
             h: vec![0.0; n],
@@ -269,7 +272,8 @@ impl Corridors {
     ) -> bool {
         self.generation += 1;
         let now = self.generation;
-        let mut open = BinaryHeap::new();
+        let mut open = std::mem::take(&mut self.open);
+        open.clear();
         // A source starts from a kept bound where there is one, and gets its exact bound
         // when it is first taken from the heap, going back in if that is higher: tiles are
         // then taken in the same order as with exact bounds from the start, but a common's
@@ -309,6 +313,7 @@ impl Corridors {
                 }
             }
             if goal(t) {
+                self.open = open;
                 self.mark(t, margin);
                 return true;
             }
@@ -340,6 +345,7 @@ impl Corridors {
                 }
             }
         }
+        self.open = open;
         false
     }
 

@@ -26,6 +26,7 @@ pub mod dots;
 pub mod escape;
 pub mod fanout;
 pub mod grid;
+pub mod open_list;
 pub mod pages;
 pub mod pending;
 pub mod retry;

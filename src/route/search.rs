@@ -3,9 +3,9 @@
 //! every change of direction so that leads come out as few straight and 45° runs.
 
 use super::grid::{Grid, BLOCKED, FREE};
+use super::open_list::OpenList;
 use super::pages::{PageGeom, Scratch};
 use std::cmp::Ordering;
-use std::collections::BinaryHeap;
 
 const DIRS: [(i64, i64); 8] = [(1, 0), (1, 1), (0, 1), (-1, 1), (-1, 0), (-1, -1), (0, -1), (1, -1)];
 
@@ -93,6 +93,8 @@ enum Spread {
 /// neither clears nor holds millions of cells).
 pub struct Search {
     nodes: Scratch<Node>,
+    /// The open list, kept between searches.
+    open: OpenList,
     nx: usize,
     /// The weight on the heuristic ([`Search::weighted`]; 1 for plain A*).
     weight: f32,
@@ -148,6 +150,18 @@ impl Open {
     pub fn cell(self) -> u32 {
         self.0 as u32
     }
+
+    /// The packed key: lower keys are taken first.
+    #[inline]
+    pub fn key(self) -> u64 {
+        self.0
+    }
+
+    /// The entry of a packed key ([`Open::key`]).
+    #[inline]
+    pub fn from_key(key: u64) -> Open {
+        Open(key)
+    }
 }
 
 impl PartialOrd for Open {
@@ -164,7 +178,7 @@ impl Ord for Open {
 impl Search {
     /// State for searches on grids of `grid`'s size.
     pub fn new(grid: &Grid) -> Search {
-        Search { nodes: Scratch::new(PageGeom::of(grid.nx, grid.ny), UNREACHED), nx: grid.nx, weight: 1.0 }
+        Search { nodes: Scratch::new(PageGeom::of(grid.nx, grid.ny), UNREACHED), open: OpenList::new(), nx: grid.nx, weight: 1.0 }
     }
 
     /// State whose searches weigh the heuristic by `weight` ≥ 1 (weighted A*, Pohl 1970):
@@ -217,7 +231,8 @@ impl Search {
     ) -> Result<Vec<usize>, Blocked> {
         debug_assert_eq!(self.nx, grid.nx, "search state made for another grid");
         self.nodes.next_search();
-        let mut open = BinaryHeap::new();
+        let mut open = std::mem::take(&mut self.open);
+        open.clear();
         let mut blockers = Tally::default();
         let mut nearest = (f32::MAX, sources.first().copied().unwrap_or(0));
         for &s in sources {
@@ -225,6 +240,7 @@ impl Search {
             if self.nodes.get(x, y).is_none() {
                 let h = self.weight * heuristic(s);
                 if !self.nodes.set(x, y, Node { g: 0.0, h, parent: s as u32, dir: 8, closed: false }) {
+                    self.open = open;
                     return Err(Blocked { blockers: Vec::new(), nearest: s, over_budget: true, shut_in: Vec::new() });
                 }
                 open.push(Open::new(h, s as u32));
@@ -241,6 +257,7 @@ impl Search {
                 continue; // stale entry
             }
             if goal(c) {
+                self.open = open;
                 return Ok(self.path_to(c));
             }
             if hc < nearest.0 {
@@ -287,6 +304,7 @@ impl Search {
                 break;
             }
         }
+        self.open = open;
         Err(Blocked { blockers: blockers.ranked(), nearest: nearest.1, over_budget, shut_in: Vec::new() })
     }
 
@@ -488,6 +506,7 @@ pub fn corners(grid: &Grid, path: &[usize]) -> Vec<crate::geom::Pt> {
 mod tests {
     use super::*;
     use crate::geom::{rect, region_of};
+    use std::collections::BinaryHeap;
 
     /// The packed entries pop in the order of their costs (IEEE 754 totalOrder, through
     /// `f32::total_cmp`), the lower node first on equal costs: zero, a negative zero, the
