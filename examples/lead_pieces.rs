@@ -23,7 +23,7 @@ fn main() {
         for p in &ito.0 {
             svg.push_str(&path(p, "#bbbbbb"));
         }
-        for (p, s) in segmask::plan::electrical::lead_pieces(art, &ito, &a[2]) {
+        for (p, s) in segmask::plan::electrical::lead_pieces(art, &ito, &a[2]).leads {
             let c = p.exterior().0[0];
             println!("{} piece at ({:.2}, {:.2}): area {:.4} mm², {:.1} squares", plate.name(), c.x, c.y, segmask::geom::area(&p), s);
             svg.push_str(&path(&p, "#d0021b"));

@@ -11,8 +11,9 @@
 //!   corner slivers and pieces narrower than half of `min_width` (crescents the
 //!   opening leaves along curves). Each lead piece of area A and perimeter P is taken as a strip
 //!   L × W with `L·W = A` and `2(L + W) = P`; its squares are `L / W`. A net's lead
-//!   resistance is `Rs` times the squares of all its lead pieces: for a tree of leads
-//!   that is the sum of every branch, an upper bound on the resistance to any one pixel.
+//!   resistance is `Rs` times the squares of all its lead pieces (the sum of every
+//!   branch); its RC takes only the squares on the farthest way from its pads
+//!   ([`super::lead_ways`]), which bounds the slowest delay of the tree.
 //! - *Capacitance* of a line is `ε0·εr·A/d` (CODATA 2018 ε0) over the area A where its
 //!   ITO faces the other plate's ITO inside the liquid crystal, at ε⊥ (all off) and ε∥
 //!   (all on); its RC uses ε∥, the slower case.
@@ -63,15 +64,22 @@ pub struct Line {
     pub lead_squares: f64,
     /// `Rs · lead_squares`, ohms.
     pub lead_resistance_ohm: f64,
+    /// Squares on the farthest way from its pads through its leads, each lead piece it
+    /// passes counted whole ([`super::lead_ways`]); `lead_squares` when no part meets a
+    /// pad.
+    pub way_squares: f64,
+    /// `Rs · way_squares`, ohms.
+    pub way_resistance_ohm: f64,
     /// Area where its ITO faces the other plate's ITO in the liquid crystal, mm².
     pub facing_area_mm2: f64,
     /// Capacitance at ε⊥ (every pixel off), pF.
     pub capacitance_off_pf: f64,
     /// Capacitance at ε∥ (every pixel on), pF.
     pub capacitance_on_pf: f64,
-    /// `R · C_on`, µs.
+    /// The line's slowest Elmore delay at ε∥ over its tree of ways, µs, each lead part
+    /// counted whole ([`super::lead_ways`]): at most `way_resistance_ohm · C_on`.
     pub rc_us: f64,
-    /// `R · C_on` as a fraction of the frame period.
+    /// `rc_us` as a fraction of the frame period.
     pub rc_of_frame: f64,
 }
 
@@ -136,11 +144,22 @@ fn net_ito(ex: &Extraction, plate: PlateId, net: &str) -> Region {
     )
 }
 
-/// The lead pieces of some ITO of `net` (pads excluded), each with its squares.
-pub fn lead_pieces(art: &Artwork, ito: &Region, net: &str) -> Vec<(Polygon, f64)> {
+/// Some ITO of a net told apart: its leads, and its wide parts.
+#[derive(Debug, Clone)]
+pub struct LeadSplit {
+    /// The lead pieces (pads excluded), each with its squares.
+    pub leads: Vec<(Polygon, f64)>,
+    /// The parts a disc of the lead radius fits in (electrodes, pads, dots, common
+    /// pieces): the ITO's opening.
+    pub wide: Region,
+}
+
+/// The lead pieces of some ITO of `net` (pads excluded), each with its squares, and its
+/// wide parts.
+pub fn lead_pieces(art: &Artwork, ito: &Region, net: &str) -> LeadSplit {
     use geo::{Euclidean, Length};
     if ito.0.is_empty() {
-        return Vec::new();
+        return LeadSplit { leads: Vec::new(), wide: geom::region_of([]) };
     }
     let r = lead_radius(art);
     // A tenth of the lead width: the plan's opening of every line was the largest part
@@ -167,7 +186,7 @@ pub fn lead_pieces(art: &Artwork, ito: &Region, net: &str) -> Vec<(Polygon, f64)
     // the two offsets) are far narrower than any line that etches: neither is a lead.
     let least = art.rules.lead_width * art.rules.lead_width;
     let thinnest = 0.5 * art.rules.min_width;
-    leads
+    let leads = leads
         .0
         .into_iter()
         .filter(|p| geom::area(p) > least)
@@ -178,12 +197,10 @@ pub fn lead_pieces(art: &Artwork, ito: &Region, net: &str) -> Vec<(Polygon, f64)
             let width = (geom::area(&p) / squares).sqrt();
             (width >= thinnest).then_some((p, squares))
         })
-        .collect()
-}
-
-/// Squares along the leads of some ITO (pads excluded).
-fn lead_squares(art: &Artwork, ito: &Region, net: &str) -> f64 {
-    lead_pieces(art, ito, net).iter().map(|(_, s)| s).sum()
+        .collect();
+    // The opening reaches two tolerances past the ITO (above): the wide parts are what
+    // of the ITO it covers.
+    LeadSplit { leads, wide: geom::intersection(ito, &opened) }
 }
 
 /// ITO of a plate's components carrying `net`, as the plan measures it.
@@ -209,26 +226,55 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
             crate::artwork::NetKind::Common => (PlateId::Back, &all_front, "com"),
         };
         let ito = net_ito(ex, plate, &net.name);
-        let mut squares = lead_squares(art, &ito, &net.name);
-        if plate == PlateId::Back {
-            // The common's way on to its pad runs on the front plate.
-            squares += lead_squares(art, &net_ito(ex, PlateId::Front, &net.name), &net.name);
+        let own = lead_pieces(art, &ito, &net.name);
+        // The common's way on to its pad runs on the front plate.
+        let front = (plate == PlateId::Back).then(|| lead_pieces(art, &net_ito(ex, PlateId::Front, &net.name), &net.name));
+        let squares: f64 = own.leads.iter().chain(front.iter().flat_map(|f| &f.leads)).map(|(_, s)| s).sum();
+        let pads: Vec<Polygon> = art.pins.iter().filter(|p| p.net == net.name).map(|p| p.pad.clone()).collect();
+        // The pads lie on the front plate: the line's own for a SEG line, the second part
+        // for a common.
+        let mut parts = vec![super::lead_ways::PlatePart { wide: &own.wide, leads: &own.leads, pads: if front.is_none() { &pads } else { &[] } }];
+        if let Some(f) = &front {
+            parts.push(super::lead_ways::PlatePart { wide: &f.wide, leads: &f.leads, pads: &pads });
         }
+        let dots: Vec<Polygon> = art.transfer_dots.iter().map(|d| d.dot.clone()).collect();
+        // The pixels of the line are its loads, on the electrode that holds each.
+        let loads: Vec<super::lead_ways::Load> = art
+            .pixels
+            .iter()
+            .filter(|p| if plate == PlateId::Front { p.seg_net == net.name } else { p.com_net == net.name })
+            .flat_map(|p| p.region.0.iter())
+            .filter_map(|p| geom::interior_point(p).map(|at| (0, at, geom::area(p))))
+            .collect();
+        let ways = super::lead_ways::ways(&parts, &dots, &loads);
         // Measured near each piece of the line: the other plate spans the glass.
         let facing = geom::overlap_area(&geom::intersection(&ito, &lc), other);
         let c_off = plate_capacitance(facing, cell.gap, cell.permittivity_perpendicular);
         let c_on = plate_capacitance(facing, cell.gap, cell.permittivity_parallel);
-        let r = cell.sheet_resistance * squares;
+        // The ways count lead parts whole, so they may come out above the sum of every
+        // branch, itself a bound on any way (and R · C on any delay): the lower bound is kept.
+        let way = ways.map_or(squares, |w| w.farthest_squares.min(squares));
+        let r = cell.sheet_resistance * way;
+        // Elmore's delay over the tree of ways, at ε∥; without a pad, R · C of every branch.
+        let f_per_mm2 = plate_capacitance(1.0, cell.gap, cell.permittivity_parallel);
+        // The facing area outside the pixels (and any pixel not placed) is put where it
+        // delays most: at the end of the farthest way.
+        let delay = ways.map_or(cell.sheet_resistance * squares * c_on, |w| {
+            let rest = (facing - w.placed_mm2).max(0.0);
+            (cell.sheet_resistance * (w.elmore_squares_mm2 + w.farthest_squares * rest) * f_per_mm2).min(cell.sheet_resistance * squares * c_on)
+        });
         Line {
             net: net.name.clone(),
             kind,
             lead_squares: round(squares, 2),
-            lead_resistance_ohm: round(r, 1),
+            lead_resistance_ohm: round(cell.sheet_resistance * squares, 1),
+            way_squares: round(way, 2),
+            way_resistance_ohm: round(r, 1),
             facing_area_mm2: round(facing, 4),
             capacitance_off_pf: round(c_off * 1e12, 2),
             capacitance_on_pf: round(c_on * 1e12, 2),
-            rc_us: round(r * c_on * 1e6, 4),
-            rc_of_frame: r * c_on / period,
+            rc_us: round(delay * 1e6, 4),
+            rc_of_frame: delay / period,
         }
     }).collect();
     lines.sort_by(|a, b| b.kind.cmp(a.kind).then_with(|| a.net.cmp(&b.net)));

@@ -8,6 +8,7 @@
 //! ([`optics`]) — and the findings `line-rc` and `drive-margin` (docs/checks.md).
 
 pub mod electrical;
+pub mod lead_ways;
 pub mod optics;
 
 use crate::artwork::Artwork;
@@ -129,12 +130,13 @@ pub fn findings(art: &Artwork, plan: &Plan) -> Vec<Finding> {
             measured: Some(l.rc_of_frame),
             required: Some(e.rc_limit),
             message: format!(
-                "{} (pin {:?}): {:.0} Ω of lead × {:.1} pF = {:.2} µs, {:.2} % of the {:.2} ms frame (limit {:.2} %)",
+                "{} (pin {:?}): Elmore delay to its farthest part {:.2} µs ({:.0} Ω of lead on the way there, {:.0} Ω in all its branches, {:.1} pF in all), {:.2} % of the {:.2} ms frame (limit {:.2} %)",
                 l.net,
                 pins,
+                l.rc_us,
+                l.way_resistance_ohm,
                 l.lead_resistance_ohm,
                 l.capacitance_on_pf,
-                l.rc_us,
                 100.0 * l.rc_of_frame,
                 e.frame_period_ms,
                 100.0 * e.rc_limit
