@@ -294,8 +294,10 @@ fn by_cause(layout: &Layout, el: &Electrodes, commons: &[Common], islands: &[Stu
             let c = &commons[k];
             let mut names: Vec<String> = Vec::new();
             let mut entries: Vec<String> = Vec::new();
+            let mut behind_all: Vec<usize> = Vec::new();
             for m in &members {
                 for e in elements_behind(el, k as u32, &c.islands[m.island]) {
+                    behind_all.push(e);
                     let e = &el.elements[e];
                     if !names.contains(&e.name) {
                         names.push(e.name.clone());
@@ -320,9 +322,35 @@ fn by_cause(layout: &Layout, el: &Electrodes, commons: &[Common], islands: &[Stu
             if let Some(i) = f.message.find(" cannot reach") {
                 f.message.insert_str(i, &behind);
             }
+            if side_pads_fence(layout, el, &behind_all) {
+                f.message.push_str(SIDE_PADS_FIX);
+            }
             f
         })
         .collect()
+}
+
+/// What to change where a common of a row of multiplexed digits is cut off with the pads
+/// at the row's end (docs/architecture.md, *Pads on the left or right of a row of
+/// multiplexed digits*).
+const SIDE_PADS_FIX: &str = "; with the pads on the left or right, the SEG leads of the digits further from them run along the row and fence off a common of three or more digits in a row (two route): put the pads on the top or bottom side (`pads.side`)";
+
+/// Whether the pads lie at the end of a row (left or right, one row of pads) and some of
+/// `behind` are digits of a group of three or more: the case [`SIDE_PADS_FIX`] answers.
+fn side_pads_fence(layout: &Layout, el: &Electrodes, behind: &[usize]) -> bool {
+    use crate::layout::Side;
+    if !matches!(layout.pads.side, Side::Left | Side::Right) || layout.pads.second_row.is_some() {
+        return false;
+    }
+    behind.iter().any(|&i| {
+        let e = &el.elements[i];
+        e.digit.is_some() && {
+            let mut digits: Vec<&str> = el.elements.iter().filter(|o| o.key == e.key).filter_map(|o| o.digit.as_deref()).collect();
+            digits.sort_unstable();
+            digits.dedup();
+            digits.len() >= 3
+        }
+    })
 }
 
 /// The cells of a piece of ITO (a transfer dot's pad, an island of a common) where a lead

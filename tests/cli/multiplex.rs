@@ -296,6 +296,39 @@ fn a_junction_too_narrow_for_the_back_lead_is_unroutable_naming_the_net() {
     assert!(!err.contains("error[open]"), "{err}");
 }
 
+/// The kiln demo with its pads on the left (glass and window moved to make the ledge
+/// there): its four digits' SEG leads run along the row above the digits, COM1's top
+/// pieces of the far digits are cut off, and the one finding says what to change
+/// (docs/architecture.md, *Pads on the left or right of a row of multiplexed digits*).
+#[test]
+fn side_pads_at_a_row_of_four_digits_say_to_move_the_pads() {
+    let text = std::fs::read_to_string(root().join("demo-layouts/kiln-controller.yaml")).unwrap();
+    let mut moved = text.clone();
+    for (from, to) in [
+        ("front: {width: 56, height: 36}", "front: {width: 60, height: 32}"),
+        ("back: {width: 56, height: 32, x: 0, y: 4}", "back: {width: 56, height: 32, x: 4, y: 0}"),
+        ("window: {x: 4, y: 8,", "window: {x: 8, y: 4,"),
+        ("side: bottom", "side: left"),
+        ("at: 28, width: 3", "at: 32, width: 3"),
+        ("origin: [6, 14.5]", "origin: [10, 10.5]"),
+        ("at: [9.5, 9.8]", "at: [13.5, 5.8]"),
+        ("at: [32.5, 9.8]", "at: [36.5, 5.8]"),
+        ("at: [45.5, 10.7]", "at: [49.5, 6.7]"),
+    ] {
+        assert!(moved.contains(from), "the demo changed: {from}");
+        moved = moved.replace(from, to);
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("left.yaml");
+    std::fs::write(&path, moved).unwrap();
+    let (code, err) = build(&path, &dir.path().join("out"));
+    assert_eq!(code, Some(1), "{err}");
+    let lines: Vec<&str> = err.lines().filter(|l| l.contains("error[unroutable]")).collect();
+    assert_eq!(lines.len(), 1, "{err}");
+    assert!(lines[0].contains("COM1 behind T2.a"), "{}", lines[0]);
+    assert!(lines[0].contains("put the pads on the top or bottom side (`pads.side`)"), "{}", lines[0]);
+}
+
 /// Three multiplexed rows, one behind another as seen from the pads, are refused by the
 /// capacity check before any search: exit 2 (an input problem), the farthest row's entry
 /// located by line and key, the row in its way named, and no output folder made. (Two
