@@ -251,9 +251,7 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
         let facing = geom::overlap_area(&geom::intersection(&ito, &lc), other);
         let c_off = plate_capacitance(facing, cell.gap, cell.permittivity_perpendicular);
         let c_on = plate_capacitance(facing, cell.gap, cell.permittivity_parallel);
-        // The ways count lead parts whole, so they may come out above the sum of every
-        // branch, itself a bound on any way (and R · C on any delay): the lower bound is kept.
-        let way = ways.map_or(squares, |w| w.farthest_squares.min(squares));
+        let way = ways.map_or(squares, |w| w.farthest_squares);
         let r = cell.sheet_resistance * way;
         // Elmore's delay over the tree of ways, at ε∥; without a pad, R · C of every branch.
         let f_per_mm2 = plate_capacitance(1.0, cell.gap, cell.permittivity_parallel);
@@ -261,7 +259,7 @@ pub fn electrical(art: &Artwork, ex: &Extraction) -> Electrical {
         // delays most: at the end of the farthest way.
         let delay = ways.map_or(cell.sheet_resistance * squares * c_on, |w| {
             let rest = (facing - w.placed_mm2).max(0.0);
-            (cell.sheet_resistance * (w.elmore_squares_mm2 + w.farthest_squares * rest) * f_per_mm2).min(cell.sheet_resistance * squares * c_on)
+            cell.sheet_resistance * (w.elmore_squares_mm2 + w.farthest_squares * rest) * f_per_mm2
         });
         Line {
             net: net.name.clone(),

@@ -175,19 +175,16 @@ pub fn ways(parts: &[PlatePart<'_>], dots: &[Polygon], loads: &[Load]) -> Option
 const TILE: f64 = 1.0;
 
 /// A lead piece cut into its parts in each [`TILE`] (a piece within one tile as it is),
-/// each with the squares a way through it pays at most.
-///
-/// A part that reaches across its tile (longer than twice the piece's width W =
-/// `√(A / squares)`) counts as the strip of its own area and perimeter
-/// ([`super::electrical::strip_squares`]): that is a lead's length in the tile over its
-/// width, and where a tile's edge runs along a lead and splits it lengthwise, the
-/// narrower strip on each side counts the more squares, as a way along it alone would
-/// pay (with each part's share by area instead, a way along the narrow strip paid a
-/// quarter of the lead's squares there). A small part, cut off at a tile's corner,
-/// counts its share of the piece's squares by area, `a / W²`: taken as a strip, its
-/// length across the lead would count as the length along it.
+/// each with its share of the piece's squares by area: a lead of width W and length L
+/// has `L / W = A / W²` squares, so a part of area a holds `a / W²` of them, with W the
+/// piece's own (`√(A / squares)`), and the parts add up to the piece. That holds where
+/// a tile's edge cuts across a lead; where one runs along a lead and splits it
+/// lengthwise, the two strips carry its current side by side and a way along the
+/// narrower alone would pay a fraction of the squares there, so parts of neighbouring
+/// tiles that share more than two widths of a tile's edge are taken as one. (Counting
+/// each part as a strip of its own area and perimeter instead put a common's farthest
+/// way a quarter above all its branches on the kiln demo.)
 fn cut_into_tiles(p: &Polygon, squares: f64) -> Vec<(Polygon, f64)> {
-    use geo::{Euclidean, Length};
     let Some(b) = p.bounding_rect() else { return Vec::new() };
     let (i0, i1) = ((b.min().x / TILE).floor() as i64, (b.max().x / TILE).ceil() as i64);
     let (j0, j1) = ((b.min().y / TILE).floor() as i64, (b.max().y / TILE).ceil() as i64);
@@ -199,30 +196,78 @@ fn cut_into_tiles(p: &Polygon, squares: f64) -> Vec<(Polygon, f64)> {
         return vec![(p.clone(), squares)];
     }
     let width2 = whole / squares;
-    let mut out = Vec::new();
+    // Each part with its tile.
+    let mut parts: Vec<(Polygon, i64, i64)> = Vec::new();
     for j in j0..j1 {
         for i in i0..i1 {
             let (x0, y0) = (i as f64 * TILE, j as f64 * TILE);
             let Some(clipped) = geom::clip_to_rect(p, x0, y0, x0 + TILE, y0 + TILE) else { continue };
             // The clipped ring may run along the tile's edges where the piece left and
             // came back (geom::clip); a union takes those seams away.
-            for part in geom::union_all([clipped]).0 {
-                let area = geom::area(&part);
-                if area <= MIN_AREA {
-                    continue;
+            parts.extend(geom::union_all([clipped]).0.into_iter().filter(|q| geom::area(q) > MIN_AREA).map(|q| (q, i, j)));
+        }
+    }
+    // Parts of side-by-side tiles that split the lead lengthwise, joined (union-find).
+    let mut group: Vec<usize> = (0..parts.len()).collect();
+    fn find(group: &mut [usize], mut k: usize) -> usize {
+        while group[k] != k {
+            group[k] = group[group[k]];
+            k = group[k];
+        }
+        k
+    }
+    let long_enough = 2.0 * width2.sqrt();
+    for a in 0..parts.len() {
+        for b in a + 1..parts.len() {
+            let ((pa, ia, ja), (pb, ib, jb)) = (&parts[a], &parts[b]);
+            let (ia, ja, ib, jb) = (*ia, *ja, *ib, *jb);
+            let line = match (ib - ia, jb - ja) {
+                (1, 0) | (-1, 0) => Some((true, ia.max(ib) as f64 * TILE)),
+                (0, 1) | (0, -1) => Some((false, ja.max(jb) as f64 * TILE)),
+                _ => None,
+            };
+            if let Some((vertical, at)) = line {
+                if shared_on_line(pa, pb, vertical, at) > long_enough {
+                    let (ra, rb) = (find(&mut group, a), find(&mut group, b));
+                    group[ra] = rb;
                 }
-                let long = part.bounding_rect().map_or(0.0, |r| r.width().max(r.height()));
-                let sq = if long * long > 4.0 * width2 {
-                    let perimeter: f64 = std::iter::once(part.exterior()).chain(part.interiors()).map(|r| Euclidean.length(r)).sum();
-                    super::electrical::strip_squares(area, perimeter)
-                } else {
-                    area / width2
-                };
-                out.push((part, sq));
             }
         }
     }
+    let mut out: Vec<(Polygon, f64)> = Vec::new();
+    let roots: Vec<usize> = (0..parts.len()).map(|k| find(&mut group, k)).collect();
+    let mut done = vec![false; parts.len()];
+    for k in 0..parts.len() {
+        if done[roots[k]] {
+            continue;
+        }
+        done[roots[k]] = true;
+        let members: Vec<Polygon> = (0..parts.len()).filter(|&m| roots[m] == roots[k]).map(|m| parts[m].0.clone()).collect();
+        let joined = if members.len() == 1 { geom::region_of(members) } else { geom::union_all(members) };
+        for q in joined.0 {
+            let sq = geom::area(&q) / width2;
+            out.push((q, sq));
+        }
+    }
     out
+}
+
+/// How long the edges of `a` and `b` that lie on the tile line (`x = at` when
+/// `vertical`, else `y = at`) overlap.
+fn shared_on_line(a: &Polygon, b: &Polygon, vertical: bool, at: f64) -> f64 {
+    const ON: f64 = 1e-6;
+    let spans = |p: &Polygon| -> Vec<(f64, f64)> {
+        let ring = &p.exterior().0;
+        ring.windows(2)
+            .filter(|w| if vertical { (w[0].x - at).abs() < ON && (w[1].x - at).abs() < ON } else { (w[0].y - at).abs() < ON && (w[1].y - at).abs() < ON })
+            .map(|w| {
+                let (u, v) = if vertical { (w[0].y, w[1].y) } else { (w[0].x, w[1].x) };
+                (u.min(v), u.max(v))
+            })
+            .collect()
+    };
+    let (sa, sb) = (spans(a), spans(b));
+    sa.iter().flat_map(|x| sb.iter().map(move |y| (x.1.min(y.1) - x.0.max(y.0)).max(0.0))).sum()
 }
 
 fn node(plate: usize, outline: Polygon, squares: f64) -> Node {
@@ -349,6 +394,25 @@ mod tests {
         assert_eq!(ways(&parts, &[], &loads).map(|w| w.placed_mm2), Some(0.0));
         let parts = [PlatePart { wide: &wide, leads: &leads, pads: &[] }];
         assert_eq!(ways(&parts, &[], &loads), None);
+    }
+
+    /// A lead that runs along a tile line, split lengthwise into two strips by the
+    /// tiles, pays its own squares (0.1 mm wide, 5 mm long, centred on x = 1 mm: 50),
+    /// not the narrower strip's share; one cut across its middle by a tile line in y
+    /// only divides it in series.
+    #[test]
+    fn a_lead_along_a_tile_line_pays_its_own_squares() {
+        for (x0, x1) in [(0.95, 1.05), (0.98, 1.08), (1.2, 1.3)] {
+            let pad = rect(x0 - 0.5, -1.0, x1 + 0.5, 0.0);
+            let lead = rect(x0, 0.0, x1, 5.0);
+            let electrode = rect(x0 - 1.0, 5.0, x1 + 1.0, 7.0);
+            let wide = region_of([pad.clone(), electrode]);
+            let leads = [(lead, 50.0)];
+            let pads = [pad];
+            let parts = [PlatePart { wide: &wide, leads: &leads, pads: &pads }];
+            let w = ways(&parts, &[], &[]).unwrap();
+            assert!((w.farthest_squares - 50.0).abs() < 1e-6, "lead at x {x0}-{x1}: {w:?}");
+        }
     }
 
     /// A common's way crosses the plates at its transfer dot: a front lead of 6 squares
