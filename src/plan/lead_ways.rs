@@ -217,17 +217,16 @@ fn cut_into_tiles(p: &Polygon, squares: f64) -> Vec<(Polygon, f64)> {
         k
     }
     let long_enough = 2.0 * width2.sqrt();
+    // Each part meets only the parts of the tile east of its own and the tile north.
+    let mut in_tile: std::collections::HashMap<(i64, i64), Vec<usize>> = std::collections::HashMap::new();
+    for (k, (_, i, j)) in parts.iter().enumerate() {
+        in_tile.entry((*i, *j)).or_default().push(k);
+    }
     for a in 0..parts.len() {
-        for b in a + 1..parts.len() {
-            let ((pa, ia, ja), (pb, ib, jb)) = (&parts[a], &parts[b]);
-            let (ia, ja, ib, jb) = (*ia, *ja, *ib, *jb);
-            let line = match (ib - ia, jb - ja) {
-                (1, 0) | (-1, 0) => Some((true, ia.max(ib) as f64 * TILE)),
-                (0, 1) | (0, -1) => Some((false, ja.max(jb) as f64 * TILE)),
-                _ => None,
-            };
-            if let Some((vertical, at)) = line {
-                if shared_on_line(pa, pb, vertical, at) > long_enough {
+        let (i, j) = (parts[a].1, parts[a].2);
+        for (next, vertical, at) in [((i + 1, j), true, (i + 1) as f64 * TILE), ((i, j + 1), false, (j + 1) as f64 * TILE)] {
+            for &b in in_tile.get(&next).map(Vec::as_slice).unwrap_or(&[]) {
+                if shared_on_line(&parts[a].0, &parts[b].0, vertical, at) > long_enough {
                     let (ra, rb) = (find(&mut group, a), find(&mut group, b));
                     group[ra] = rb;
                 }
