@@ -247,17 +247,18 @@ pub fn render_preview(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
         doc = doc.add(layer_group(art, layer, &map, line));
     }
     doc = doc.add(pads(art, &map, line));
-    // The plates' labels stand at the same place above two glasses of the same corner;
-    // overlaid here, a label that would print over one already placed moves up a line.
-    let mut placed: Vec<(f64, f64, f64)> = Vec::new();
+    // The plates' labels stand above their glasses, at the same place when the glasses
+    // share a corner and a few millimetres apart when the ledge is on the left; overlaid
+    // here, a label whose text would meet one already placed moves up a line.
     let mut taken: Vec<PageBox> = Vec::new();
     for l in &art.labels {
         let (x, mut y) = map.apply(l.at);
-        while placed.iter().any(|&(px, py, ph)| (px - x).abs() < 1e-6 && (py - y).abs() < 1.2 * ph.max(l.height)) {
+        let width = TEXT_WIDTH_EM * l.height * l.text.chars().count() as f64;
+        let meets = |y: f64, b: &PageBox| x < b.2 && b.0 < x + width && y - l.height < b.3 && b.1 < y + 0.25 * l.height;
+        while taken.iter().any(|b| meets(y, b)) {
             y -= 1.4 * l.height;
         }
-        placed.push((x, y, l.height));
-        taken.push((x, y - l.height, x + TEXT_WIDTH_EM * l.height * l.text.chars().count() as f64, y + 0.25 * l.height));
+        taken.push((x, y - l.height, x + width, y + 0.25 * l.height));
         doc = doc.add(
             Text::new(l.text.as_str())
                 .set("x", num(x))

@@ -327,6 +327,12 @@ fn side_pads_at_a_row_of_four_digits_say_to_move_the_pads() {
     assert_eq!(lines.len(), 1, "{err}");
     assert!(lines[0].contains("COM1 behind T2.a"), "{}", lines[0]);
     assert!(lines[0].contains("put the pads on the top or bottom side (`pads.side`)"), "{}", lines[0]);
+    // The preview is written all the same; with the back glass 4 mm right of the front
+    // glass's edge, the two plates' names must still not print over each other.
+    let svg = std::fs::read_to_string(dir.path().join("out/kiln-controller.preview.svg")).unwrap();
+    let labels = crate::preview_labels::plate_labels(&svg);
+    assert_eq!(labels.len(), 2, "{labels:?}");
+    assert!(!crate::preview_labels::labels_meet(&labels[0], &labels[1]), "{labels:?}");
 }
 
 /// Three multiplexed rows, one behind another as seen from the pads, are refused by the
