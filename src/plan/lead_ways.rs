@@ -42,8 +42,8 @@ pub struct PlatePart<'a> {
     pub pads: &'a [Polygon],
 }
 
-/// A part of the line the ways run through: an electrode (the ITO left when the leads
-/// are taken away: segments, common pieces, pads, dots) or a lead piece.
+/// A part of the line the ways run through: a wide part (segment, common piece, dot), a
+/// pad, or a lead's part in one tile.
 struct Node {
     plate: usize,
     outline: Polygon,
@@ -70,11 +70,11 @@ pub struct Ways {
 /// (a pixel's), and its area in mm².
 pub type Load = (usize, Pt, f64);
 
-/// The ways from `pads` through the line: each part of it (electrode or cut lead)
+/// The ways from the line's pads through it: each part of it (wide part or cut lead)
 /// reached the way that pays the fewest squares, a lead part paying its squares whole
 /// on entry, and Elmore's sum at each part over that tree of ways with the `loads` on
-/// the electrodes that hold their points. `None` when no part of the line meets a pad
-/// (the plan then keeps the sum of every branch).
+/// the wide parts that hold their points. `None` when the line has no pad (the plan
+/// then keeps the sum of every branch).
 ///
 /// Both figures bound the line's own from above: a lead part counted whole costs at
 /// least what a way through it pays, and a tree of ways taken out of a line with loops
@@ -103,8 +103,8 @@ pub fn ways(parts: &[PlatePart<'_>], dots: &[Polygon], loads: &[Load]) -> Option
         }
     }
     let links = touching(&nodes, dots);
-    // Dijkstra (1959) from every electrode that meets a pad, a node's entry paying its
-    // squares; the order nodes are settled in, and the one each was reached from.
+    // Dijkstra (1959) from the pads, a node's entry paying its squares; the order nodes
+    // are settled in, and the one each was reached from.
     let mut dist = vec![f64::INFINITY; nodes.len()];
     let mut parent = vec![usize::MAX; nodes.len()];
     let mut settled = Vec::new();
