@@ -254,11 +254,11 @@ pub fn render_preview(art: &Artwork, findings: &[Finding]) -> Result<Vec<u8>> {
     for l in &art.labels {
         let (x, mut y) = map.apply(l.at);
         let width = TEXT_WIDTH_EM * l.height * l.text.chars().count() as f64;
-        let meets = |y: f64, b: &PageBox| x < b.2 && b.0 < x + width && y - l.height < b.3 && b.1 < y + 0.25 * l.height;
-        while taken.iter().any(|b| meets(y, b)) {
+        let text_box = |y: f64| (x, y - l.height, x + width, y + 0.25 * l.height);
+        while taken.iter().any(|b| boxes_meet(&text_box(y), b)) {
             y -= 1.4 * l.height;
         }
-        taken.push((x, y - l.height, x + width, y + 0.25 * l.height));
+        taken.push(text_box(y));
         doc = doc.add(
             Text::new(l.text.as_str())
                 .set("x", num(x))

@@ -40,12 +40,21 @@ fn plate_labels_never_print_over_each_other_in_a_preview() {
     assert!(shared_top > 0, "no demo puts both labels at one x: the test would not see an overlap");
 }
 
-/// Whether two plate labels (x, baseline y, height, text) print over each other: their
-/// text boxes, estimated as in `finding_codes_never_print_over_plate_labels` below, meet.
+/// A plate label's (x, baseline y, height, text) box (x0, y0, x1, y1), estimated as
+/// `finding_codes_never_print_over_plate_labels` below says: from its baseline up one
+/// font size, 0.55 font sizes per character.
+fn label_box(l: &(f64, f64, f64, String)) -> (f64, f64, f64, f64) {
+    (l.0, l.1 - l.2, l.0 + 0.55 * l.2 * l.3.chars().count() as f64, l.1)
+}
+
+/// Whether two boxes (x0, y0, x1, y1) overlap.
+fn boxes_meet(a: (f64, f64, f64, f64), b: (f64, f64, f64, f64)) -> bool {
+    a.0 < b.2 && b.0 < a.2 && a.1 < b.3 && b.1 < a.3
+}
+
+/// Whether two plate labels print over each other: their text boxes meet.
 pub fn labels_meet(a: &(f64, f64, f64, String), b: &(f64, f64, f64, String)) -> bool {
-    let bx = |l: &(f64, f64, f64, String)| (l.0, l.1 - l.2, l.0 + 0.55 * l.2 * l.3.chars().count() as f64, l.1);
-    let (p, q) = (bx(a), bx(b));
-    p.0 < q.2 && q.0 < p.2 && p.1 < q.3 && q.1 < p.3
+    boxes_meet(label_box(a), label_box(b))
 }
 
 /// A finding's rule code, printed centred above its circle, never prints over a plate's
@@ -60,10 +69,7 @@ fn finding_codes_never_print_over_plate_labels() {
     for name in demo_names() {
         let (_dir, out) = build_demo(&name);
         let svg = std::fs::read_to_string(out.join(format!("{name}.preview.svg"))).unwrap();
-        let plates: Vec<(f64, f64, f64, f64)> = plate_labels(&svg)
-            .into_iter()
-            .map(|(x, y, h, t)| (x, y - h, x + 0.55 * h * t.chars().count() as f64, y))
-            .collect();
+        let plates: Vec<(f64, f64, f64, f64)> = plate_labels(&svg).iter().map(label_box).collect();
         let Some(group) = svg.split("<g id=\"findings\">").nth(1).map(|g| g.split("</g>").next().unwrap().to_string()) else { continue };
         let circles: Vec<(f64, f64)> = group
             .split("<circle")
@@ -80,8 +86,7 @@ fn finding_codes_never_print_over_plate_labels() {
             let half = 0.55 * h * code.chars().count() as f64 / 2.0;
             let b = (x - half, y - h / 2.0, x + half, y + h / 2.0);
             for p in &plates {
-                let meet = b.0 < p.2 && p.0 < b.2 && b.1 < p.3 && p.1 < b.3;
-                assert!(!meet, "{name}: `{code}` at ({x:.2}, {y:.2}) prints over a plate label {p:?}");
+                assert!(!boxes_meet(b, *p), "{name}: `{code}` at ({x:.2}, {y:.2}) prints over a plate label {p:?}");
             }
         }
     }
