@@ -231,6 +231,43 @@ impl Grid {
         self.for_spans_near(region, d, |r, c0, c1| (c0..=c1).for_each(|c| f(r * nx + c)));
     }
 
+    /// Calls `f`, row by row and left to right, with every cell whose centre lies inside
+    /// `region` and more than `d` from its boundary: the cells of the region shrunk by a
+    /// disc of radius `d`, exactly, without building the shrunk polygon (an offset with
+    /// round joins and a boolean per piece). The region's cells are marked in a bitmap
+    /// over their own box, and each edge's capsule of radius `d` unmarks its cells, so the
+    /// work follows the region's cells and its perimeter, not the glass.
+    pub fn for_cells_inward(&self, region: &Region, d: f64, mut f: impl FnMut(usize)) {
+        let mut spans = Vec::new();
+        self.for_spans_in(region, |r, c0, c1| spans.push((r, c0, c1)));
+        let Some(&(r_lo, _, _)) = spans.first() else { return };
+        let r_hi = spans.iter().map(|s| s.0).max().unwrap_or(r_lo);
+        let c_lo = spans.iter().map(|s| s.1).min().unwrap_or(0);
+        let c_hi = spans.iter().map(|s| s.2).max().unwrap_or(c_lo);
+        let w = c_hi - c_lo + 1;
+        let mut inside = vec![false; (r_hi - r_lo + 1) * w];
+        for &(r, c0, c1) in &spans {
+            inside[(r - r_lo) * w + c0 - c_lo..=(r - r_lo) * w + c1 - c_lo].fill(true);
+        }
+        let mut clear = |r: usize, c0: usize, c1: usize| {
+            if r < r_lo || r > r_hi || c1 < c_lo || c0 > c_hi {
+                return;
+            }
+            let row = (r - r_lo) * w;
+            inside[row + c0.max(c_lo) - c_lo..=row + c1.min(c_hi) - c_lo].fill(false);
+        };
+        for p in &region.0 {
+            for ring in std::iter::once(p.exterior()).chain(p.interiors()) {
+                for e in ring.0.windows(2) {
+                    self.for_capsule_spans(e[0], e[1], d, &mut clear);
+                }
+            }
+        }
+        for (k, _) in inside.iter().enumerate().filter(|(_, v)| **v) {
+            f((r_lo + k / w) * self.nx + c_lo + k % w);
+        }
+    }
+
     /// [`Grid::for_cells_near`] by runs of cells in a row (row, first column, last
     /// column); runs may overlap.
     pub fn for_spans_near(&self, region: &Region, d: f64, mut f: impl FnMut(usize, usize, usize)) {
@@ -471,6 +508,41 @@ mod tests {
             }
         }
         assert!(checked > 10_000);
+    }
+
+    /// Cells inward of a region are those whose centres lie inside it and more than `d`
+    /// from its boundary: against geo's `Contains` and Euclidean distance from every cell
+    /// centre to the polygon's rings, for the L-shape with a slanted edge and a hole,
+    /// away from the exact distance `d` by more than 1e-9; they come in row-major order.
+    #[test]
+    fn cells_inward_are_those_inside_beyond_the_distance() {
+        use geo::{Contains, Distance, Euclidean};
+        let g = Grid::new(-2.0, -2.0, 8.0, 8.0, 0.05);
+        let l = geo::Polygon::new(
+            geo::LineString::from(vec![(0.0, 0.0), (4.0, 0.0), (4.0, 1.3), (1.7, 2.9), (1.2, 5.0), (0.0, 5.0), (0.0, 0.0)]),
+            vec![geo::LineString::from(vec![(0.5, 0.5), (0.5, 1.0), (1.5, 1.0), (1.5, 0.5), (0.5, 0.5)])],
+        );
+        let region = region_of([l.clone()]);
+        let d = 0.37;
+        let mut got = vec![false; g.nx * g.ny];
+        let mut order = Vec::new();
+        g.for_cells_inward(&region, d, |i| {
+            got[i] = true;
+            order.push(i);
+        });
+        assert!(order.windows(2).all(|w| w[0] < w[1]));
+        let rings: Vec<geo::LineString> = std::iter::once(l.exterior().clone()).chain(l.interiors().iter().cloned()).collect();
+        let (mut checked, mut kept) = (0, 0);
+        for (i, &inward) in got.iter().enumerate() {
+            let c = geo::Point(g.centre(i));
+            let dist = rings.iter().map(|r| Euclidean.distance(&c, r)).fold(f64::INFINITY, f64::min);
+            if (dist - d).abs() > 1e-9 {
+                assert_eq!(inward, l.contains(&c) && dist > d, "cell at {c:?}, distance {dist}");
+                checked += 1;
+                kept += usize::from(inward);
+            }
+        }
+        assert!(checked > 10_000 && kept > 500, "{checked} checked, {kept} inward");
     }
 
     #[test]
