@@ -102,7 +102,7 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
                 problems.push(layout.problem(
                     &format!("{}.decimal_points", g.key),
                     format!(
-                        "the decimal point after digit {i} comes within {d:.4} mm of a segment; the gap is {:.4} mm",
+                        "the decimal point after digit {i} comes within {d:.3} mm of a segment; the gap is {:.3} mm",
                         g.gap
                     ),
                     Some(fix),
@@ -118,7 +118,7 @@ pub fn build_group(layout: &Layout, fonts: &Fonts, g: &DigitGroup) -> Result<Vec
                 problems.push(layout.problem(
                     &format!("{}.colons", g.key),
                     format!(
-                        "the colon after digit {i} comes within {d:.4} mm of a segment or dot; the gap is {} mm",
+                        "the colon after digit {i} comes within {d:.3} mm of a segment or dot; the gap is {:.3} mm",
                         g.gap
                     ),
                     Some("a larger pitch, or a thinner stroke".into()),

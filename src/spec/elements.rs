@@ -75,6 +75,25 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, common
             &format!("at least {}; leave `gap` out for {}, which gives the router room", mm(three_leads), mm(rules.centre_gap())),
         );
     }
+    // A gap as wide as the stroke leaves no segment ends to tell apart; the default gap
+    // grows with the rules (coarse film rules and fourteen segments give more than a
+    // millimetre), so the message says where it came from and what to change.
+    if p.clean(&[&k("gap"), &k("stroke"), &k("height")]) && gap >= stroke - 1e-9 {
+        if d.gap.is_some() {
+            p.bad(&k("gap"), format!("gap {} is not narrower than the stroke {}", mm(gap), mm(stroke)), &format!("0 to less than {}", mm(stroke)));
+        } else {
+            let why = if style == DigitStyle::Fourteen && commons > 1 {
+                format!("three {} leads side by side with {} gaps, and routing slack", mm(rules.lead_width), mm(rules.min_gap))
+            } else {
+                format!("a {} lead with a {} gap on each side, and routing slack", mm(rules.lead_width), mm(rules.min_gap))
+            };
+            p.bad(
+                &k("stroke"),
+                format!("stroke {} is not wider than the gap these rules give the segments by default, {} ({why})", mm(stroke), mm(gap)),
+                &format!("a stroke above {} (in a digit large enough for it), finer `rules`, or a `gap` of your own below the stroke", mm(gap)),
+            );
+        }
+    }
     let count_u = super::resolve::clamp_u32(count);
     let decimal_points = indices(p, d.decimal_points.as_ref(), &k("decimal_points"), count_u);
     let colons = indices(p, d.colons.as_ref(), &k("colons"), count_u);

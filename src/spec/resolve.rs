@@ -176,7 +176,45 @@ pub fn rules(p: &mut Problems, r: Option<&RawRules>, process: Process) -> Rules 
             &format!("at least {}", mm(lead_default)),
         );
     }
+    film_holds_the_rules(p, &rules, r.is_some_and(|r| r.lead_width.is_some()));
     rules
+}
+
+/// Leads drawn at `lead_width` and gaps drawn at `min_gap` are what segmask draws most
+/// of: where the film cannot hold them, every lead or every close pair of leads would
+/// come out as its own `film-feature` error after the whole build (72 of them for a
+/// four-digit panel), so the rules are refused here, once, at the key to change.
+fn film_holds_the_rules(p: &mut Problems, rules: &Rules, lead_given: bool) {
+    if !p.clean(&["rules"]) {
+        return;
+    }
+    let holds = rules.film_min_feature;
+    // With compensation the film's features differ from the drawing: say both.
+    let on_film = |w: f64| if rules.film_bias() == 0.0 { String::new() } else { format!(" (on the film {})", mm(w)) };
+    let film_lead = rules.film_width(rules.lead_width);
+    if film_lead < holds - 1e-9 {
+        let (key, change) = if lead_given {
+            ("rules.lead_width", format!("a `lead_width` of at least {}", mm(holds - 2.0 * rules.film_bias())))
+        } else {
+            // The default lead is min_width grown by the undercut on each side (or
+            // min_width itself when the film compensates).
+            let grow = rules.lead_width - rules.min_width;
+            ("rules.min_width", format!("a `min_width` of at least {} (leads are drawn {} wider)", mm(holds - 2.0 * rules.film_bias() - grow), mm(grow)))
+        };
+        p.bad(
+            key,
+            format!("leads drawn {} wide{} are finer than the {} the film holds (`rules.film_min_feature`)", mm(rules.lead_width), on_film(film_lead), mm(holds)),
+            &format!("{change}, or a finer `masks.process`"),
+        );
+    }
+    let film_space = rules.film_gap(rules.min_gap);
+    if film_space < holds - 1e-9 {
+        p.bad(
+            "rules.min_gap",
+            format!("gaps drawn {} wide{} are finer than the {} the film holds (`rules.film_min_feature`)", mm(rules.min_gap), on_film(film_space), mm(holds)),
+            &format!("at least {}, or a finer `masks.process`", mm(holds + 2.0 * rules.film_bias())),
+        );
+    }
 }
 
 /// `seal:`; the fill port defaults to the side opposite the pads (with a second pad row
