@@ -246,6 +246,13 @@ impl Rules {
         3.0 * self.lead_width + 4.0 * self.min_gap + 6.0 * self.grid_step()
     }
 
+    /// The default gap between the segments of a digit of `style` at `commons` commons:
+    /// [`Rules::centre_gap`] for fourteen-segment digits under multiplexed drive, else
+    /// [`Rules::passing_gap`].
+    pub fn digit_gap(&self, style: DigitStyle, commons: u32) -> f64 {
+        if style == DigitStyle::Fourteen && commons > 1 { self.centre_gap() } else { self.passing_gap() }
+    }
+
     /// How much each edge moves on the film relative to the drawing (the undercut when
     /// compensating, else 0).
     pub fn film_bias(&self) -> f64 {

@@ -59,7 +59,7 @@ fn digit_group(p: &mut Problems, d: &RawDigits, key: &str, rules: &Rules, common
     let stroke = p.length(d.stroke.as_ref(), &k("stroke"), Some(height / 10.0), Sign::Positive);
     // Multiplexed, three leads cross the centre of a fourteen-segment digit side by side
     // (`assign::template::fourteen_segment`).
-    let gap_default = if style == DigitStyle::Fourteen && commons > 1 { rules.centre_gap() } else { rules.passing_gap() };
+    let gap_default = rules.digit_gap(style, commons);
     let gap = p.length(d.gap.as_ref(), &k("gap"), Some(gap_default), Sign::NonNegative);
     let three_leads = 3.0 * rules.lead_width + 4.0 * rules.min_gap;
     if style == DigitStyle::Fourteen && commons > 1 && gap < three_leads - 1e-9 && p.clean(&[&k("gap")]) {
