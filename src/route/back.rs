@@ -328,42 +328,10 @@ fn by_cause(layout: &Layout, el: &Electrodes, commons: &[Common], islands: &[Stu
             if side_pads_fence(layout, el, &behind_all) {
                 f.message.push_str(SIDE_PADS_FIX);
             }
-            for fix in narrow_gap_fixes(layout, el, &behind_all) {
+            for fix in super::gap_fixes::narrow_gap_fixes(layout, el, &behind_all, super::gap_fixes::Through::Junctions) {
                 f.message.push_str(&fix);
             }
             f
-        })
-        .collect()
-}
-
-/// What to change where the digit groups behind a cut-off common have their segments
-/// closer than the rules' default gap ([`crate::layout::Rules::digit_gap`]) under
-/// multiplexed drive: the commons' leads pass through the digits' junctions, between
-/// the back electrodes of two other commons, and the gap written in the layout leaves
-/// them no room at these rules. Measured: the kiln demo under 0.12/0.1 mm rules with 8 µm
-/// undercut keeps its 0.35 mm gap and leaves COM1 cut off behind every digit; with the
-/// default of those rules, 0.54 mm, it builds clean.
-fn narrow_gap_fixes(layout: &Layout, el: &Electrodes, behind: &[usize]) -> Vec<String> {
-    if layout.drive.commons < 2 {
-        return Vec::new();
-    }
-    let r = &layout.rules;
-    layout
-        .digits
-        .iter()
-        .filter(|g| behind.iter().any(|&i| el.elements[i].key == g.key))
-        .filter_map(|g| {
-            let want = r.digit_gap(g.style, layout.drive.commons);
-            (g.gap < want - 1e-9).then(|| {
-                let line = crate::layout::key_line(&layout.key_lines, &format!("{}.gap", g.key)).map(|l| format!(" (line {l})")).unwrap_or_default();
-                format!(
-                    "; the segments of `{key}` are {gap:.3} mm apart{line}, narrower than the {want:.3} mm these rules give a digit for the commons' leads to pass through its junctions (a {lead:.3} mm lead with {min:.3} mm gaps and routing slack): widen `{key}.gap` to {want:.3} mm, or leave it out",
-                    key = g.key,
-                    gap = g.gap,
-                    lead = r.lead_width,
-                    min = r.min_gap,
-                )
-            })
         })
         .collect()
 }

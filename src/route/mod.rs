@@ -25,6 +25,7 @@ pub mod corridor;
 pub mod dots;
 pub mod escape;
 pub mod fanout;
+pub mod gap_fixes;
 pub mod grid;
 pub mod open_list;
 pub mod pages;
@@ -123,6 +124,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let mut findings = Vec::new();
     let far_frame = SideFrame::opposite(layout);
     let mut escapes = escape::escape_all(layout, el, &frame, &far_frame, &mut findings);
+    gap_fixes::explain_stuck_seg_nets(layout, el, &mut findings);
     let extra = dots::far_tier_dots(el.coms.len(), el.assignment.far.iter().any(|f| *f), layout.pads.side);
     let second = layout.pads.second_row.as_deref();
     // Without a second pad row the far tier's leads go round the seal to the pad side

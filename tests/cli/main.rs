@@ -27,6 +27,7 @@ mod emit_gds;
 mod emit_segmap;
 mod film_text;
 mod findings;
+mod gap_hints;
 mod line_delay;
 mod firmware_tables;
 mod fuzz_bounded;
