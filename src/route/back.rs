@@ -49,11 +49,11 @@ struct Common {
     owner: u32,
     islands: Vec<Region>,
     /// Per island, the cells where a lead may end on it ([`landing_area`]).
-    landings: Vec<Vec<usize>>,
+    landings: Vec<CellRuns>,
     /// Its transfer dots' pads (the far tier's commons may have two).
     dots: Vec<Polygon>,
     /// Per dot, the cells where a lead may end on it.
-    dot_landings: Vec<Vec<usize>>,
+    dot_landings: Vec<CellRuns>,
 }
 
 /// An island that could not be joined: its common, the island and what blocked it.
@@ -364,8 +364,8 @@ fn side_pads_fence(layout: &Layout, el: &Electrodes, behind: &[usize]) -> bool {
 /// lead lies inside (a lead ending on the edge leaves part of its end outside, a notch
 /// narrower than the lead — 0.1617 mm for a 0.17 mm lead under laser-film rules); all its
 /// usable cells when it is too small for that.
-fn landing_cells(grid: &Grid, piece: &Region, inner: &[usize], usable: impl Fn(usize) -> bool) -> Vec<usize> {
-    let mut cells: Vec<usize> = inner.iter().copied().filter(|&i| usable(i)).collect();
+fn landing_cells(grid: &Grid, piece: &Region, inner: &CellRuns, usable: impl Fn(usize) -> bool) -> Vec<usize> {
+    let mut cells: Vec<usize> = inner.cells().filter(|&i| usable(i)).collect();
     if cells.is_empty() {
         grid.for_cells_in(piece, |i| {
             if usable(i) {
@@ -380,10 +380,32 @@ fn landing_cells(grid: &Grid, piece: &Region, inner: &[usize], usable: impl Fn(u
 /// than half a lead width in from its edge, found on the grid ([`Grid::for_cells_inward`]).
 /// The shrunk polygon they were taken from before (an offset with round joins per
 /// island) was a sixth of the route's CPU on the two-row benchmark.
-fn landing_area(layout: &Layout, frame: &Grid, piece: &Region) -> Vec<usize> {
-    let mut cells = Vec::new();
-    frame.for_cells_inward(piece, layout.rules.lead_width / 2.0, |i| cells.push(i));
-    cells
+fn landing_area(layout: &Layout, frame: &Grid, piece: &Region) -> CellRuns {
+    let mut runs = CellRuns::default();
+    frame.for_cells_inward(piece, layout.rules.lead_width / 2.0, |i| runs.push(i));
+    runs
+}
+
+/// Cells kept as runs of consecutive indices (first cell, count), pushed in increasing
+/// order: every island's landing cells are held through the whole back plate, and as
+/// one index each they raised the two-row benchmark's peak memory by 18 MB. A cell
+/// index fits 32 bits: the grid holds at most 64 million cells (`spec::limits`).
+#[derive(Debug, Clone, Default)]
+struct CellRuns(Vec<(u32, u32)>);
+
+impl CellRuns {
+    fn push(&mut self, i: usize) {
+        let i = i as u32;
+        match self.0.last_mut() {
+            Some((first, n)) if *first + *n == i => *n += 1,
+            _ => self.0.push((i, 1)),
+        }
+    }
+
+    /// The cells in increasing order.
+    fn cells(&self) -> impl Iterator<Item = usize> + '_ {
+        self.0.iter().flat_map(|&(first, n)| (first..first + n).map(|i| i as usize))
+    }
 }
 
 /// The places a common's failed joins found shut in, each with the nets that close it
@@ -595,5 +617,20 @@ mod tests {
         g.set_cost(closed_inside, f32::INFINITY);
         assert!(shut.blockers_around(&g, 1, &[a, closed_outside]).is_none(), "a closed cell whose neighbours lie outside");
         assert!(shut.blockers_around(&g, 1, &[a, closed_inside]).is_some(), "a closed cell inside");
+    }
+
+    /// Cells pushed in increasing order come back as pushed, held as runs of
+    /// consecutive indices (a gap, a single cell and a run across a row's end each start
+    /// a new run only where the next index is not the one after).
+    #[test]
+    fn cell_runs_give_back_the_cells_pushed() {
+        let pushed = [3, 4, 5, 9, 11, 12, 99, 100, 101, 102];
+        let mut runs = CellRuns::default();
+        for &i in &pushed {
+            runs.push(i);
+        }
+        assert_eq!(runs.0, [(3, 3), (9, 1), (11, 2), (99, 4)]);
+        assert_eq!(runs.cells().collect::<Vec<_>>(), pushed);
+        assert_eq!(CellRuns::default().cells().count(), 0);
     }
 }
