@@ -482,6 +482,14 @@ mod tests {
         assert!((0..none.nx * none.ny).all(|i| none.owner(i) == BLOCKED));
     }
 
+    /// An L-shape with a slanted edge and a square hole, 4 × 5 mm.
+    fn l_shape_with_hole() -> geo::Polygon {
+        geo::Polygon::new(
+            geo::LineString::from(vec![(0.0, 0.0), (4.0, 0.0), (4.0, 1.3), (1.7, 2.9), (1.2, 5.0), (0.0, 5.0), (0.0, 0.0)]),
+            vec![geo::LineString::from(vec![(0.5, 0.5), (0.5, 1.0), (1.5, 1.0), (1.5, 0.5), (0.5, 0.5)])],
+        )
+    }
+
     /// Cells near a region are those whose centres lie within `d` of it: against geo's
     /// Euclidean distance from every cell centre to the polygons (zero inside), for an
     /// L-shape with a slanted edge and a hole, away from the exact distance `d` by more
@@ -490,10 +498,7 @@ mod tests {
     fn cells_near_are_those_within_the_distance() {
         use geo::{Distance, Euclidean};
         let g = Grid::new(-2.0, -2.0, 8.0, 8.0, 0.05);
-        let l = geo::Polygon::new(
-            geo::LineString::from(vec![(0.0, 0.0), (4.0, 0.0), (4.0, 1.3), (1.7, 2.9), (1.2, 5.0), (0.0, 5.0), (0.0, 0.0)]),
-            vec![geo::LineString::from(vec![(0.5, 0.5), (0.5, 1.0), (1.5, 1.0), (1.5, 0.5), (0.5, 0.5)])],
-        );
+        let l = l_shape_with_hole();
         let region = region_of([l.clone()]);
         let d = 0.37;
         let mut got = vec![false; g.nx * g.ny];
@@ -518,10 +523,7 @@ mod tests {
     fn cells_inward_are_those_inside_beyond_the_distance() {
         use geo::{Contains, Distance, Euclidean};
         let g = Grid::new(-2.0, -2.0, 8.0, 8.0, 0.05);
-        let l = geo::Polygon::new(
-            geo::LineString::from(vec![(0.0, 0.0), (4.0, 0.0), (4.0, 1.3), (1.7, 2.9), (1.2, 5.0), (0.0, 5.0), (0.0, 0.0)]),
-            vec![geo::LineString::from(vec![(0.5, 0.5), (0.5, 1.0), (1.5, 1.0), (1.5, 0.5), (0.5, 0.5)])],
-        );
+        let l = l_shape_with_hole();
         let region = region_of([l.clone()]);
         let d = 0.37;
         let mut got = vec![false; g.nx * g.ny];
