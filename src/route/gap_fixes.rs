@@ -59,7 +59,7 @@ pub fn narrow_gap_fixes(layout: &Layout, el: &Electrodes, elements: &[usize], th
 }
 
 /// Appends to every front-plate `unroutable` finding of a SEG net the clauses for the
-/// digit groups its elements belong to.
+/// digit groups and bar graphs of its elements and of the nets named as blocking it.
 pub fn explain_stuck_seg_nets(layout: &Layout, el: &Electrodes, findings: &mut [crate::finding::Finding]) {
     use crate::finding::Rule;
     use crate::layout::PlateId;
