@@ -293,9 +293,10 @@ impl Corridors {
                 }
                 self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
                 self.parent[t] = t as u32;
-                open.push(Open::new(self.h[t], t as u32));
+                open.push_unordered(Open::new(self.h[t], t as u32));
             }
         }
+        open.order();
         let step = TILE as f32;
         while let Some(entry) = open.pop() {
             let (f, tile) = (entry.f(), entry.cell());

@@ -243,9 +243,10 @@ impl Search {
                     self.open = open;
                     return Err(Blocked { blockers: Vec::new(), nearest: s, over_budget: true, shut_in: Vec::new() });
                 }
-                open.push(Open::new(h, s as u32));
+                open.push_unordered(Open::new(h, s as u32));
             }
         }
+        open.order();
         let mut over_budget = false;
         while let Some(entry) = open.pop() {
             let (f, cell) = (entry.f(), entry.cell());
