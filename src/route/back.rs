@@ -174,14 +174,14 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         }
         // A common's own claims leave what it may use as it was.
         corridors.keep_factors_for(c.owner);
-        let mut grow = Growth { tree_cells: seeds.clone(), seeds, seed_tiles: Default::default() };
+        let mut grow = Growth { tree_cells: seeds.iter().map(|&i| i as u32).collect(), seeds, seed_tiles: Default::default() };
         let left = grow_tree(layout, &mut grid, search, &mut corridors, c, &mut grow, &mut out);
         // The tree as a goal only for the islands the growth could not reach (most often
         // none): kept as it grew, it cost an R-tree insertion per tile of every island.
         tree.clear();
         if !left.is_empty() {
             for &i in &grow.tree_cells {
-                tree.add(i);
+                tree.add(i as usize);
             }
         }
         let mut ok = true;
@@ -214,8 +214,9 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
 /// and every cell of the tree, from which the fallback joins' goal is made.
 struct Growth {
     seeds: Vec<usize>,
-    /// Every cell of the tree, in the order it grew.
-    tree_cells: Vec<usize>,
+    /// Every cell of the tree, in the order it grew (as `u32`, as the searches keep
+    /// cells: hundreds of thousands per common on a large glass).
+    tree_cells: Vec<u32>,
     /// Corridor tiles that hold a seed already.
     seed_tiles: super::TileSet<usize>,
 }
@@ -233,7 +234,7 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         .zip(&c.landings)
         .map(|(isl, inner)| landing_cells(grid, isl, inner, |i| grid.owner(i) == c.owner || grid.owner(i) == super::grid::FREE))
         .collect();
-    let mut pending = Pending::new(grid, &ends);
+    let mut pending = Pending::new(grid, ends);
     while pending.any() {
         let Ok(path) = find_guided_or_give_up(search, corridors, &Ask { grid, owner: c.owner, sources: &g.seeds, goal: &pending }) else { break };
         let Some(k) = path.last().and_then(|&e| pending.island_at(e)) else { break };
@@ -241,8 +242,8 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         let tiles = corridors.tiles();
         // Neighbouring cells mostly share a tile, which then needs no hashing.
         let mut last = usize::MAX;
-        for &i in path.iter().chain(&ends[k]) {
-            g.tree_cells.push(i);
+        for &i in path.iter().chain(pending.ends(k)) {
+            g.tree_cells.push(i as u32);
             let t = tiles.tile_index(i);
             if t != last && g.seed_tiles.insert(t) {
                 g.seeds.push(i);

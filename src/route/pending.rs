@@ -11,7 +11,7 @@
 use super::corridor::{Goal, TILE, TileGeom};
 use super::grid::Grid;
 use super::target::TileBound;
-use super::pages::{PageGeom, Scratch};
+use super::pages::{PageGeom, PagedCells};
 use rstar::primitives::{GeomWithData, Rectangle};
 use rstar::{PointDistance, RTree};
 use super::TileMap;
@@ -20,10 +20,12 @@ type Boxed = GeomWithData<Rectangle<[f64; 2]>, usize>;
 
 /// The islands of one common still to join, as a search goal.
 pub struct Pending {
-    nx: usize,
     /// Each island's landing cells.
     ends: Vec<Vec<usize>>,
-    island_of: Scratch<u32>,
+    /// Per cell, the island it is a landing cell of (`u32::MAX` for none): stored by page
+    /// only where islands lie, one value per cell (a search's scratch pages, used here
+    /// before, carry a stamp per cell as well, twice the memory for a map set once).
+    island_of: PagedCells<u32>,
     waiting: Vec<bool>,
     boxes: Vec<Option<Boxed>>,
     by_tile: TileMap<(usize, usize), Vec<usize>>,
@@ -35,11 +37,10 @@ pub struct Pending {
 
 impl Pending {
     /// The islands given by their landing cells (an island without any is never waited
-    /// for).
-    pub fn new(grid: &Grid, ends: &[Vec<usize>]) -> Pending {
+    /// for); kept, and lent out by [`Pending::ends`].
+    pub fn new(grid: &Grid, ends: Vec<Vec<usize>>) -> Pending {
         let nx = grid.nx;
-        let mut island_of = Scratch::new(PageGeom::of(grid.nx, grid.ny), u32::MAX);
-        island_of.next_search();
+        let mut island_of = PagedCells::new(PageGeom::of(grid.nx, grid.ny), u32::MAX);
         let mut by_tile: TileMap<(usize, usize), Vec<usize>> = TileMap::default();
         let mut boxes = Vec::with_capacity(ends.len());
         for (k, cells) in ends.iter().enumerate() {
@@ -49,9 +50,7 @@ impl Pending {
             let mut last_tile = None;
             for &c in cells {
                 let (x, y) = (c % nx, c / nx);
-                // Over the page budget the cell is left out: the search then ends on the
-                // island's other cells.
-                let _ = island_of.set(x, y, k as u32);
+                island_of.set(c, k as u32);
                 let tile = (x / TILE, y / TILE);
                 if last_tile != Some(tile) {
                     last_tile = Some(tile);
@@ -72,8 +71,7 @@ impl Pending {
         let index = RTree::bulk_load(boxes.iter().flatten().cloned().collect());
         let waiting = boxes.iter().map(Option::is_some).collect();
         Pending {
-            nx,
-            ends: ends.to_vec(),
+            ends,
             island_of,
             waiting,
             boxes,
@@ -81,6 +79,11 @@ impl Pending {
             index,
             bound: TileBound::new(grid),
         }
+    }
+
+    /// The landing cells of island `k`.
+    pub fn ends(&self, k: usize) -> &[usize] {
+        &self.ends[k]
     }
 
     /// Whether any island is still waiting.
@@ -97,7 +100,7 @@ impl Pending {
 
     /// The waiting island cell `c` lands on, if any.
     pub fn island_at(&self, c: usize) -> Option<usize> {
-        let k = self.island_of.get(c % self.nx, c / self.nx)? as usize;
+        let k = self.island_of.get(c) as usize;
         (k < self.waiting.len() && self.waiting[k]).then_some(k)
     }
 
@@ -137,8 +140,8 @@ impl Goal for Pending {
     fn kept_bound(&self, c: usize) -> Option<f32> {
         self.bound.kept(c)
     }
-    /// The waiting islands' landing cells (those over the page budget left out, as
-    /// [`Goal::is_goal`] leaves them out).
+    /// The waiting islands' landing cells (a cell of two islands counted with the later
+    /// one, as [`Goal::is_goal`] counts it).
     fn cells(&self) -> Option<Vec<usize>> {
         let waiting = self.ends.iter().enumerate().filter(|(k, _)| self.waiting[*k]);
         Some(waiting.flat_map(|(_, cells)| cells.iter().copied().filter(|&c| self.island_at(c).is_some())).collect())
@@ -166,7 +169,7 @@ mod tests {
             cells(&g, 7.0, 7.0, 8.0, 8.0),
             Vec::new(),
         ];
-        let mut p = Pending::new(&g, &ends);
+        let mut p = Pending::new(&g, ends);
         let a = g.index_of(pt(1.5, 1.5)).unwrap();
         let b = g.index_of(pt(7.5, 7.5)).unwrap();
         let near_a = g.index_of(pt(2.5, 1.5)).unwrap();
