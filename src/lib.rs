@@ -25,6 +25,7 @@ pub mod firmware;
 pub mod geom;
 pub mod glyph;
 pub mod layout;
+pub mod memory;
 pub mod pipeline;
 pub mod plan;
 pub mod plate;

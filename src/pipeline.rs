@@ -40,20 +40,6 @@ pub fn build_layout_file_with(path: &Path, opts: &crate::spec::InputOptions) -> 
     Ok(built)
 }
 
-/// Hands the memory the routing grids and searches freed back to the system. Their pages
-/// are small blocks the C allocator keeps for reuse, scattered so that it cannot give them
-/// back by itself, and the stages after routing allocated on top of them: the two-row
-/// benchmark held 114 MB after routing of which 19 MB were live, and its peak came in the
-/// check and plan stages (136–141 MiB; 126 MiB with this, the route stage's own peak).
-fn release_freed_memory() {
-    #[cfg(all(target_os = "linux", target_env = "gnu"))]
-    // SAFETY: malloc_trim only returns free heap memory to the system; it touches no
-    // memory in use and is safe to call at any time (glibc's malloc_trim(3)).
-    unsafe {
-        libc::malloc_trim(0);
-    }
-}
-
 /// Builds and checks an already resolved layout.
 pub fn build_layout(layout: Layout) -> Result<Built> {
     let mut timings = Vec::new();
@@ -72,7 +58,11 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     let electrodes = crate::electrode::build_electrodes(&layout, &elements, &assignment)?;
     lap("electrode", &mut t, None);
     let routes = crate::route::route_leads(&layout, &electrodes)?;
-    release_freed_memory();
+    // The routing grids' and searches' pages are small blocks scattered through the
+    // heap, and the stages after routing allocated on top of them: the two-row benchmark
+    // held 114 MB after routing of which 19 MB were live, and its peak came in the check
+    // and plan stages (136–141 MiB; 126 MiB with this, the route stage's own peak).
+    crate::memory::release_freed();
     lap("route", &mut t, None);
     let artwork = crate::plate::build_artwork(&layout, &electrodes, &routes)?;
     lap("plate", &mut t, None);
