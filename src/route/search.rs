@@ -39,11 +39,6 @@ struct Node {
 
 const UNREACHED: Node = Node { g: f32::INFINITY, h: 0.0, parent: 0, dir: 8, closed: false };
 
-/// The mark a reachability flood leaves on a cell: only the side (`dir`) is read.
-const fn flooded(side: u8) -> Node {
-    Node { g: 0.0, h: 0.0, parent: 0, dir: side, closed: false }
-}
-
 /// The nets whose cells stopped a search, and how many of its steps each stopped. Few
 /// nets ever stop one search: a short list beats hashing on every blocked step.
 #[derive(Default)]
@@ -93,6 +88,11 @@ enum Spread {
 /// neither clears nor holds millions of cells).
 pub struct Search {
     nodes: Scratch<Node>,
+    /// The reachability floods' marks ([`Search::reaches`], [`Search::fence`]): the side
+    /// that took each cell. A byte per cell where a costed search keeps a node of 16
+    /// bytes: a flood that ran out behind a wall of leads took 633 pages of the
+    /// germination demo's glass, 52 MB as nodes, most of its peak memory.
+    marks: Scratch<u8>,
     /// The open list, kept between searches.
     open: OpenList,
     nx: usize,
@@ -178,7 +178,8 @@ impl Ord for Open {
 impl Search {
     /// State for searches on grids of `grid`'s size.
     pub fn new(grid: &Grid) -> Search {
-        Search { nodes: Scratch::new(PageGeom::of(grid.nx, grid.ny), UNREACHED), open: OpenList::new(), nx: grid.nx, weight: 1.0 }
+        let pages = PageGeom::of(grid.nx, grid.ny);
+        Search { nodes: Scratch::new(pages, UNREACHED), marks: Scratch::new(pages, 0), open: OpenList::new(), nx: grid.nx, weight: 1.0 }
     }
 
     /// State whose searches weigh the heuristic by `weight` ≥ 1 (weighted A*, Pohl 1970):
@@ -381,12 +382,12 @@ impl Search {
         // from an index, not popped): when one side runs out, they are what is closed in.
         const AHEAD: u8 = 8;
         const BEHIND: u8 = 9;
-        self.nodes.next_search();
+        self.marks.next_search();
         let mut ahead = Vec::new();
         for &s in sources {
             let (x, y) = (s % grid.nx, s / grid.nx);
-            if self.nodes.get(x, y).is_none() {
-                if !self.nodes.set(x, y, flooded(AHEAD)) {
+            if self.marks.get(x, y).is_none() {
+                if !self.marks.set(x, y, AHEAD) {
                     return Floods::OverBudget;
                 }
                 ahead.push(s as u32);
@@ -396,9 +397,9 @@ impl Search {
         if let Some(cells) = goal_cells {
             for &g in cells.iter().filter(|&&g| goal(g)) {
                 let (x, y) = (g % grid.nx, g / grid.nx);
-                match self.nodes.get(x, y) {
+                match self.marks.get(x, y) {
                     // A source on the goal.
-                    Some(n) if n.dir == AHEAD => return Floods::Way,
+                    Some(AHEAD) => return Floods::Way,
                     Some(_) => continue,
                     None => {}
                 }
@@ -406,7 +407,7 @@ impl Search {
                 if !grid.usable_xy(x, y, owner) {
                     continue;
                 }
-                if !self.nodes.set(x, y, flooded(BEHIND)) {
+                if !self.marks.set(x, y, BEHIND) {
                     return Floods::OverBudget;
                 }
                 behind.push(g as u32);
@@ -454,15 +455,15 @@ impl Search {
             if d % 2 == 1 && !grid.corner_open(cx, cy, x, y, owner) {
                 continue;
             }
-            match self.nodes.get(x, y) {
-                Some(m) if m.dir != side => return Spread::Met,
+            match self.marks.get(x, y) {
+                Some(m) if m != side => return Spread::Met,
                 Some(_) => continue,
                 None => {}
             }
             if !grid.usable_xy(x, y, owner) {
                 continue;
             }
-            if !self.nodes.set(x, y, flooded(side)) {
+            if !self.marks.set(x, y, side) {
                 return Spread::OverBudget;
             }
             queue.push(n as u32);
