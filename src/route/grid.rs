@@ -13,6 +13,25 @@ pub const FREE: u32 = 0;
 /// Owner value of a cell claimed by two or more nets, or by the glass edge.
 pub const BLOCKED: u32 = u32::MAX;
 
+/// An owner as the grid stores it: 16 bits, `BLOCKED` as the top value. Half the
+/// memory of the grid's cells stored one by one (the 64-digit benchmark's grid kept 73 MB
+/// of them); no layout has near 65 535 nets (segmask's limits allow a few thousand).
+#[inline]
+fn packed(owner: u32) -> u16 {
+    if owner == BLOCKED {
+        u16::MAX
+    } else {
+        debug_assert!(owner < u32::from(u16::MAX), "net id {owner} beyond the grid's 16-bit owners");
+        owner as u16
+    }
+}
+
+/// The owner a stored value stands for ([`packed`] undone).
+#[inline]
+fn unpacked(v: u16) -> u32 {
+    if v == u16::MAX { BLOCKED } else { u32::from(v) }
+}
+
 /// Whether a lead of `owner` may use a cell held by `cell_owner` at extra cost `extra`:
 /// the cell is free or its own, and not forbidden (infinite cost). One answer for a cell
 /// and for a page whose cells all hold the same pair.
@@ -34,8 +53,8 @@ pub struct Grid {
     pub nx: usize,
     /// Rows.
     pub ny: usize,
-    /// Owner per cell: `FREE`, `BLOCKED`, or net id + 1.
-    owner: PagedCells<u32>,
+    /// Owner per cell: `FREE`, `BLOCKED`, or net id + 1, [`packed`].
+    owner: PagedCells<u16>,
     /// Extra cost of entering a cell (0 = none; `f32::INFINITY` = forbidden).
     cost: PagedCells<f32>,
 }
@@ -46,19 +65,19 @@ impl Grid {
         let nx = ((xb - xa) / h).ceil() as usize + 1;
         let ny = ((yb - ya) / h).ceil() as usize + 1;
         let pages = PageGeom::of(nx, ny);
-        Grid { x0: xa, y0: ya, h, nx, ny, owner: PagedCells::new(pages, FREE), cost: PagedCells::new(pages, 0.0) }
+        Grid { x0: xa, y0: ya, h, nx, ny, owner: PagedCells::new(pages, packed(FREE)), cost: PagedCells::new(pages, 0.0) }
     }
 
     /// Owner of cell `i`: `FREE`, `BLOCKED`, or net id + 1.
     #[inline]
     pub fn owner(&self, i: usize) -> u32 {
-        self.owner.get(i)
+        unpacked(self.owner.get(i))
     }
 
     /// Owner of the cell at column `x`, row `y`.
     #[inline]
     pub fn owner_xy(&self, x: usize, y: usize) -> u32 {
-        self.owner.get_xy(x, y)
+        unpacked(self.owner.get_xy(x, y))
     }
 
     /// Whether a lead of `owner` may lie in the cell at column `x`, row `y` as far as
@@ -89,7 +108,7 @@ impl Grid {
     /// answered once, not cell by cell.
     #[inline]
     pub fn uniform_page_xy(&self, x: usize, y: usize) -> Option<(u32, f32)> {
-        Some((self.owner.uniform_xy(x, y)?, self.cost.uniform_xy(x, y)?))
+        Some((unpacked(self.owner.uniform_xy(x, y)?), self.cost.uniform_xy(x, y)?))
     }
 
     /// Extra cost of entering cell `i` (0 = none; `f32::INFINITY` = forbidden).
@@ -216,7 +235,7 @@ impl Grid {
     pub fn claim_spans(&mut self, spans: &[(usize, usize, usize)], owner: u32) {
         let claimed = |o: u32| if o == FREE || o == owner { owner } else { BLOCKED };
         for &(r, c0, c1) in spans {
-            self.owner.update_run(r, c0, c1, claimed);
+            self.owner.update_run(r, c0, c1, |o| packed(claimed(unpacked(o))));
         }
     }
 
@@ -368,7 +387,7 @@ impl Grid {
         let mut spans = Vec::new();
         self.for_spans_in(region, |r, c0, c1| spans.push((r, c0, c1)));
         for (r, c0, c1) in spans {
-            self.owner.update_run(r, c0, c1, |_| BLOCKED);
+            self.owner.update_run(r, c0, c1, |_| packed(BLOCKED));
         }
     }
 
@@ -379,31 +398,31 @@ impl Grid {
         self.for_spans_in(region, |r, c0, c1| spans[r].push((c0, c1)));
         let rows: Vec<usize> = (0..self.ny).filter(|&r| !spans[r].is_empty()).collect();
         let (Some(&r0), Some(&r1)) = (rows.first(), rows.last()) else {
-            self.owner.fill_rect(0, 0, self.nx - 1, self.ny - 1, BLOCKED);
+            self.owner.fill_rect(0, 0, self.nx - 1, self.ny - 1, packed(BLOCKED));
             return;
         };
         let c0 = rows.iter().flat_map(|&r| spans[r].iter().map(|s| s.0)).min().unwrap_or(0);
         let c1 = rows.iter().flat_map(|&r| spans[r].iter().map(|s| s.1)).max().unwrap_or(self.nx - 1);
         let last = (self.nx - 1, self.ny - 1);
         if r0 > 0 {
-            self.owner.fill_rect(0, 0, last.0, r0 - 1, BLOCKED);
+            self.owner.fill_rect(0, 0, last.0, r0 - 1, packed(BLOCKED));
         }
-        self.owner.fill_rect(0, r1 + 1, last.0, last.1, BLOCKED);
+        self.owner.fill_rect(0, r1 + 1, last.0, last.1, packed(BLOCKED));
         if c0 > 0 {
-            self.owner.fill_rect(0, r0, c0 - 1, r1, BLOCKED);
+            self.owner.fill_rect(0, r0, c0 - 1, r1, packed(BLOCKED));
         }
-        self.owner.fill_rect(c1 + 1, r0, last.0, r1, BLOCKED);
+        self.owner.fill_rect(c1 + 1, r0, last.0, r1, packed(BLOCKED));
         for (r, row) in spans.iter_mut().enumerate().take(r1 + 1).skip(r0) {
             row.sort_unstable();
             let mut next = c0;
             for &(a, b) in row.iter() {
                 if a > next {
-                    self.owner.update_run(r, next, a - 1, |_| BLOCKED);
+                    self.owner.update_run(r, next, a - 1, |_| packed(BLOCKED));
                 }
                 next = next.max(b + 1);
             }
             if next <= c1 {
-                self.owner.update_run(r, next, c1, |_| BLOCKED);
+                self.owner.update_run(r, next, c1, |_| packed(BLOCKED));
             }
         }
     }
