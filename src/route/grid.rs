@@ -579,4 +579,24 @@ mod tests {
         });
         assert!(!hit_centre);
     }
+
+    /// Owners kept in 16 bits read back as claimed: net ids up to the largest that fits,
+    /// a second net's claim over the first's makes the cell `BLOCKED`, and the free glass
+    /// stays `FREE`. Fails if `BLOCKED` were stored as an ordinary id (the top id would
+    /// then read as blocked, or blocked cells as a net).
+    #[test]
+    fn owners_in_sixteen_bits_read_back_as_claimed() {
+        use crate::geom::{rect, region_of};
+        let mut g = Grid::new(0.0, 0.0, 10.0, 10.0, 0.5);
+        let top = u32::from(u16::MAX) - 1;
+        g.claim(&region_of([rect(1.0, 1.0, 3.0, 3.0)]), top);
+        g.claim(&region_of([rect(6.0, 6.0, 8.0, 8.0)]), 7);
+        g.claim(&region_of([rect(7.0, 7.0, 9.0, 9.0)]), 8);
+        let at = |x: f64, y: f64| g.owner(g.index_of(crate::geom::pt(x, y)).unwrap());
+        assert_eq!(at(2.0, 2.0), top);
+        assert_eq!(at(6.5, 6.5), 7);
+        assert_eq!(at(7.5, 7.5), BLOCKED);
+        assert_eq!(at(8.5, 8.5), 8);
+        assert_eq!(at(5.0, 1.0), FREE);
+    }
 }
