@@ -34,17 +34,25 @@ fn assert_clean((code, err): (Option<i32>, String)) {
     assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
 }
 
+/// The demo changed by `edit` fails with one `unroutable` line that names `stuck`, says
+/// the segments of `digits[0]` are 0.350 mm apart and asks to widen its gap to `needed`
+/// mm; with the gap written as `gap_line` changed to that width it checks clean.
+fn names_the_gap_that_routes(demo: &str, edit: (&str, &str), stuck: &str, gap_line: &str, needed: &str) {
+    let line = the_unroutable_line(check_changed(demo, &[edit]));
+    assert!(line.contains(stuck), "{line}");
+    assert!(line.contains("the segments of `digits[0]` are 0.350 mm apart (line"), "{line}");
+    assert!(line.contains(&format!("widen `digits[0].gap` to {needed} mm")), "{line}");
+    let widened = gap_line.replace("0.35", needed.trim_end_matches('0'));
+    assert_clean(check_changed(demo, &[edit, (gap_line, &widened)]));
+}
+
 /// Multiplexed: the kiln demo under 0.12/0.1 mm rules with 8 µm undercut keeps its own
 /// 0.35 mm gap; the commons' leads find no room through the digits' junctions and COM1
 /// is cut off. The rules' gap is 0.136 + 2 × 0.1 + 4 × 0.05 = 0.536 mm.
 #[test]
 fn a_common_cut_off_behind_narrow_junctions_names_the_gap_that_routes() {
     let rules = ("  min_width: 0.1\n  min_gap: 0.05\n  undercut: 5um\n", "  min_width: 0.12\n  min_gap: 0.1\n  undercut: 8um\n");
-    let line = the_unroutable_line(check_changed("kiln-controller.yaml", &[rules]));
-    assert!(line.contains("common electrode COM1"), "{line}");
-    assert!(line.contains("the segments of `digits[0]` are 0.350 mm apart (line"), "{line}");
-    assert!(line.contains("widen `digits[0].gap` to 0.536 mm"), "{line}");
-    assert_clean(check_changed("kiln-controller.yaml", &[rules, ("    gap: 0.35\n", "    gap: 0.536\n")]));
+    names_the_gap_that_routes("kiln-controller.yaml", rules, "common electrode COM1", "    gap: 0.35\n", "0.536");
 }
 
 /// Static drive: the irrigation-timer demo with 0.2 mm leads keeps its 0.35 mm gap; each
@@ -53,9 +61,5 @@ fn a_common_cut_off_behind_narrow_junctions_names_the_gap_that_routes() {
 #[test]
 fn a_segment_shut_in_by_its_neighbours_names_the_gap_that_routes() {
     let lead = ("  min_gap: 0.05\n", "  min_gap: 0.05\n  lead_width: 0.2\n");
-    let line = the_unroutable_line(check_changed("irrigation-timer.yaml", &[lead]));
-    assert!(line.contains("net D1.g cannot be routed"), "{line}");
-    assert!(line.contains("the segments of `digits[0]` are 0.350 mm apart (line"), "{line}");
-    assert!(line.contains("widen `digits[0].gap` to 0.400 mm"), "{line}");
-    assert_clean(check_changed("irrigation-timer.yaml", &[lead, ("  gap: 0.35\n", "  gap: 0.4\n")]));
+    names_the_gap_that_routes("irrigation-timer.yaml", lead, "net D1.g cannot be routed", "  gap: 0.35\n", "0.400");
 }
