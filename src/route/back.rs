@@ -13,6 +13,7 @@
 use super::grid::Grid;
 use super::search::{corners, neighbours, Blocked, Search};
 use super::corridor::{find_guided_or_fence, find_guided_or_give_up, Ask, Corridors};
+use super::source_tiles::SourceTiles;
 use super::pending::Pending;
 use super::target::Targets;
 use super::{Lead, TransferSite};
@@ -178,7 +179,12 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         }
         // A common's own claims leave what it may use as it was.
         corridors.keep_factors_for(c.owner);
-        let mut grow = Growth { tree_cells: seeds.iter().map(|&i| i as u32).collect(), seeds, seed_tiles: Default::default() };
+        let tiles = corridors.tiles();
+        let mut source_tiles = SourceTiles::new(tiles.ntx * tiles.nty);
+        for &s in &seeds {
+            source_tiles.add(tiles.tile_index(s));
+        }
+        let mut grow = Growth { tree_cells: seeds.iter().map(|&i| i as u32).collect(), seeds, seed_tiles: Default::default(), source_tiles };
         let left = grow_tree(layout, &mut grid, search, &mut corridors, c, &mut grow, &mut out);
         // The tree as a goal only for the islands the growth could not reach (most often
         // none): kept as it grew, it cost an R-tree insertion per tile of every island.
@@ -223,6 +229,8 @@ struct Growth {
     tree_cells: Vec<u32>,
     /// Corridor tiles that hold a seed already.
     seed_tiles: super::TileSet<usize>,
+    /// The tiles of the seeds, as the coarse searches take them in.
+    source_tiles: SourceTiles,
 }
 
 /// Grows a common's tree from its dots (Prim's order by the lead's true cost): each search
@@ -240,7 +248,7 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         .collect();
     let mut pending = Pending::new(grid, ends);
     while pending.any() {
-        let Ok(path) = find_guided_or_give_up(search, corridors, &Ask { grid, owner: c.owner, sources: &g.seeds, goal: &pending }) else { break };
+        let Ok(path) = find_guided_or_give_up(search, corridors, &Ask { grid, owner: c.owner, sources: &g.seeds, goal: &pending }, &mut g.source_tiles) else { break };
         let Some(k) = path.last().and_then(|&e| pending.island_at(e)) else { break };
         pending.join(k);
         let tiles = corridors.tiles();
@@ -251,6 +259,7 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
             let t = tiles.tile_index(i);
             if t != last && g.seed_tiles.insert(t) {
                 g.seeds.push(i);
+                g.source_tiles.add(t);
             }
             last = t;
         }

@@ -21,6 +21,15 @@
 use super::open_list::OpenList;
 use super::grid::{usable_by, Grid};
 use super::search::{neighbours, Blocked, Open, Search};
+use super::source_tiles::SourceTiles;
+
+/// Where a coarse search starts.
+pub enum Sources<'a> {
+    /// Cells, each standing for its tile.
+    Cells(&'a [usize]),
+    /// The tiles of a growing tree, taken in as the search reaches them.
+    Tiles(&'a mut SourceTiles),
+}
 
 /// Side of a tile, in grid cells.
 pub const TILE: usize = 8;
@@ -270,6 +279,23 @@ impl Corridors {
         kept: impl Fn(usize) -> Option<f32>,
         margin: usize,
     ) -> bool {
+        self.plan_from(grid, owner, Sources::Cells(sources), goal, heuristic, kept, margin)
+    }
+
+    /// [`Corridors::plan`] from `sources` given as cells, or as the tiles of a growing
+    /// tree waiting in their own heap ([`SourceTiles`]), taken in only as the search
+    /// reaches their keys: the corridor is the same either way.
+    #[allow(clippy::too_many_arguments)]
+    pub fn plan_from(
+        &mut self,
+        grid: &Grid,
+        owner: u32,
+        mut sources: Sources<'_>,
+        goal: impl Fn(usize) -> bool,
+        heuristic: impl Fn(usize) -> f32,
+        kept: impl Fn(usize) -> Option<f32>,
+        margin: usize,
+    ) -> bool {
         self.generation += 1;
         let now = self.generation;
         let mut open = std::mem::take(&mut self.open);
@@ -279,26 +305,22 @@ impl Corridors {
         // then taken in the same order as with exact bounds from the start, but a common's
         // tree of thousands of tiles no longer has every bound worked out for every
         // search (the bound of a tile changes whenever the island nearest it is joined).
-        for &s in sources {
-            let t = self.tile_index(grid, s);
-            if self.stamp[t] != now {
-                self.stamp[t] = now;
-                self.g[t] = 0.0;
-                match kept(t) {
-                    Some(h) => self.h[t] = h,
-                    None => {
-                        self.h[t] = heuristic(t);
-                        self.exact[t] = now;
-                    }
+        if let Sources::Cells(cells) = sources {
+            for &s in cells {
+                let t = self.tile_index(grid, s);
+                if self.stamp[t] != now {
+                    let h = self.start_source(grid, owner, t, &heuristic, &kept);
+                    open.push_unordered(Open::new(h, t as u32));
                 }
-                self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
-                self.parent[t] = t as u32;
-                open.push_unordered(Open::new(self.h[t], t as u32));
             }
+            open.order();
         }
-        open.order();
         let step = TILE as f32;
-        while let Some(entry) = open.pop() {
+        let found = loop {
+            if let Sources::Tiles(tiles) = &mut sources {
+                self.take_in(grid, owner, tiles, &mut open, &heuristic, &kept);
+            }
+            let Some(entry) = open.pop() else { break None };
             let (f, tile) = (entry.f(), entry.cell());
             let t = tile as usize;
             if f - self.h[t] > self.g[t] + 1e-3 {
@@ -314,15 +336,20 @@ impl Corridors {
                 }
             }
             if goal(t) {
-                self.open = open;
-                self.mark(t, margin);
-                return true;
+                break Some(t);
             }
             for (d, _, _, n) in neighbours(t, self.ntx, self.nty) {
                 if self.strict && !self.step_open(grid, owner, t, n, d) {
                     continue;
                 }
                 let fresh = self.stamp[n] != now;
+                // A source tile not taken in yet starts now, as it would have at the
+                // start: a source is never reached from another tile.
+                if fresh && matches!(&sources, Sources::Tiles(tiles) if tiles.contains(n)) {
+                    let h = self.start_source(grid, owner, n, &heuristic, &kept);
+                    open.push(Open::new(h, n as u32));
+                    continue;
+                }
                 if fresh {
                     self.factor[n] = self.tile_factor(grid, owner, n);
                 }
@@ -345,9 +372,67 @@ impl Corridors {
                     open.push(Open::new(ng + self.h[n], n as u32));
                 }
             }
-        }
+        };
         self.open = open;
-        false
+        if let Sources::Tiles(tiles) = sources {
+            // What this search worked out stays as the tiles' keys for the next one.
+            tiles.put_back(|t| kept(t).unwrap_or(0.0));
+        }
+        match found {
+            Some(t) => {
+                self.mark(t, margin);
+                true
+            }
+            None => false,
+        }
+    }
+
+    /// Starts source tile `t` of the current search: no cost so far, its own parent, the
+    /// kept bound where there is one (else the exact one); returns its bound.
+    fn start_source(&mut self, grid: &Grid, owner: u32, t: usize, heuristic: &impl Fn(usize) -> f32, kept: &impl Fn(usize) -> Option<f32>) -> f32 {
+        let now = self.generation;
+        self.stamp[t] = now;
+        self.g[t] = 0.0;
+        match kept(t) {
+            Some(h) => self.h[t] = h,
+            None => {
+                self.h[t] = heuristic(t);
+                self.exact[t] = now;
+            }
+        }
+        self.factor[t] = self.tile_factor(grid, owner, t).min(1.0e6);
+        self.parent[t] = t as u32;
+        self.h[t]
+    }
+
+    /// Takes in the waiting source tiles whose keys the open list has reached (all of
+    /// them up to its lowest entry, or the lowest when it is empty): each starts at the
+    /// key it would have started at had it been laid in at the start, or waits again
+    /// under that key when it is higher than the one it waited under.
+    fn take_in(
+        &mut self,
+        grid: &Grid,
+        owner: u32,
+        tiles: &mut SourceTiles,
+        open: &mut OpenList,
+        heuristic: &impl Fn(usize) -> f32,
+        kept: &impl Fn(usize) -> Option<f32>,
+    ) {
+        let now = self.generation;
+        while let Some(entry) = tiles.take_up_to(open.peek().map(Open::key)) {
+            let t = entry.cell() as usize;
+            if self.stamp[t] == now {
+                continue;
+            }
+            if let Some(h) = kept(t) {
+                if Open::new(h, t as u32).key() > entry.key() {
+                    tiles.defer(t, h);
+                    continue;
+                }
+            }
+            let h = self.start_source(grid, owner, t, heuristic, kept);
+            open.push(Open::new(h, t as u32));
+        }
     }
 
     fn mark(&mut self, mut t: usize, margin: usize) {
@@ -507,7 +592,7 @@ pub trait Goal {
 /// coarse path or the corridor turns out too narrow, so that a failure always reports what
 /// blocks the net on the whole grid.
 pub fn find_guided(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Result<Vec<usize>, Blocked> {
-    if let Some(path) = find_in_corridors(search, corridors, ask) {
+    if let Some(path) = find_in_corridors(search, corridors, ask, None) {
         return Ok(path);
     }
     let Ask { grid, owner, sources, goal } = *ask;
@@ -547,8 +632,9 @@ impl<G: Goal> Clone for Ask<'_, G> {
 impl<G: Goal> Copy for Ask<'_, G> {}
 
 /// The fine search in the corridor of the coarse graph, then in the stricter one's; none
-/// when neither plans a corridor or holds a way.
-fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Option<Vec<usize>> {
+/// when neither plans a corridor or holds a way. The coarse searches start from `waiting`
+/// where given (the tiles of the sources, [`Corridors::plan_from`]).
+fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>, mut waiting: Option<&mut SourceTiles>) -> Option<Vec<usize>> {
     let Ask { grid, owner, sources, goal } = *ask;
     let half_diagonal = TILE as f32 * std::f32::consts::FRAC_1_SQRT_2;
     let tiles = corridors.tiles();
@@ -565,10 +651,14 @@ fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'
     let order = if corridors.strict_first { [true, false] } else { [false, true] };
     for strict in order {
         corridors.strict = strict;
-        let planned = corridors.plan(
+        let from = match waiting.as_deref_mut() {
+            Some(w) => Sources::Tiles(w),
+            None => Sources::Cells(sources),
+        };
+        let planned = corridors.plan_from(
             grid,
             owner,
-            sources,
+            from,
             |t| goal.is_goal_tile(&tiles, t),
             |t| (goal.bound(tiles.centre_cell(t)) - half_diagonal).max(0.0),
             |t| goal.kept_bound(tiles.centre_cell(t)).map(|b| (b - half_diagonal).max(0.0)),
@@ -604,8 +694,10 @@ fn find_in_corridors(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'
 /// toward islands shut off from it flooded the glass with A* (the germination demo:
 /// one such search of 10 M heap pops took 1.8 s of its 3.4 s of routing), and the flood
 /// runs from the goal's side as well, which is the small one when the goal is shut in.
-pub fn find_guided_or_give_up(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>) -> Result<Vec<usize>, ()> {
-    if let Some(path) = find_in_corridors(search, corridors, ask) {
+/// `tiles` holds the tiles of `ask.sources`, each once: a growing tree's, kept between
+/// its searches ([`SourceTiles`]).
+pub fn find_guided_or_give_up(search: &mut Search, corridors: &mut Corridors, ask: &Ask<'_, impl Goal>, tiles: &mut SourceTiles) -> Result<Vec<usize>, ()> {
+    if let Some(path) = find_in_corridors(search, corridors, ask, Some(tiles)) {
         return Ok(path);
     }
     let Ask { grid, owner, sources, goal } = *ask;
@@ -735,6 +827,44 @@ mod tests {
         let with_kept: Vec<bool> = all.iter().map(|&i| c.allows(&g, i)).collect();
         assert_eq!(with_exact, with_kept);
         assert!(with_exact.iter().any(|a| *a) && !with_exact.iter().all(|a| *a));
+    }
+
+    /// A column of source tiles with a wall beside its lower part, and a goal low on the
+    /// wall's far side: the sources nearest the goal by the bound are shut in, the way
+    /// starts from the top of the column, and the search reaches each higher source from
+    /// the one below before its key comes up. Taken in from their heap, with their bounds
+    /// known from a first search, the sources give the coarse path (no margin) that
+    /// sources laid in at the start give — fails when a source so reached is not started
+    /// at no cost, as it would have been at the start.
+    #[test]
+    fn sources_reached_before_their_key_start_as_sources() {
+        for (column, goal_y) in [(1.0, 1.0), (1.4, 1.0), (1.0, 3.3), (1.4, 6.1)] {
+            let mut g = Grid::new(0.0, 0.0, 20.0, 20.0, 0.1);
+            g.block(&region_of([rect(column + 0.9, 0.0, column + 3.3, 14.0)]));
+            let sources: Vec<usize> = (0..70).map(|k| g.index_of(pt(column, 1.0 + k as f64 * 0.2)).unwrap()).collect();
+            let mut eager = Corridors::new(&g);
+            let mut lazy = Corridors::new(&g);
+            let tiles = eager.tiles();
+            let goal = tiles.tile_index(g.index_of(pt(18.0, goal_y)).unwrap());
+            let exact = |t: usize| {
+                let ((tx, ty), (gx, gy)) = (tiles.column_row(t), tiles.column_row(goal));
+                (((tx as f32 - gx as f32).powi(2) + (ty as f32 - gy as f32).powi(2)).sqrt() - 1.5).max(0.0) * TILE as f32
+            };
+            let mut waiting = SourceTiles::new(tiles.ntx * tiles.nty);
+            for &s in &sources {
+                waiting.add(tiles.tile_index(s));
+            }
+            let all: Vec<usize> = (0..g.nx * g.ny).step_by(3).collect();
+            // The first search works the bounds out; the second starts from them.
+            for round in 0..2 {
+                assert!(eager.plan(&g, 1, &sources, |t| t == goal, exact, |t| Some(exact(t)), 0));
+                assert!(lazy.plan_from(&g, 1, Sources::Tiles(&mut waiting), |t| t == goal, exact, |t| (round > 0).then(|| exact(t)), 0));
+                let path = |c: &Corridors| all.iter().map(|&i| c.allows(&g, i)).collect::<Vec<bool>>();
+                assert_eq!(path(&eager), path(&lazy), "column at {column}, goal at {goal_y}, round {round}");
+                let on_path = |y: f64| lazy.allows(&g, g.index_of(pt(column, y)).unwrap());
+                assert!(!on_path(1.0) && [13.5, 14.0, 14.5].into_iter().any(on_path), "from the top of the column");
+            }
+        }
     }
 
     /// A closed box around the start: no coarse path.

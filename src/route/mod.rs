@@ -34,6 +34,7 @@ pub mod retry;
 pub mod ring;
 pub mod search;
 pub mod side;
+pub mod source_tiles;
 pub mod strips;
 pub mod target;
 

@@ -101,6 +101,12 @@ impl OpenList {
         self.keys[i] = key;
     }
 
+    /// The lowest entry, left in the list.
+    #[inline]
+    pub fn peek(&self) -> Option<Open> {
+        self.keys.first().map(|&k| Open::from_key(k))
+    }
+
     /// Takes the lowest entry.
     #[inline]
     pub fn pop(&mut self) -> Option<Open> {
