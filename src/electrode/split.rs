@@ -15,7 +15,8 @@
 //! graph), each with booleans over its own few polygons, and the clusters' cells are
 //! simply put together. The work grows with the number of elements, not with the glass
 //! (on the 40-digit benchmark the growth over the whole glass was the electrode stage's
-//! time).
+//! time). A cluster equal to an earlier one but for a shift (a row of equal digits) takes
+//! that one's cells, shifted; a cluster of one common alone is grown in one offset.
 
 use crate::geom::{difference, offset_round, snap, translate, union_all, Polygon, Region};
 use geo::BoundingRect;
@@ -40,7 +41,7 @@ pub fn split_commons(bodies: &[Region], margin: f64, gap: f64, tol: f64) -> Vec<
         .collect();
     // A cluster alike another but for a shift (a row of equal digits on the same
     // commons) is split once and the cells shifted: the germination demo's 140 clusters
-    // are 23 shapes.
+    // are 19 shapes.
     let (model, shift) = alike(&locals);
     let once: Vec<Option<Vec<Region>>> =
         (0..locals.len()).into_par_iter().map(|i| (model[i] == i).then(|| split_cluster(&locals[i], reach, gap, tol))).collect();
