@@ -184,7 +184,7 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         for &s in &seeds {
             source_tiles.add(tiles.tile_index(s));
         }
-        let mut grow = Growth { tree_cells: seeds.iter().map(|&i| i as u32).collect(), seeds, seed_tiles: Default::default(), source_tiles };
+        let mut grow = Growth { tree_cells: seeds.iter().map(|&i| i as u32).collect(), seeds, source_tiles };
         let left = grow_tree(layout, &mut grid, search, &mut corridors, c, &mut grow, &mut out);
         // The tree as a goal only for the islands the growth could not reach (most often
         // none): kept as it grew, it cost an R-tree insertion per tile of every island.
@@ -227,9 +227,8 @@ struct Growth {
     /// Every cell of the tree, in the order it grew (as `u32`, as the searches keep
     /// cells: hundreds of thousands per common on a large glass).
     tree_cells: Vec<u32>,
-    /// Corridor tiles that hold a seed already.
-    seed_tiles: super::TileSet<usize>,
-    /// The tiles of the seeds, as the coarse searches take them in.
+    /// The tiles of the seeds (each holds one already), as the coarse searches take
+    /// them in.
     source_tiles: SourceTiles,
 }
 
@@ -257,9 +256,8 @@ fn grow_tree(layout: &Layout, grid: &mut Grid, search: &mut Search, corridors: &
         for &i in path.iter().chain(pending.ends(k)) {
             g.tree_cells.push(i as u32);
             let t = tiles.tile_index(i);
-            if t != last && g.seed_tiles.insert(t) {
+            if t != last && g.source_tiles.add(t) {
                 g.seeds.push(i);
-                g.source_tiles.add(t);
             }
             last = t;
         }

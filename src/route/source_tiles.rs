@@ -36,13 +36,15 @@ impl SourceTiles {
         SourceTiles { waiting: OpenList::new(), member: vec![false; tiles], taken: Vec::new() }
     }
 
-    /// Makes tile `t` a source (once; later calls change nothing). Its key is 0 until a
-    /// search works out a bound for it.
-    pub fn add(&mut self, t: usize) {
-        if !self.member[t] {
+    /// Makes tile `t` a source (once; later calls change nothing) and says whether it
+    /// was not one before. Its key is 0 until a search works out a bound for it.
+    pub fn add(&mut self, t: usize) -> bool {
+        let new = !self.member[t];
+        if new {
             self.member[t] = true;
             self.waiting.push(Open::new(0.0, t as u32));
         }
+        new
     }
 
     /// Whether tile `t` is a source.
@@ -94,9 +96,8 @@ mod tests {
     #[test]
     fn tiles_come_out_by_key_up_to_the_limit() {
         let mut s = SourceTiles::new(10);
-        for t in [7, 3, 3, 5] {
-            s.add(t);
-        }
+        let added: Vec<bool> = [7, 3, 3, 5].into_iter().map(|t| s.add(t)).collect();
+        assert_eq!(added, [true, true, false, true]);
         assert_eq!(s.tiles().collect::<Vec<_>>(), [3, 5, 7], "each tile once");
         // All at key 0: by tile number.
         let first = s.take_up_to(None).unwrap();
