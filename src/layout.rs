@@ -274,6 +274,12 @@ impl Rules {
     pub fn film_gap(&self, g: f64) -> f64 {
         g - 2.0 * self.film_bias()
     }
+    /// The distance an alignment mark keeps from other ITO and from the window: the gap
+    /// rule's limit (the drawn minimum gap, or more where the film could not hold that
+    /// gap), plus 1 µm so that the check's rounding never reports it.
+    pub fn mark_gap(&self) -> f64 {
+        self.min_gap.max(self.film_min_feature - self.film_gap(0.0)) + 1e-3
+    }
 }
 
 /// Seal ring and its fill port.

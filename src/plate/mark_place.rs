@@ -40,12 +40,10 @@ pub struct MarkPlaces {
     pub findings: Vec<Finding>,
 }
 
-/// The distance a mark keeps from other ITO: the gap rule's limit (the drawn minimum gap,
-/// or more where the film could not hold that gap), plus 1 µm so that the check's
-/// rounding never reports it (`check::gap`).
+/// The distance a mark keeps from other ITO ([`crate::layout::Rules::mark_gap`]; the
+/// check's gap rule, `check::gap`, measures it).
 pub fn keep_gap(layout: &Layout) -> f64 {
-    let r = &layout.rules;
-    r.min_gap.max(r.film_min_feature - r.film_gap(0.0)) + 1e-3
+    layout.rules.mark_gap()
 }
 
 /// An R-tree of obstacle boxes, each carrying its polygon's index.
@@ -107,13 +105,7 @@ fn mark_box(c: Pt, half: f64) -> (f64, f64, f64, f64) {
 pub fn place_marks(layout: &Layout, shapes: &[Shape]) -> MarkPlaces {
     let half = layout.marks.size / 2.0;
     let gap = keep_gap(layout);
-    let lc = crate::spec::liquid_crystal_region(layout);
-    // Where a mark's box may lie: inside the liquid crystal, `gap` clear of the seal's
-    // inner edge, and the edge clearance inside both glass outlines.
-    let ec = layout.rules.edge_clearance;
-    let (f, b) = (corners(&layout.glass.front.inset(ec)), corners(&layout.glass.back.inset(ec)));
-    let l = corners(&lc.inset(gap));
-    let room = (l.0.max(f.0).max(b.0), l.1.max(f.1).max(b.1), l.2.min(f.2).min(b.2), l.3.min(f.3).min(b.3));
+    let room = crate::spec::mark_room(layout);
     let window = corners(&layout.window);
     let obstacles = Obstacles::new(shapes);
     let mid = ((room.0 + room.2) / 2.0, (room.1 + room.3) / 2.0);
@@ -262,5 +254,33 @@ mod tests {
         let p = place_marks(&l, &band);
         assert_eq!(p.centres.len(), 2);
         assert_eq!(p.findings.iter().map(|f| f.severity).collect::<Vec<_>>(), [Severity::Error, Severity::Error]);
+    }
+
+    /// The spec stage refuses a layout whose empty glass has no room for a diagonal pair
+    /// of marks (`spec::has_mark_room`, measured over every position); it must never
+    /// refuse one where this placement, with nothing routed, finds such a pair. The seal
+    /// widened in 20 µm steps, the window moved sideways and made taller: each time
+    /// the placement holds a pair, the spec stage agrees; and both say no once the seal
+    /// leaves under a mark's width beside the window (seal 0.6 mm wider, as in the spec's
+    /// own test).
+    #[test]
+    fn the_spec_never_refuses_what_the_empty_glass_holds() {
+        let mut both_no = 0;
+        for k in 0..40 {
+            for (shift, taller) in [(-0.5, 0.0), (0.0, 0.0), (0.3, 0.0), (-0.2, 0.6), (0.0, 0.6), (0.3, 0.6)] {
+                let mut l = tiny_layout();
+                l.seal.width += k as f64 * 0.02;
+                l.window.x += shift;
+                // Taller by 0.6 mm at each end: only the strips beside it hold marks.
+                l.window.y -= taller;
+                l.window.height += 2.0 * taller;
+                let placed = place_marks(&l, &[]);
+                let pair = placed.findings.iter().all(|f| f.severity != Severity::Error);
+                let room = crate::spec::has_mark_room(&l);
+                assert!(room || !pair, "seal {} window x {}: refused though the empty glass holds a pair", l.seal.width, l.window.x);
+                both_no += usize::from(!room && !pair);
+            }
+        }
+        assert!(both_no > 0, "the sweep never reached a glass without room");
     }
 }

@@ -15,6 +15,9 @@ pub fn check_fit(p: &mut Problems, l: &Layout) {
     }
     if p.clean(&["glass", "seal.inset", "seal.width"]) && seal_region(p, l) && p.clean(&["window"]) {
         window_inside(p, l);
+        if p.clean(&["window", "marks", "rules"]) {
+            super::mark_fit::marks_fit(p, l);
+        }
     }
     if p.clean(&["glass", "pads.side", "pads.length", "pads.edge_margin", "pads.second_row"])
         && l.pads.rows().zip(ROW_KEYS).all(|(row, key)| ledge(p, l, row, key))

@@ -19,6 +19,7 @@ mod gauges;
 pub mod input;
 pub mod limits;
 mod locate;
+mod mark_fit;
 mod nets;
 mod panel;
 mod placement;
@@ -35,6 +36,7 @@ pub mod units;
 mod tests;
 
 pub use fit::{ledge_depth, liquid_crystal_region};
+pub use mark_fit::{has_mark_room, mark_room};
 pub use locate::{key_lines, line_of};
 pub use schema::layout_schema;
 pub use starter::{StarterDrive, starter_layout};

@@ -41,6 +41,9 @@ const CASES: &[Case] = &[
     Case("duplicate-net", "legends[0].name", 25, "net `D2.b` is also made by `digits[0].name` (line 15)"),
     Case("bad-name", "name", 2, "`bad base!` has characters a file name should not have"),
     Case("window-outside-seal", "window", 6, "reaches outside the liquid-crystal region"),
+    // 0.7 mm between the seal's inner edge and the window, less the 0.051 mm mark gap
+    // from each: a 1 mm mark fits in no corner (plane geometry).
+    Case("no-mark-room", "seal.width", 8, "beside the window there is 0.598 mm on the left"),
     Case("back-outside-front", "glass.back", 5, "reaches outside the front glass"),
     Case(
         "no-ledge",

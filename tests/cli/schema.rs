@@ -88,7 +88,7 @@ const SCHEMA_TAKES: &[(&str, &[&str])] = &[
             "icon-two-shapes", "lead-finer-than-film", "legend-wider-than-window", "missing-key", "no-ledge",
             "overlapping-digits", "overlapping-groups", "pads-count-too-small", "pads-dont-fit",
             "panel-lane-wide", "panel-substrate-small", "ring-inner", "saturation-below-threshold",
-            "stroke-too-heavy", "thin-marks", "window-outside-seal",
+            "stroke-too-heavy", "thin-marks", "window-outside-seal", "no-mark-room",
         ],
     ),
     (
