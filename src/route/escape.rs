@@ -298,8 +298,11 @@ fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize]
             }
             match find_guided(search, corridors, &Ask { grid: &grid, owner, sources: &cells, goal: &joined }) {
                 Ok(path) => {
-                    let pts = corners(&grid, &path);
+                    let mut pts = corners(&grid, &path);
                     claim_lead(&mut grid, layout, &pts, owner, k);
+                    // After the claim: the stub runs inside the piece, and claimed it
+                    // would steer the leads routed after this one.
+                    into_pieces(&n.pieces, &mut pts, layout.rules.lead_width, h);
                     for &c in path.iter().chain(cells.iter()) {
                         if !joined.contains(c) {
                             joined.add(c);
@@ -323,8 +326,9 @@ fn attempt(layout: &Layout, frames: &Frames, nets: &[NetPieces], order: &[usize]
         let goal = SealBand { frame, grid: &grid, v_goal: frame.v_lc };
         match find_guided(search, corridors, &Ask { grid: &grid, owner, sources: &tree, goal: &goal }) {
             Ok(path) => {
-                let pts = corners(&grid, &path);
+                let mut pts = corners(&grid, &path);
                 claim_lead(&mut grid, layout, &pts, owner, k);
+                into_pieces(&n.pieces, &mut pts, layout.rules.lead_width, h);
                 if n.far { esc.far_arrivals.push((n.name.clone(), pts)) } else { esc.arrivals.push((n.name.clone(), pts)) }
             }
             Err(b) => {
@@ -370,6 +374,82 @@ fn piece_cells(grid: &Grid, piece: &Polygon, owner: u32) -> Vec<usize> {
         }
     }
     cells
+}
+
+/// A pointed corner of a piece: its point, its inside angle θ (radians, under 90°) and
+/// the unit vector halving it, into the piece.
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct Tip {
+    at: Pt,
+    angle: f64,
+    inward: Pt,
+}
+
+/// The corners of a piece's outline whose inside angle is under 90°: pointed tips, where
+/// the piece is narrower than a lead for some way in.
+fn pointed_corners(piece: &Polygon) -> Vec<Tip> {
+    let ring = &piece.exterior().0;
+    // The ring closes on its first point; its last point is left out.
+    let n = ring.len().saturating_sub(1);
+    if n < 3 {
+        return Vec::new();
+    }
+    // Twice the signed area: positive for a counter-clockwise ring.
+    let turn: f64 = (0..n).map(|i| ring[i].x * ring[(i + 1) % n].y - ring[(i + 1) % n].x * ring[i].y).sum();
+    let unit = |v: Pt| v / v.x.hypot(v.y);
+    (0..n)
+        .filter_map(|i| {
+            let (a, b, c) = (ring[(i + n - 1) % n], ring[i], ring[(i + 1) % n]);
+            let (u, v) = (a - b, c - b);
+            // Convex (the ring turns the way it winds) and the two edges less than 90°
+            // apart.
+            let cross = (b.x - a.x) * (c.y - b.y) - (b.y - a.y) * (c.x - b.x);
+            (cross * turn > 0.0 && u.x * v.x + u.y * v.y > 0.0 && u != v).then(|| Tip {
+                at: b,
+                angle: (u.x * v.y - u.y * v.x).abs().atan2(u.x * v.x + u.y * v.y),
+                inward: unit(unit(u) + unit(v)),
+            })
+        })
+        .collect()
+}
+
+/// Where a lead ends at `end` in the narrow end of a pointed corner of one of its net's
+/// `pieces` — within w / (2 tan(θ/2)) of the point, where a corner of inside angle θ is
+/// narrower than the lead width w (plane geometry), and a cell further — the point a
+/// straight stub (orthogonal or 45°, the direction nearest the corner's halving line)
+/// carries it on to, half a lead past that narrow end, inside the piece. A lead that
+/// ended in the pointed tip of a slanted segment joined the segment through the tip: the
+/// tip's two edges, split apart by the lead's, faced each other 0.0973 mm apart where
+/// 0.1 mm leads were drawn to a 0.1 mm width rule.
+fn stub_into_piece(pieces: &[Polygon], end: Pt, w: f64, h: f64) -> Option<Pt> {
+    use geo::Intersects;
+    let dirs = (0..8).map(|k| {
+        let a = k as f64 * std::f64::consts::FRAC_PI_4;
+        crate::geom::pt(a.cos(), a.sin())
+    });
+    let dot = |a: Pt, b: Pt| a.x * b.x + a.y * b.y;
+    pieces.iter().find_map(|piece| {
+        pointed_corners(piece).into_iter().find_map(|tip| {
+            let narrow = w / (2.0 * (tip.angle / 2.0).tan());
+            if crate::geom::dist(tip.at, end) >= narrow + h {
+                return None;
+            }
+            let dir = dirs.clone().max_by(|a, b| dot(*a, tip.inward).total_cmp(&dot(*b, tip.inward)))?;
+            let along = (narrow + w / 2.0 - dot(end - tip.at, tip.inward)) / dot(dir, tip.inward);
+            let to = end + dir * along;
+            (along > 0.0 && piece.intersects(&geo::Point(to))).then_some(to)
+        })
+    })
+}
+
+/// [`stub_into_piece`] at both ends of a lead's corner points.
+fn into_pieces(pieces: &[Polygon], pts: &mut Vec<Pt>, w: f64, h: f64) {
+    if let Some(to) = pts.first().and_then(|&p| stub_into_piece(pieces, p, w, h)) {
+        pts.insert(0, to);
+    }
+    if let Some(to) = pts.last().and_then(|&p| stub_into_piece(pieces, p, w, h)) {
+        pts.push(to);
+    }
 }
 
 fn claim_lead(grid: &mut Grid, layout: &Layout, pts: &[Pt], owner: u32, k: f64) {
@@ -437,5 +517,48 @@ mod tests {
         assert_eq!(divided.arrivals.len(), 30);
         assert_eq!(divided.arrivals, whole.arrivals);
         assert_eq!(divided.joins, whole.joins);
+    }
+
+    /// A right triangle with legs 4 and 1 has inside angles of 90°, atan(1/4) ≈ 14° and
+    /// atan(4) ≈ 76° (plane geometry): the two sharp ones are pointed, the right angle is
+    /// not, whichever way the ring winds; a rectangle has none.
+    #[test]
+    fn pointed_corners_are_those_under_a_right_angle() {
+        use crate::geom::{pt, rect};
+        let ccw = Polygon::new(vec![pt(0.0, 0.0), pt(4.0, 0.0), pt(0.0, 1.0), pt(0.0, 0.0)].into(), vec![]);
+        let cw = Polygon::new(vec![pt(0.0, 0.0), pt(0.0, 1.0), pt(4.0, 0.0), pt(0.0, 0.0)].into(), vec![]);
+        for tri in [ccw, cw] {
+            let mut got = pointed_corners(&tri);
+            got.sort_by(|a, b| a.at.x.total_cmp(&b.at.x));
+            assert_eq!(got.iter().map(|g| g.at).collect::<Vec<_>>(), vec![pt(0.0, 1.0), pt(4.0, 0.0)]);
+            assert!((got[0].angle - 4f64.atan()).abs() < 1e-12 && (got[1].angle - 0.25f64.atan()).abs() < 1e-12, "{got:?}");
+            // Halving the 14° corner at (4, 0) points back along the long leg, turned up
+            // by half its angle.
+            let half = 0.25f64.atan() / 2.0;
+            assert!(crate::geom::dist(got[1].inward, pt(-half.cos(), half.sin())) < 1e-12, "{got:?}");
+        }
+        assert!(pointed_corners(&rect(0.0, 0.0, 3.0, 1.0)).is_empty());
+    }
+
+    /// A tip of 30° (vertices at (0, 0), (10, ±10 tan 15°)) is narrower than a 0.1 mm
+    /// lead for 0.1 / (2 tan 15°) = 0.1866 mm from its point (plane geometry). A lead
+    /// ending 0.1 mm in is carried on along the halving line, here the x axis, to
+    /// 0.1866 + 0.05 mm, where the tip is 2 × 0.2366 × tan 15° = 0.127 mm wide, more than
+    /// the lead; one ending 1 mm in, or beside the tip's narrow end, gets no stub.
+    #[test]
+    fn a_lead_ending_in_a_narrow_tip_is_carried_on_to_where_it_is_a_lead_wide() {
+        use crate::geom::pt;
+        let t = 15f64.to_radians().tan();
+        let tip = Polygon::new(vec![pt(0.0, 0.0), pt(10.0, -10.0 * t), pt(10.0, 10.0 * t), pt(0.0, 0.0)].into(), vec![]);
+        let (w, h) = (0.1, 0.025);
+        let to = stub_into_piece(std::slice::from_ref(&tip), pt(0.1, 0.0), w, h).expect("a stub");
+        let narrow = w / (2.0 * t);
+        assert!(crate::geom::dist(to, pt(narrow + w / 2.0, 0.0)) < 1e-12, "{to:?}");
+        assert!(2.0 * to.x * t > w);
+        assert_eq!(stub_into_piece(std::slice::from_ref(&tip), pt(1.0, 0.0), w, h), None);
+        let mut pts = vec![pt(0.1, 0.0), pt(0.1, -5.0)];
+        into_pieces(std::slice::from_ref(&tip), &mut pts, w, h);
+        assert_eq!(pts.len(), 3, "{pts:?}");
+        assert!(crate::geom::dist(pts[0], to) < 1e-12);
     }
 }

@@ -19,3 +19,23 @@ fn nothing_drawn_by_segmask_is_too_narrow_under_laser_rules() {
         assert!(!err.contains(rule), "{rule} under laser rules:\n{err}");
     }
 }
+
+/// With film compensation (`rules.compensate`) the default lead is exactly `min_width`
+/// wide, with no margin. A lead of the cold-store demo that ended in the pointed tip of a
+/// slanted segment joined it through the tip: the tip's edges, split apart by the lead's,
+/// faced each other 0.0973 mm apart, a `width` error against 0.1 mm. Such a lead is now
+/// carried on into the segment to where it is a lead wide.
+#[test]
+fn a_lead_ending_in_a_pointed_tip_keeps_its_width_under_film_compensation() {
+    let demo = std::fs::read_to_string(PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo-layouts/cold-store-monitor.yaml")).unwrap();
+    let text = demo.replacen("  undercut: 5um\n", "  undercut: 5um\n  compensate: true\n", 1);
+    assert_ne!(text, demo, "the demo's rules changed");
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("cold-store-monitor.yaml");
+    std::fs::write(&path, text).unwrap();
+    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("check").arg(&path).output().unwrap();
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert_eq!(o.status.code(), Some(0), "{err}");
+    assert!(err.contains("cold-store-monitor: 0 error(s), 0 warning(s)"), "{err}");
+}
+
