@@ -544,7 +544,7 @@ mod tests {
     /// lead for 0.1 / (2 tan 15°) = 0.1866 mm from its point (plane geometry). A lead
     /// ending 0.1 mm in is carried on along the halving line, here the x axis, to
     /// 0.1866 + 0.05 mm, where the tip is 2 × 0.2366 × tan 15° = 0.127 mm wide, more than
-    /// the lead; one ending 1 mm in, or beside the tip's narrow end, gets no stub.
+    /// the lead; one ending 1 mm in, past the narrow end, gets no stub.
     #[test]
     fn a_lead_ending_in_a_narrow_tip_is_carried_on_to_where_it_is_a_lead_wide() {
         use crate::geom::pt;
