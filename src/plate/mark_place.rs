@@ -40,12 +40,6 @@ pub struct MarkPlaces {
     pub findings: Vec<Finding>,
 }
 
-/// The distance a mark keeps from other ITO ([`crate::layout::Rules::mark_gap`]; the
-/// check's gap rule, `check::gap`, measures it).
-pub fn keep_gap(layout: &Layout) -> f64 {
-    layout.rules.mark_gap()
-}
-
 /// An R-tree of obstacle boxes, each carrying its polygon's index.
 struct Obstacles<'a> {
     polys: Vec<&'a Polygon>,
@@ -104,7 +98,7 @@ fn mark_box(c: Pt, half: f64) -> (f64, f64, f64, f64) {
 /// Places the marks (see the module comment) among `shapes`.
 pub fn place_marks(layout: &Layout, shapes: &[Shape]) -> MarkPlaces {
     let half = layout.marks.size / 2.0;
-    let gap = keep_gap(layout);
+    let gap = layout.rules.mark_gap();
     let room = crate::spec::mark_room(layout);
     let window = corners(&layout.window);
     let obstacles = Obstacles::new(shapes);
@@ -193,7 +187,7 @@ mod tests {
     /// and at least the edge clearance inside both glasses; and keeps the gap from every
     /// shape given (plane geometry, measured with the polygon distance).
     fn assert_placed_well(layout: &Layout, shapes: &[Shape], c: Pt) {
-        let (half, gap) = (layout.marks.size / 2.0, keep_gap(layout));
+        let (half, gap) = (layout.marks.size / 2.0, layout.rules.mark_gap());
         let sq = rect(c.x - half, c.y - half, c.x + half, c.y + half);
         let lc = crate::spec::liquid_crystal_region(layout);
         assert!(lc.contains_rect(&Rect { x: c.x - half, y: c.y - half, width: 2.0 * half, height: 2.0 * half }), "{c:?}");
@@ -214,7 +208,7 @@ mod tests {
         let l = tiny_layout();
         let p = place_marks(&l, &[]);
         assert!(p.findings.is_empty(), "{:?}", p.findings);
-        let d = keep_gap(&l) + 0.5;
+        let d = l.rules.mark_gap() + 0.5;
         let want = [pt(2.5 + d, 6.5 + d), pt(27.5 - d, 21.5 - d), pt(27.5 - d, 6.5 + d), pt(2.5 + d, 21.5 - d)];
         for (c, w) in p.centres.iter().zip(want) {
             assert!(geom::dist(*c, w) < 1e-9, "{c:?} ≠ {w:?}");
@@ -233,9 +227,9 @@ mod tests {
         assert!(p.findings.is_empty(), "{:?}", p.findings);
         let c = p.centres[0];
         assert_placed_well(&l, &shapes, c);
-        let lowest = 7.7 + keep_gap(&l) + 0.5;
+        let lowest = 7.7 + l.rules.mark_gap() + 0.5;
         assert!(c.y >= lowest - 1e-9 && c.y <= lowest + l.marks.size / 4.0 + 1e-9, "{c:?}");
-        assert!((c.x - (2.5 + keep_gap(&l) + 0.5)).abs() < 1e-9, "{c:?} left the edge");
+        assert!((c.x - (2.5 + l.rules.mark_gap() + 0.5)).abs() < 1e-9, "{c:?} left the edge");
     }
 
     /// One corner filled: a warning, the other diagonal pair stands. The whole bottom
