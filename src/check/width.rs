@@ -454,4 +454,30 @@ mod tests {
             assert!(narrow_places(&thin, 0.11).iter().any(|h| h.distance < 0.11 - SLACK_MM), "offset {o}");
         }
     }
+
+    /// A lead arriving at 45° whose centre line ends on the right-angled corner of a
+    /// 2 mm square (as the escape leaves a lead on a segment's corner): of its round end
+    /// only two ears stay outside the square, one on each side, and their chords next to
+    /// the lead's sides face each other across its end, tilted by one step of the
+    /// flattening. Flattened inside the circle (`stroke_lead` at the default 1 µm
+    /// tolerance, 18° steps) they stand closer than the lead's width: the neck a
+    /// tank-gauge layout under laser-film rules reported as 0.1617 mm drawn for a 0.17 mm
+    /// lead. Drawn outside the circle (`stroke_lead_drawn`), no chord across
+    /// the end is shorter than the lead (plane geometry: each edge of the end is tangent
+    /// to the circle), so nothing is narrower than 0.17 mm.
+    #[test]
+    fn a_lead_ending_on_a_corner_keeps_its_width_with_drawn_ends() {
+        use crate::geom::{rect, region_of, stroke_lead, stroke_lead_drawn, union};
+        let square = region_of([rect(-2.0, 0.0, 0.0, 2.0)]);
+        let path = [pt(1.0, -1.0), pt(0.0, 0.0)];
+        let narrowest = |lead: &crate::geom::Region| {
+            let ito = crate::geom::orient_ccw(&union(&square, lead).0[0]);
+            narrow_places(&region_of([ito]), 0.17).into_iter().map(|h| h.distance).fold(f64::INFINITY, f64::min)
+        };
+        let flattened = narrowest(&stroke_lead(&path, 0.17, 0.001));
+        // 0.16168 mm measured here: the 0.1617 mm of the layout.
+        assert!(flattened < 0.165, "round ends inside the circle: a neck of {flattened}");
+        let drawn = narrowest(&stroke_lead_drawn(&path, 0.17, 0.001));
+        assert!(drawn >= 0.17 - SLACK_MM, "drawn ends: narrowest {drawn}");
+    }
 }

@@ -21,7 +21,7 @@ pub use centroid::centroid;
 pub use interior::interior_point;
 pub use overlap::overlap_area;
 pub use segment::{cross3, dist, dist2, point_segment_closest, segment_closest_points, segment_intersection};
-pub use shapes::{circle, rect, regular_arc_step, ring, stroke_lead, stroke_polyline};
+pub use shapes::{circle, rect, regular_arc_step, ring, stroke_lead, stroke_lead_drawn, stroke_polyline};
 
 use geo::algorithm::bool_ops::FillRule;
 use geo::algorithm::buffer::{BufferStyle, LineJoin};

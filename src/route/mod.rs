@@ -282,8 +282,12 @@ fn far_rows(layout: &Layout, el: &Electrodes) -> String {
         .join(", ")
 }
 
+/// A front lead as drawn: its ends outside their circles ([`crate::geom::stroke_lead_drawn`]),
+/// since a front lead may end on an edge or corner of its segment, where a round end
+/// flattened inside its circle leaves a neck narrower than the lead. (Back leads end on
+/// cells half a lead inside their islands and dots, their ends covered.)
 fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
-    let outline = crate::geom::stroke_lead(&path, layout.rules.lead_width, layout.tolerance);
+    let outline = crate::geom::stroke_lead_drawn(&path, layout.rules.lead_width, layout.tolerance);
     Lead { net: net.to_string(), plate: PlateId::Front, path, outline, user_bus: false }
 }
 
