@@ -23,7 +23,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
     let mut shapes = Vec::new();
     for s in &el.segs {
         let mut parts: Vec<Polygon> = s.outline.0.clone();
-        parts.extend(front_net_parts(routes, &s.net));
+        parts.extend(front_net_parts(layout, routes, &s.net));
         push_united(&mut shapes, Layer::FrontIto, Role::Segment, &s.net, parts);
     }
     for c in &el.coms {
@@ -34,7 +34,7 @@ pub fn build_artwork(layout: &Layout, el: &Electrodes, routes: &Routes) -> Resul
         push_united(&mut shapes, Layer::BackIto, Role::Common, &c.net, parts);
         // The common's front-plate side: transfer pad, lead and pad on the ledge.
         let mut front: Vec<Polygon> = routes.transfers.iter().filter(|t| t.net == c.net).map(|t| t.pad.clone()).collect();
-        front.extend(front_net_parts(routes, &c.net));
+        front.extend(front_net_parts(layout, routes, &c.net));
         push_united(&mut shapes, Layer::FrontIto, Role::Lead, &c.net, front);
     }
     let dots: Vec<TransferDot> = routes
@@ -127,8 +127,23 @@ fn digit_slots(layout: &Layout) -> Vec<DigitSlot> {
     out
 }
 
-fn front_net_parts(routes: &Routes, net: &str) -> Vec<Polygon> {
-    let leads = routes.leads.iter().filter(|l| l.plate == PlateId::Front && l.net == net).flat_map(|l| l.outline.0.clone());
+/// A net's front leads and pads. A lead segmask routed is drawn with its ends outside
+/// their circles ([`crate::geom::stroke_lead_drawn`]): an escape lead may end on an edge
+/// or corner of its segment, where the two sides of a round end flattened inside its
+/// circle stay outside the segment and face each other closer than the lead's width
+/// (0.1617 mm for a 0.17 mm lead, an `etched-width` error under laser-film rules). The
+/// router kept the round end (its claims leave a grid cell of slack, far more than the
+/// end's reach of about one tolerance further); back leads end half a lead inside their
+/// islands and dots, their ends covered.
+fn front_net_parts(layout: &Layout, routes: &Routes, net: &str) -> Vec<Polygon> {
+    let drawn = |l: &crate::route::Lead| {
+        if l.user_bus {
+            l.outline.0.clone()
+        } else {
+            crate::geom::stroke_lead_drawn(&l.path, layout.rules.lead_width, layout.tolerance).0
+        }
+    };
+    let leads = routes.leads.iter().filter(|l| l.plate == PlateId::Front && l.net == net).flat_map(drawn);
     let pads = routes.pads.iter().filter(|p| p.net == net).map(|p| p.outline.clone());
     leads.chain(pads).collect()
 }

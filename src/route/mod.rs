@@ -63,7 +63,10 @@ pub struct Lead {
     pub plate: PlateId,
     /// Centre line.
     pub path: Vec<Pt>,
-    /// Outline.
+    /// Outline as the router claims it and cuts the commons clear of it, round ends
+    /// flattened inside their circles ([`crate::geom::stroke_lead`]); the plate stage
+    /// draws a front lead from its centre line with its ends outside their circles
+    /// ([`crate::geom::stroke_lead_drawn`]).
     pub outline: Region,
     /// Drawn by the user (bus) or by segmask.
     pub user_bus: bool,
@@ -282,12 +285,8 @@ fn far_rows(layout: &Layout, el: &Electrodes) -> String {
         .join(", ")
 }
 
-/// A front lead as drawn: its ends outside their circles ([`crate::geom::stroke_lead_drawn`]),
-/// since a front lead may end on an edge or corner of its segment, where a round end
-/// flattened inside its circle leaves a neck narrower than the lead. (Back leads end on
-/// cells half a lead inside their islands and dots, their ends covered.)
 fn front_lead(layout: &Layout, net: &str, path: Vec<Pt>) -> Lead {
-    let outline = crate::geom::stroke_lead_drawn(&path, layout.rules.lead_width, layout.tolerance);
+    let outline = crate::geom::stroke_lead(&path, layout.rules.lead_width, layout.tolerance);
     Lead { net: net.to_string(), plate: PlateId::Front, path, outline, user_bus: false }
 }
 
