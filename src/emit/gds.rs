@@ -7,7 +7,7 @@
 //! dates are the build date instead of "now", rings are closed, deduplicated, made
 //! hole-free and kept below the point limit ([`super::split`]).
 
-use super::split::boundary_rings;
+use super::split::{boundary_rings, NmRing};
 use crate::geom::{Polygon, Pt};
 use crate::{Error, Result};
 use gds21::{
@@ -39,12 +39,18 @@ impl Cell {
     }
 
     /// Adds a polygon as one or more hole-free BOUNDARY elements.
-    pub fn polygon(&mut self, (layer, datatype): LayerSpec, p: &Polygon) -> Result<()> {
-        for ring in boundary_rings(p)? {
+    pub fn polygon(&mut self, spec: LayerSpec, p: &Polygon) -> Result<()> {
+        self.rings(spec, &boundary_rings(p)?);
+        Ok(())
+    }
+
+    /// Adds rings already made hole-free and below the point limit ([`boundary_rings`]),
+    /// one BOUNDARY element each.
+    pub fn rings(&mut self, (layer, datatype): LayerSpec, rings: &[NmRing]) {
+        for ring in rings {
             let xy = ring.iter().map(|&(x, y)| GdsPoint::new(x, y)).collect();
             self.elems.push(GdsBoundary { layer, datatype, xy, ..Default::default() }.into());
         }
-        Ok(())
     }
 
     /// Adds a TEXT element at `at` (snapped to 1 nm); characters outside printable ASCII

@@ -12,7 +12,8 @@
 
 use super::gds::{Cell, library_bytes};
 use super::layer_polygons;
-use super::mask::{contact_mirrored, mask_plate};
+use super::mask::{contact_mirrored, etched_layers, mask_plate};
+use super::split::{boundary_rings, NmRing};
 use crate::Result;
 use crate::artwork::{Artwork, Layer};
 use crate::geom::interior_point;
@@ -40,11 +41,38 @@ pub fn mask_mirrored(art: &Artwork, plate: PlateId) -> bool {
 /// The mask structure of one plate: its etched polygons on its ITO layer and its glass
 /// outline on its glass layer.
 pub(super) fn mask_cell(art: &Artwork, plate: PlateId) -> Result<Cell> {
-    let m = mask_plate(art, plate, mask_mirrored(art, plate));
+    mask_cell_from(art, plate, None)
+}
+
+/// [`mask_cell`], taking the rings of the plate's etched polygons as drawn when they are
+/// at hand (`drawn`: per etched layer of [`etched_layers`], per polygon, its rings): a
+/// mask without etch compensation carries the drawn polygons, so their rings are those
+/// of the plate's own structure, mirrored about the glass when the mask is. Cutting a
+/// common with hundreds of holes into hole-free pieces was done twice per plate.
+fn mask_cell_from(art: &Artwork, plate: PlateId, drawn: Option<&[Vec<Vec<NmRing>>; 2]>) -> Result<Cell> {
+    let mirrored = mask_mirrored(art, plate);
+    let m = mask_plate(art, plate, mirrored);
     let mut cell = Cell::new(mask_structure(plate));
     let ito = art.gds_layer(Layer::ito(plate));
-    for p in &m.etched {
-        cell.polygon(ito, p)?;
+    match drawn.filter(|_| !m.compensated) {
+        Some(layers) => {
+            // x → x0 + x1 − x in whole nanometres (the glass lies on the 1 nm grid), each
+            // ring reversed so that it winds as before.
+            let axis = ((m.glass_box.0 + m.glass_box.2) * 1e6).round() as i64;
+            let flip = |r: &NmRing| -> NmRing { r.iter().rev().map(|&(x, y)| ((axis - x as i64) as i32, y)).collect() };
+            for rings in layers.iter().flatten() {
+                if mirrored {
+                    cell.rings(ito, &rings.iter().map(flip).collect::<Vec<_>>());
+                } else {
+                    cell.rings(ito, rings);
+                }
+            }
+        }
+        None => {
+            for p in &m.etched {
+                cell.polygon(ito, p)?;
+            }
+        }
     }
     let glass = match plate {
         PlateId::Front => Layer::FrontGlass,
@@ -62,10 +90,20 @@ pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>>
         Some(PlateId::Back) => 1,
         None => 2,
     };
+    // The etched layers' rings, kept for the mask structures.
+    let mut etched: [[Vec<Vec<NmRing>>; 2]; 2] = Default::default();
     for layer in Layer::ALL {
         let spec = art.gds_layer(layer);
+        let keep = [PlateId::Front, PlateId::Back]
+            .into_iter()
+            .enumerate()
+            .find_map(|(k, plate)| etched_layers(plate).iter().position(|l| *l == layer).map(|j| (k, j)));
         for p in layer_polygons(art, layer) {
-            cells[slot(layer)].polygon(spec, p)?;
+            let rings = boundary_rings(p)?;
+            cells[slot(layer)].rings(spec, &rings);
+            if let Some((k, j)) = keep {
+                etched[k][j].push(rings);
+            }
         }
     }
     for net in &art.nets {
@@ -87,7 +125,7 @@ pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>>
         top.reference(name);
     }
     let [front, back, cell] = cells;
-    let masks = [mask_cell(art, PlateId::Front)?, mask_cell(art, PlateId::Back)?];
+    let masks = [mask_cell_from(art, PlateId::Front, Some(&etched[0]))?, mask_cell_from(art, PlateId::Back, Some(&etched[1]))?];
     let [front_mask, back_mask] = masks;
     library_bytes(&art.name, date, vec![front, back, cell, top, front_mask, back_mask])
 }
