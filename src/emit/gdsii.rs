@@ -13,7 +13,8 @@
 use super::gds::{Cell, library_bytes};
 use super::layer_polygons;
 use super::mask::{contact_mirrored, etched_layers, mask_plate};
-use super::split::{boundary_rings, NmRing};
+use super::split::mirror_rings;
+use super::DrawnRings;
 use crate::Result;
 use crate::artwork::{Artwork, Layer};
 use crate::geom::interior_point;
@@ -45,24 +46,20 @@ pub(super) fn mask_cell(art: &Artwork, plate: PlateId) -> Result<Cell> {
 }
 
 /// [`mask_cell`], taking the rings of the plate's etched polygons as drawn when they are
-/// at hand (`drawn`: per etched layer of [`etched_layers`], per polygon, its rings): a
-/// mask without etch compensation carries the drawn polygons, so their rings are those
-/// of the plate's own structure, mirrored about the glass when the mask is. Cutting a
-/// common with hundreds of holes into hole-free pieces was done twice per plate.
-fn mask_cell_from(art: &Artwork, plate: PlateId, drawn: Option<&[Vec<Vec<NmRing>>; 2]>) -> Result<Cell> {
+/// at hand ([`super::Ctx::drawn_rings`]): a mask without etch compensation carries the
+/// drawn polygons, so their rings are those of the plate's own structure, mirrored about
+/// the glass when the mask is.
+fn mask_cell_from(art: &Artwork, plate: PlateId, drawn: Option<&DrawnRings>) -> Result<Cell> {
     let mirrored = mask_mirrored(art, plate);
     let m = mask_plate(art, plate, mirrored);
     let mut cell = Cell::new(mask_structure(plate));
     let ito = art.gds_layer(Layer::ito(plate));
     match drawn.filter(|_| !m.compensated) {
         Some(layers) => {
-            // x → x0 + x1 − x in whole nanometres (the glass lies on the 1 nm grid), each
-            // ring reversed so that it winds as before.
-            let axis = ((m.glass_box.0 + m.glass_box.2) * 1e6).round() as i64;
-            let flip = |r: &NmRing| -> NmRing { r.iter().rev().map(|&(x, y)| ((axis - x as i64) as i32, y)).collect() };
+            let axis = glass_axis_nm(&m);
             for rings in layers.iter().flatten() {
                 if mirrored {
-                    cell.rings(ito, &rings.iter().map(flip).collect::<Vec<_>>());
+                    cell.rings(ito, &mirror_rings(rings, axis));
                 } else {
                     cell.rings(ito, rings);
                 }
@@ -82,27 +79,34 @@ fn mask_cell_from(art: &Artwork, plate: PlateId, drawn: Option<&[Vec<Vec<NmRing>
     Ok(cell)
 }
 
-/// Encodes the artwork as a GDSII stream dated `date`.
-pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
+/// The mirror axis of a mask in whole nanometres: x0 + x1 of its glass box (mirroring is
+/// x → x0 + x1 − x).
+pub(super) fn glass_axis_nm(m: &super::mask::MaskPlate) -> i64 {
+    ((m.glass_box.0 + m.glass_box.2) * 1e6).round() as i64
+}
+
+/// Encodes the artwork as a GDSII stream dated `date`; `drawn` gives each plate's etched
+/// polygons already cut into rings when at hand ([`super::Ctx::drawn_rings`]).
+pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime, drawn: [Option<&DrawnRings>; 2]) -> Result<Vec<u8>> {
     let mut cells = [Cell::new(FRONT), Cell::new(BACK), Cell::new(CELL)];
     let slot = |layer: Layer| match layer.plate() {
         Some(PlateId::Front) => 0,
         Some(PlateId::Back) => 1,
         None => 2,
     };
-    // The etched layers' rings, kept for the mask structures.
-    let mut etched: [[Vec<Vec<NmRing>>; 2]; 2] = Default::default();
     for layer in Layer::ALL {
         let spec = art.gds_layer(layer);
-        let keep = [PlateId::Front, PlateId::Back]
-            .into_iter()
-            .enumerate()
-            .find_map(|(k, plate)| etched_layers(plate).iter().position(|l| *l == layer).map(|j| (k, j)));
-        for p in layer_polygons(art, layer) {
-            let rings = boundary_rings(p)?;
-            cells[slot(layer)].rings(spec, &rings);
-            if let Some((k, j)) = keep {
-                etched[k][j].push(rings);
+        // An etched layer's rings, when at hand.
+        let made = [PlateId::Front, PlateId::Back].into_iter().enumerate().find_map(|(k, plate)| {
+            let j = etched_layers(plate).iter().position(|l| *l == layer)?;
+            drawn[k].map(|d| &d[j])
+        });
+        match made {
+            Some(rings) => rings.iter().for_each(|r| cells[slot(layer)].rings(spec, r)),
+            None => {
+                for p in layer_polygons(art, layer) {
+                    cells[slot(layer)].polygon(spec, p)?;
+                }
             }
         }
     }
@@ -125,7 +129,7 @@ pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>>
         top.reference(name);
     }
     let [front, back, cell] = cells;
-    let masks = [mask_cell_from(art, PlateId::Front, Some(&etched[0]))?, mask_cell_from(art, PlateId::Back, Some(&etched[1]))?];
+    let masks = [mask_cell_from(art, PlateId::Front, drawn[0])?, mask_cell_from(art, PlateId::Back, drawn[1])?];
     let [front_mask, back_mask] = masks;
     library_bytes(&art.name, date, vec![front, back, cell, top, front_mask, back_mask])
 }

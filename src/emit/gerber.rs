@@ -17,7 +17,8 @@
 
 use super::film::dark_field;
 use super::mask::{MaskPlate, mask_plate};
-use super::split::{NmRing, boundary_rings};
+use super::split::{NmRing, boundary_rings, mirror_rings};
+use super::DrawnRings;
 use crate::artwork::Artwork;
 use crate::geom::rect;
 use crate::layout::{PlateId, Resist};
@@ -69,15 +70,27 @@ fn function_words(plate: PlateId) -> String {
     })
 }
 
-/// The Gerber file of one plate. `date` becomes `.CreationDate` (midnight UTC).
-pub fn render_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
+/// The Gerber file of one plate. `date` becomes `.CreationDate` (midnight UTC); `drawn`
+/// gives the plate's etched polygons already cut into rings when at hand
+/// ([`super::Ctx::drawn_rings`]), used when the mask is not compensated.
+pub fn render_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime, drawn: Option<&DrawnRings>) -> Result<Vec<u8>> {
     let m = mask_plate(art, plate, art.masks.mirror && super::mask::contact_mirrored(plate));
-    gerber_of_mask(art, &m, &function_words(plate), date)
+    let rings = drawn.filter(|_| !m.compensated).map(|layers| {
+        let all: Vec<NmRing> = layers.iter().flatten().flatten().cloned().collect();
+        if m.mirrored { mirror_rings(&all, super::gdsii::glass_axis_nm(&m)) } else { all }
+    });
+    gerber_with_rings(art, &m, &function_words(plate), date, rings)
 }
 
 /// The Gerber file of a mask (a cell's or a panel's); `function` is the free text of
 /// `.FileFunction,Other,…`.
 pub fn gerber_of_mask(art: &Artwork, m: &MaskPlate, function: &str, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
+    gerber_with_rings(art, m, function, date, None)
+}
+
+/// [`gerber_of_mask`] with the rings of the mask's etched polygons given (`None`: cut
+/// here).
+fn gerber_with_rings(art: &Artwork, m: &MaskPlate, function: &str, date: chrono::NaiveDateTime, rings: Option<Vec<NmRing>>) -> Result<Vec<u8>> {
     let plate = m.plate;
     let polarity = match art.resist {
         Resist::Positive => FilePolarity::Positive,
@@ -106,9 +119,14 @@ pub fn gerber_of_mask(art: &Artwork, m: &MaskPlate, function: &str, date: chrono
             cmds.push(ext(Polarity::Clear));
         }
     }
-    for p in &m.etched {
-        for ring in boundary_rings(p)? {
-            region(&ring, &mut cmds);
+    match rings {
+        Some(rings) => rings.iter().for_each(|ring| region(ring, &mut cmds)),
+        None => {
+            for p in &m.etched {
+                for ring in boundary_rings(p)? {
+                    region(&ring, &mut cmds);
+                }
+            }
         }
     }
     cmds.push(func(MCode::EndOfFile));

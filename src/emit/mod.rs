@@ -95,12 +95,38 @@ pub struct Ctx<'a> {
     pub png_dpi: f32,
     /// The segment map's rows, measured once for the segment map and the report.
     pub rows: std::sync::OnceLock<Vec<segmap::SegmentRow>>,
+    /// Per plate, the boundary rings of its etched polygons as drawn, made once for the
+    /// GDSII file and the Gerber files ([`Ctx::drawn_rings`]).
+    pub drawn: [std::sync::OnceLock<Option<DrawnRings>>; 2],
 }
+
+/// A plate's etched polygons as drawn (unmirrored, uncompensated), each cut into
+/// hole-free boundary rings below the point limit ([`split::boundary_rings`]), in the
+/// order of [`mask::etched_layers`] and of the artwork's shapes on each layer.
+pub type DrawnRings = [Vec<Vec<split::NmRing>>; 2];
 
 impl Ctx<'_> {
     /// The segment map's rows ([`segmap::segment_rows`], made on first use).
     pub fn segment_rows(&self) -> Vec<segmap::SegmentRow> {
         self.rows.get_or_init(|| segmap::segment_rows(self.art)).clone()
+    }
+
+    /// The rings of `plate`'s etched polygons as drawn, made on first use: cutting a
+    /// common with hundreds of holes into hole-free pieces was done for the plate's
+    /// GDSII structure, its GDSII mask structure and its Gerber file, once each. `None`
+    /// when a polygon cannot be cut (each writer then cuts its own and reports why).
+    pub fn drawn_rings(&self, plate: PlateId) -> Option<&DrawnRings> {
+        let slot = match plate {
+            PlateId::Front => 0,
+            PlateId::Back => 1,
+        };
+        self.drawn[slot]
+            .get_or_init(|| {
+                let [a, b] = mask::etched_layers(plate)
+                    .map(|l| self.art.on_layer(l).map(|s| split::boundary_rings(&s.polygon).ok()).collect::<Option<Vec<_>>>());
+                Some([a?, b?])
+            })
+            .as_ref()
     }
 }
 
@@ -149,10 +175,10 @@ pub const OUTPUTS: &[Output] = &[
             Ok(pdf::pdf_bytes(&pages, &format!("{} print sheet", c.art.name), ymd(c)))
         },
     },
-    Output { suffix: "front.gbr", mask: true, panel: false, render: |c| gerber::render_gerber(c.art, PlateId::Front, c.datetime) },
-    Output { suffix: "back.gbr", mask: true, panel: false, render: |c| gerber::render_gerber(c.art, PlateId::Back, c.datetime) },
+    Output { suffix: "front.gbr", mask: true, panel: false, render: |c| gerber::render_gerber(c.art, PlateId::Front, c.datetime, c.drawn_rings(PlateId::Front)) },
+    Output { suffix: "back.gbr", mask: true, panel: false, render: |c| gerber::render_gerber(c.art, PlateId::Back, c.datetime, c.drawn_rings(PlateId::Back)) },
     Output { suffix: "preview.svg", mask: false, panel: false, render: |c| preview::render_preview(c.art, c.findings) },
-    Output { suffix: "gds", mask: true, panel: false, render: |c| gdsii::render_gds(c.art, c.datetime) },
+    Output { suffix: "gds", mask: true, panel: false, render: |c| gdsii::render_gds(c.art, c.datetime, [c.drawn_rings(PlateId::Front), c.drawn_rings(PlateId::Back)]) },
     Output { suffix: "masks.json", mask: true, panel: false, render: |c| order::render_order_json(c.art, c.date) },
     Output { suffix: "masks.txt", mask: true, panel: false, render: |c| Ok(order::render_order_text(c.art, c.date)) },
     Output { suffix: "pins.csv", mask: false, panel: false, render: |c| Ok(pins::render_pins(c.art)) },
@@ -203,7 +229,7 @@ pub fn render_outputs_planned(
     let errors = crate::finding::count(findings, Severity::Error);
     let masks = errors == 0 || opts.masks_despite_errors;
     let name = file_stem(&art.name);
-    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan, png_dpi: opts.png_dpi, rows: Default::default() };
+    let ctx = Ctx { art, findings, date: &opts.date, datetime, errors, plan, png_dpi: opts.png_dpi, rows: Default::default(), drawn: Default::default() };
     // Each output is rendered on its own (rayon spreads them over the cores); collected in
     // the table's order, and the first failure in that order is the one reported, so the
     // files and messages are the same as one after another.

@@ -126,6 +126,14 @@ fn nm_ring(p: &Polygon) -> Option<NmRing> {
     Some(r)
 }
 
+/// Rings mirrored about the vertical line `x = axis_nm / 2` (x → axis_nm − x, whole
+/// nanometres), each reversed so that it winds as before: the rings of a mirrored
+/// polygon without cutting it again (exact when the axis lies on the 1 nm grid, as the
+/// glass does).
+pub fn mirror_rings(rings: &[NmRing], axis_nm: i64) -> Vec<NmRing> {
+    rings.iter().map(|r| r.iter().rev().map(|&(x, y)| ((axis_nm - x as i64) as i32, y)).collect()).collect()
+}
+
 /// Twice the signed area of an integer ring (exact).
 pub fn area2(r: &[(i32, i32)]) -> i128 {
     let n = r.len();
@@ -180,6 +188,20 @@ mod tests {
 
     /// A square ring keeps its area to the square nanometre: the cut crosses only
     /// horizontal edges, so no vertex is rounded (shoelace formula on integers).
+    /// A counter-clockwise L-shaped ring mirrored about x = 5 mm (axis 10 mm): every
+    /// point moves to 10 − x, the ring still winds counter-clockwise (positive shoelace
+    /// area, the same as before: mirroring keeps areas), and mirroring twice gives it back.
+    #[test]
+    fn mirrored_rings_keep_area_and_winding() {
+        let l: NmRing = vec![(0, 0), (3_000_000, 0), (3_000_000, 1_000_000), (1_000_000, 1_000_000), (1_000_000, 2_000_000), (0, 2_000_000), (0, 0)];
+        let m = mirror_rings(&[l.clone()], 10_000_000);
+        assert_eq!(area2(&l), area2(&m[0]));
+        assert!(area2(&m[0]) > 0);
+        let xs: Vec<i32> = m[0].iter().map(|p| p.0).collect();
+        assert!(xs.iter().all(|&x| (7_000_000..=10_000_000).contains(&x)), "{xs:?}");
+        assert_eq!(mirror_rings(&m, 10_000_000), vec![l]);
+    }
+
     #[test]
     fn square_ring_splits_exactly() {
         let mut p = rect(8.0, 12.0, 20.0, 24.0);
