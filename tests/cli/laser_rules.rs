@@ -27,18 +27,23 @@ fn nothing_drawn_by_segmask_is_too_narrow_under_laser_rules() {
 /// carried on into the segment to where it is a lead wide.
 #[test]
 fn a_lead_ending_in_a_pointed_tip_keeps_its_width_under_film_compensation() {
-    let demo = std::fs::read_to_string(PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo-layouts/cold-store-monitor.yaml")).unwrap();
-    let text = demo.replacen("  undercut: 5um\n", "  undercut: 5um\n  compensate: true\n", 1);
-    assert_ne!(text, demo, "the demo's rules changed");
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("cold-store-monitor.yaml");
-    std::fs::write(&path, text).unwrap();
-    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("check").arg(&path).output().unwrap();
-    let err = String::from_utf8_lossy(&o.stderr);
-    assert_eq!(o.status.code(), Some(0), "{err}");
+    let (code, err) = check_demo_with("cold-store-monitor", "  undercut: 5um\n", "  undercut: 5um\n  compensate: true\n");
+    assert_eq!(code, Some(0), "{err}");
     assert!(err.contains("cold-store-monitor: 0 error(s), 0 warning(s)"), "{err}");
 }
 
+/// `segmask check` on a demo layout with one stretch of its text replaced (which must be
+/// there): the exit code and what it printed on stderr.
+fn check_demo_with(demo: &str, from: &str, to: &str) -> (Option<i32>, String) {
+    let text = std::fs::read_to_string(PathBuf::from(env!("CARGO_MANIFEST_DIR")).join(format!("demo-layouts/{demo}.yaml"))).unwrap();
+    let changed = text.replacen(from, to, 1);
+    assert_ne!(changed, text, "the demo's rules changed");
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join(format!("{demo}.yaml"));
+    std::fs::write(&path, changed).unwrap();
+    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("check").arg(&path).output().unwrap();
+    (o.status.code(), String::from_utf8_lossy(&o.stderr).into_owned())
+}
 
 /// The tank-gauge demo under laser-film rules (0.15 mm lines and gaps, 10 µm undercut):
 /// the default lead is then 0.17 mm, exactly the etched limit. The escape leads of the
@@ -51,14 +56,8 @@ fn a_lead_ending_in_a_pointed_tip_keeps_its_width_under_film_compensation() {
 /// here.)
 #[test]
 fn a_lead_ending_on_a_corner_keeps_its_width_under_laser_rules() {
-    let demo = std::fs::read_to_string(PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo-layouts/tank-level-dial.yaml")).unwrap();
-    let text = demo.replacen("  min_width: 0.1\n  min_gap: 0.05\n  undercut: 5um\n", "  min_width: 0.15\n  min_gap: 0.15\n  undercut: 10um\n", 1);
-    assert_ne!(text, demo, "the demo's rules changed");
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("tank-level-dial.yaml");
-    std::fs::write(&path, text).unwrap();
-    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("check").arg(&path).output().unwrap();
-    let err = String::from_utf8_lossy(&o.stderr);
+    let laser = "  min_width: 0.15\n  min_gap: 0.15\n  undercut: 10um\n";
+    let (_, err) = check_demo_with("tank-level-dial", "  min_width: 0.1\n  min_gap: 0.05\n  undercut: 5um\n", laser);
     assert!(err.contains("tank-level-dial:"), "the check must run to its summary:\n{err}");
     for rule in ["error[width]", "error[etched-width]", "error[film-feature]"] {
         assert!(!err.contains(rule), "{rule} under laser rules:\n{err}");
