@@ -71,20 +71,28 @@ pub fn stroke_lead(points: &[Pt], width: f64, tol: f64) -> Region {
 /// A lead as drawn on the glass: [`stroke_lead`] with each round end drawn *outside* its
 /// circle, every edge of the end tangent to the circle (a regular polygon about the
 /// circle, vertices at `(w/2) / cos(s/2)` for an angular step `s`), so that no chord
-/// through the end is shorter than `width`. An end flattened inside its circle is up to
-/// two chord tolerances narrower across: where a lead ends on the corner of a segment,
-/// the two sides of its end that stay outside the segment face each other that much
-/// closer than `width` (0.1617 mm for a 0.17 mm lead at a 4 µm tolerance). The ends reach
-/// at most about `tol` further than a round end.
+/// through the end is shorter than `width`. An end flattened inside its circle has its
+/// chords inside: where a lead ends on the corner of a segment, the chords of the two
+/// sides of its end that stay outside the segment face each other, tilted by one step,
+/// closer than `width` (0.1617 mm for a 0.17 mm lead at the default 1 µm tolerance,
+/// `check::width`'s test). The ends reach at most about `tol` further than a round end.
 ///
 /// ```
 /// use segmask::geom::{pt, stroke_lead_drawn};
-/// // A 1 mm lead 2 mm long: every point of its outline is at least 0.5 mm from the
-/// // centre line (so no chord across an end is shorter than 1 mm).
+/// // A 1 mm lead 2 mm long: every edge of its outline keeps at least 0.5 mm from the
+/// // centre line, the end's edges from the end points (plane geometry: a point's
+/// // distance to a segment), so no chord across an end is shorter than 1 mm.
 /// let lead = stroke_lead_drawn(&[pt(0.0, 0.0), pt(2.0, 0.0)], 1.0, 0.01);
-/// for c in lead.0[0].exterior().0.iter() {
-///     let d = if c.x < 0.0 { c.x.hypot(c.y) } else if c.x > 2.0 { (c.x - 2.0).hypot(c.y) } else { c.y.abs() };
-///     assert!(d > 0.5 - 2e-6, "{c:?} at {d}");
+/// let ring = &lead.0[0].exterior().0;
+/// for e in ring.windows(2) {
+///     let (a, b) = (e[0], e[1]);
+///     let end = if a.x + b.x < 2.0 { pt(0.0, 0.0) } else { pt(2.0, 0.0) };
+///     let d = b - a;
+///     let t = (((end - a).x * d.x + (end - a).y * d.y) / (d.x * d.x + d.y * d.y)).clamp(0.0, 1.0);
+///     let near = a + d * t;
+///     let from_end = (near - end).x.hypot((near - end).y);
+///     let from_line = if near.x < 0.0 || near.x > 2.0 { from_end } else { near.y.abs() };
+///     assert!(from_line > 0.5 - 2e-6, "edge {a:?}–{b:?} at {from_line}");
 /// }
 /// ```
 pub fn stroke_lead_drawn(points: &[Pt], width: f64, tol: f64) -> Region {
