@@ -13,7 +13,6 @@
 use super::gds::{Cell, library_bytes};
 use super::layer_polygons;
 use super::mask::{contact_mirrored, etched_layers, mask_plate};
-use super::split::mirror_rings;
 use super::DrawnRings;
 use crate::Result;
 use crate::artwork::{Artwork, Layer};
@@ -40,31 +39,15 @@ pub fn mask_mirrored(art: &Artwork, plate: PlateId) -> bool {
 }
 
 /// The mask structure of one plate: its etched polygons on its ITO layer and its glass
-/// outline on its glass layer.
-pub(super) fn mask_cell(art: &Artwork, plate: PlateId) -> Result<Cell> {
-    mask_cell_from(art, plate, None)
-}
-
-/// [`mask_cell`], taking the rings of the plate's etched polygons as drawn when they are
-/// at hand ([`super::Ctx::drawn_rings`]): a mask without etch compensation carries the
-/// drawn polygons, so their rings are those of the plate's own structure, mirrored about
-/// the glass when the mask is.
-fn mask_cell_from(art: &Artwork, plate: PlateId, drawn: Option<&DrawnRings>) -> Result<Cell> {
-    let mirrored = mask_mirrored(art, plate);
-    let m = mask_plate(art, plate, mirrored);
+/// outline on its glass layer. `drawn` gives the plate's etched polygons already cut into
+/// rings when at hand ([`super::Ctx::drawn_rings`]), taken when the mask is not
+/// compensated ([`super::mask::MaskPlate::rings_from`]).
+pub(super) fn mask_cell(art: &Artwork, plate: PlateId, drawn: Option<&DrawnRings>) -> Result<Cell> {
+    let m = mask_plate(art, plate, mask_mirrored(art, plate));
     let mut cell = Cell::new(mask_structure(plate));
     let ito = art.gds_layer(Layer::ito(plate));
-    match drawn.filter(|_| !m.compensated) {
-        Some(layers) => {
-            let axis = glass_axis_nm(&m);
-            for rings in layers.iter().flatten() {
-                if mirrored {
-                    cell.rings(ito, &mirror_rings(rings, axis));
-                } else {
-                    cell.rings(ito, rings);
-                }
-            }
-        }
+    match m.rings_from(drawn) {
+        Some(rings) => cell.rings(ito, &rings),
         None => {
             for p in &m.etched {
                 cell.polygon(ito, p)?;
@@ -77,12 +60,6 @@ fn mask_cell_from(art: &Artwork, plate: PlateId, drawn: Option<&DrawnRings>) -> 
     };
     cell.polygon(art.gds_layer(glass), &m.glass)?;
     Ok(cell)
-}
-
-/// The mirror axis of a mask in whole nanometres: x0 + x1 of its glass box (mirroring is
-/// x → x0 + x1 − x).
-pub(super) fn glass_axis_nm(m: &super::mask::MaskPlate) -> i64 {
-    ((m.glass_box.0 + m.glass_box.2) * 1e6).round() as i64
 }
 
 /// Encodes the artwork as a GDSII stream dated `date`; `drawn` gives each plate's etched
@@ -129,7 +106,7 @@ pub fn render_gds(art: &Artwork, date: chrono::NaiveDateTime, drawn: [Option<&Dr
         top.reference(name);
     }
     let [front, back, cell] = cells;
-    let masks = [mask_cell_from(art, PlateId::Front, drawn[0])?, mask_cell_from(art, PlateId::Back, drawn[1])?];
+    let masks = [mask_cell(art, PlateId::Front, drawn[0])?, mask_cell(art, PlateId::Back, drawn[1])?];
     let [front_mask, back_mask] = masks;
     library_bytes(&art.name, date, vec![front, back, cell, top, front_mask, back_mask])
 }

@@ -17,7 +17,7 @@
 
 use super::film::dark_field;
 use super::mask::{MaskPlate, mask_plate};
-use super::split::{NmRing, boundary_rings, mirror_rings};
+use super::split::{NmRing, boundary_rings};
 use super::DrawnRings;
 use crate::artwork::Artwork;
 use crate::geom::rect;
@@ -75,11 +75,7 @@ fn function_words(plate: PlateId) -> String {
 /// ([`super::Ctx::drawn_rings`]), used when the mask is not compensated.
 pub fn render_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime, drawn: Option<&DrawnRings>) -> Result<Vec<u8>> {
     let m = mask_plate(art, plate, art.masks.mirror && super::mask::contact_mirrored(plate));
-    let rings = drawn.filter(|_| !m.compensated).map(|layers| {
-        let all: Vec<NmRing> = layers.iter().flatten().flatten().cloned().collect();
-        if m.mirrored { mirror_rings(&all, super::gdsii::glass_axis_nm(&m)) } else { all }
-    });
-    gerber_with_rings(art, &m, &function_words(plate), date, rings)
+    gerber_with_rings(art, &m, &function_words(plate), date, m.rings_from(drawn))
 }
 
 /// The Gerber file of a mask (a cell's or a panel's); `function` is the free text of

@@ -127,6 +127,23 @@ pub fn mirror_mask(m: MaskPlate) -> MaskPlate {
     }
 }
 
+impl MaskPlate {
+    /// The mirror axis in whole nanometres: x0 + x1 of the glass box (mirroring is
+    /// x → x0 + x1 − x).
+    pub fn axis_nm(&self) -> i64 {
+        ((self.glass_box.0 + self.glass_box.2) * 1e6).round() as i64
+    }
+
+    /// The boundary rings of this mask's etched polygons taken from the plate's rings as
+    /// drawn ([`super::Ctx::drawn_rings`]), mirrored in whole nanometres when the mask is:
+    /// a mask without etch compensation carries the drawn polygons, so no writer need cut
+    /// them again. `None` when compensated or when no rings are at hand.
+    pub fn rings_from(&self, drawn: Option<&super::DrawnRings>) -> Option<Vec<super::split::NmRing>> {
+        let all: Vec<super::split::NmRing> = drawn.filter(|_| !self.compensated)?.iter().flatten().flatten().cloned().collect();
+        Some(if self.mirrored { super::split::mirror_rings(&all, self.axis_nm()) } else { all })
+    }
+}
+
 impl MaskLabel {
     /// The label's strokes in the mask frame (mm, y up), mirrored when the label is.
     pub fn strokes(&self) -> Vec<Vec<Pt>> {

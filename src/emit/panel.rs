@@ -127,7 +127,7 @@ pub fn panel_gerber(art: &Artwork, plate: PlateId, date: chrono::NaiveDateTime) 
 pub fn panel_gds(art: &Artwork, date: chrono::NaiveDateTime) -> Result<Vec<u8>> {
     let pa = panel_of(art)?;
     let (sx0, _, sx1, _) = bbox(&pa.substrate);
-    let mut cells = vec![mask_cell(art, PlateId::Front)?, mask_cell(art, PlateId::Back)?];
+    let mut cells = vec![mask_cell(art, PlateId::Front, None)?, mask_cell(art, PlateId::Back, None)?];
     for plate in [PlateId::Front, PlateId::Back] {
         let mirror = mask_mirrored(art, plate);
         let (gx0, _, gx1, _) = bbox(art.glass(plate));
