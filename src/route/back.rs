@@ -117,10 +117,12 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     // stacked icons at the end of a row, moved 5 mm left, left COM3 and COM4 shut in by
     // COM2 and every later order worse with COM3 first; with COM4 first it routed.
     let stuck_order = |stuck: &mut Vec<usize>| stuck.sort_unstable_by(|a, b| b.cmp(a));
-    let ((out, stuck), _) = super::retry::rip_up_and_retry_arranged((0..commons.len()).collect(), ATTEMPTS, stuck_order, |order| {
-        attempt(layout, &commons, order, base.clone(), &mut search)
+    let ((out, stuck, order), notes) = super::retry::rip_up_and_retry_arranged((0..commons.len()).collect(), ATTEMPTS, stuck_order, |order| {
+        let (((out, stuck), failed, notes), _) = attempt(layout, &commons, order, &base, &[], false, &mut search);
+        ((out, stuck, order.to_vec()), failed, notes)
     })
     .unwrap_or_default();
+    let (out, stuck) = if stuck.is_empty() { (out, stuck) } else { reserve_and_retry(layout, &commons, &base, &mut search, (out, stuck, order), notes.len()) };
     findings.extend(by_cause(layout, el, &commons, &stuck));
     let kept = commons.iter().flat_map(|c| c.islands.iter().map(|r| (c.net.clone(), r.clone()))).collect();
     BackRoutes { leads: out, kept }
@@ -163,7 +165,52 @@ fn islands_of(layout: &Layout, outline: &Region, cuts: &Region, pixels: &Region,
 
 type AttemptResult = ((Vec<Lead>, Vec<Stuck>), Vec<usize>, Vec<Finding>);
 
-fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid, search: &mut Search) -> AttemptResult {
+/// How many times the islands every order left cut off are given ways of their own
+/// ([`reserve_and_retry`]).
+const RESERVING_ROUNDS: usize = 3;
+
+/// When every order of the commons left islands cut off (`best`, its order last, with
+/// `findings` findings): the best order is run again asking each cut-off island for a
+/// way across the other commons' leads ([`super::reserve`]), and run once more with those
+/// ways held for their commons from the start — up to [`RESERVING_ROUNDS`] times, each
+/// round's new ways added to the last (the common's tree of that attempt is held with
+/// its way, since the way ends on it). Three lines side by side, each behind one of
+/// three commons (the coupons demo at 1/3 duty), leave the line of whichever common is
+/// laid last fenced in by the two others' leads, in every order; with a way held for it
+/// across them, the others go round. Keeps the attempt with the fewest findings, the
+/// best order's on ties.
+fn reserve_and_retry(layout: &Layout, commons: &[Common], base: &Grid, search: &mut Search, best: (Vec<Lead>, Vec<Stuck>, Vec<usize>), findings: usize) -> (Vec<Lead>, Vec<Stuck>) {
+    let (mut out, mut stuck, order) = best;
+    let mut fewest = findings;
+    let mut reserved: Vec<super::reserve::Reservation> = Vec::new();
+    for _ in 0..RESERVING_ROUNDS {
+        // The round that asks for the ways runs the order with the ways held so far;
+        // what it routes counts as an attempt of its own.
+        let (((o, s), _, notes), ways) = attempt(layout, commons, &order, base, &reserved, true, search);
+        if notes.len() < fewest {
+            (out, stuck, fewest) = (o, s, notes.len());
+        }
+        if fewest == 0 || ways.is_empty() {
+            break;
+        }
+        reserved.extend(ways);
+    }
+    if fewest > 0 && !reserved.is_empty() {
+        let (((o, s), _, notes), _) = attempt(layout, commons, &order, base, &reserved, false, search);
+        if notes.len() < fewest {
+            (out, stuck) = (o, s);
+        }
+    }
+    (out, stuck)
+}
+
+/// Routes the commons in `order` on `base` with the ways `reserved` held for their
+/// commons; with `seek`, each island left cut off is asked for once more across the
+/// other commons' leads, and the ways found come back beside the attempt's result.
+fn attempt(layout: &Layout, commons: &[Common], order: &[usize], base: &Grid, reserved: &[super::reserve::Reservation], seek: bool, search: &mut Search) -> (AttemptResult, Vec<super::reserve::Reservation>) {
+    let mut grid = base.clone();
+    super::reserve::hold(&mut grid, reserved);
+    let mut ways = Vec::new();
     let mut out = Vec::new();
     let mut failed = Vec::new();
     let mut notes = Vec::new();
@@ -196,6 +243,7 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
         }
         let mut ok = true;
         let mut shut = ShutIn::default();
+        let mut cut_off = Vec::new();
         // What the growth could not reach is asked for from its own side, nearest the dot
         // first, so that each cut-off part reports what blocks it.
         for i in nearest_first(&c.islands, dot).into_iter().filter(|i| left.contains(i)) {
@@ -206,16 +254,50 @@ fn attempt(layout: &Layout, commons: &[Common], order: &[usize], mut grid: Grid,
                     ok = false;
                     // Counted per island, so that the attempt with fewest cut-off parts wins.
                     notes.push(stuck(c, at, &blockers, commons));
+                    if !blockers.is_empty() {
+                        cut_off.push(i);
+                    }
                     stuck_islands.push(Stuck { common: k, island: i, at, blockers });
                 }
             }
         }
         corridors.forget();
+        if seek && !cut_off.is_empty() {
+            ways.extend(ways_across(layout, base, reserved, &out, search, c, &mut tree, &cut_off));
+        }
         if !ok {
             failed.push(k);
         }
     }
-    ((out, stuck_islands), failed, notes)
+    (((out, stuck_islands), failed, notes), ways)
+}
+
+/// The ways common `c`'s islands `cut_off` would take across the other commons' leads
+/// `leads` (from `tree`, the common's tree as the attempt left it), each as the keep-out
+/// of its lead to hold for `c` ([`super::reserve::soft_grid`]). Islands found no way even
+/// so (shut in by front leads and other commons' islands) give none.
+#[allow(clippy::too_many_arguments)]
+fn ways_across(layout: &Layout, base: &Grid, reserved: &[super::reserve::Reservation], leads: &[Lead], search: &mut Search, c: &Common, tree: &mut Targets, cut_off: &[usize]) -> Vec<super::reserve::Reservation> {
+    let mut soft = super::reserve::soft_grid(layout, base, reserved, leads, c.owner, &c.net);
+    let mut corridors = Corridors::new(&soft);
+    corridors.keep_factors_for(c.owner);
+    let mut shut = ShutIn::default();
+    let reach = super::reserve::keep_out(layout, base.h);
+    let held = |lead: &Lead| super::reserve::Reservation { owner: c.owner, spans: base.spans_near(&lead.outline, reach) };
+    let mut ways = Vec::new();
+    for &i in cut_off {
+        // Each way joins the tree, so the next island may join through it.
+        if let Ok(Some(lead)) = join(layout, &mut soft, search, &mut corridors, c, tree, &mut shut, i) {
+            ways.push(held(&lead));
+        }
+    }
+    if !ways.is_empty() {
+        // The way ends on the tree as this attempt grew it: the tree's leads are held too.
+        for lead in leads.iter().filter(|l| l.net == c.net) {
+            ways.push(held(lead));
+        }
+    }
+    ways
 }
 
 /// A common's tree while it grows: the cells a search for the next island starts from

@@ -427,6 +427,14 @@ impl Grid {
         }
     }
 
+    /// Raises the cost of every cell of the runs `spans` (row, first column, last column)
+    /// to at least `at_least` (a forbidden cell stays forbidden; runs may overlap).
+    pub fn raise_cost_spans(&mut self, spans: &[(usize, usize, usize)], at_least: f32) {
+        for &(r, c0, c1) in spans {
+            self.cost.update_run(r, c0, c1, |c| c.max(at_least));
+        }
+    }
+
     /// Adds `extra` to the cost of every cell inside `region`.
     pub fn add_cost(&mut self, region: &Region, extra: f32) {
         let mut spans = Vec::new();

@@ -30,6 +30,7 @@ pub mod grid;
 pub mod open_list;
 pub mod pages;
 pub mod pending;
+pub mod reserve;
 pub mod retry;
 pub mod ring;
 pub mod search;

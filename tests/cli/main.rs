@@ -28,6 +28,7 @@ mod emit_segmap;
 mod film_text;
 mod findings;
 mod gap_hints;
+mod held_ways;
 mod line_delay;
 mod firmware_tables;
 mod fuzz_bounded;
