@@ -42,7 +42,7 @@ pub fn split_commons(bodies: &[Region], margin: f64, gap: f64, tol: f64) -> Vec<
     // A cluster alike another but for a shift (a row of equal digits on the same
     // commons) is split once and the cells shifted: the germination demo's 140 clusters
     // are 19 shapes.
-    let (model, shift) = alike(&locals);
+    let (model, shift) = crate::geom::alike(&locals);
     let once: Vec<Option<Vec<Region>>> =
         (0..locals.len()).into_par_iter().map(|i| (model[i] == i).then(|| split_cluster(&locals[i], reach, gap, tol))).collect();
     let split: Vec<Vec<Region>> = (0..locals.len())
@@ -60,41 +60,6 @@ pub fn split_commons(bodies: &[Region], margin: f64, gap: f64, tol: f64) -> Vec<
         }
     }
     out.into_iter().map(Region::new).collect()
-}
-
-/// For each cluster (every common's bodies in it), the first cluster it equals but for
-/// a shift, itself where none before does, and that shift. Alike means the same commons,
-/// polygons, rings and vertices in the same order, each vertex at the same place, to the
-/// nanometre, from the lowest corner of the cluster's box.
-fn alike(locals: &[Vec<Region>]) -> (Vec<usize>, Vec<(f64, f64)>) {
-    let mut first: std::collections::HashMap<Vec<i64>, usize> = Default::default();
-    let mut model = Vec::with_capacity(locals.len());
-    let mut shift = Vec::with_capacity(locals.len());
-    let corners: Vec<(f64, f64)> = locals
-        .iter()
-        .map(|cells| {
-            let points = cells.iter().flat_map(|r| r.0.iter()).flat_map(|p| p.exterior().0.iter());
-            points.fold((f64::INFINITY, f64::INFINITY), |(x, y), c| (x.min(c.x), y.min(c.y)))
-        })
-        .collect();
-    for (i, cells) in locals.iter().enumerate() {
-        let (x0, y0) = corners[i];
-        let nm = |v: f64| (v / crate::geom::SNAP_MM).round() as i64;
-        let mut key = Vec::new();
-        for r in cells {
-            key.push(r.0.len() as i64);
-            for p in &r.0 {
-                for ring in std::iter::once(p.exterior()).chain(p.interiors()) {
-                    key.push(ring.0.len() as i64);
-                    key.extend(ring.0.iter().flat_map(|c| [nm(c.x - x0), nm(c.y - y0)]));
-                }
-            }
-        }
-        let m = *first.entry(key).or_insert(i);
-        model.push(m);
-        shift.push((x0 - corners[m].0, y0 - corners[m].1));
-    }
-    (model, shift)
 }
 
 /// The bodies' polygons (common, index within that common's region) grouped so that two
@@ -258,7 +223,7 @@ mod tests {
         let bodies = [region_of(a0.0.iter().chain(&a1.0).chain(&a2.0).cloned()), region_of(b0.0.iter().chain(&b1.0).chain(&b2.0).cloned())];
         let reach = m + gap / 2.0;
         let locals: Vec<Vec<Region>> = [(&a0, &b0), (&a1, &b1), (&a2, &b2)].iter().map(|(a, b)| vec![(*a).clone(), (*b).clone()]).collect();
-        let (model, shift) = alike(&locals);
+        let (model, shift) = crate::geom::alike(&locals);
         assert_eq!(model, [0, 0, 2]);
         assert!((shift[1].0 - 7.37).abs() < 1e-9 && shift[1].1.abs() < 1e-9, "{:?}", shift[1]);
         let out = split_commons(&bodies, m, gap, tol);

@@ -6,6 +6,7 @@
 //! before boolean work, unions use the non-zero fill rule, and round joins take their
 //! angular step from a chord tolerance instead of geo's fixed 32 steps a circle.
 
+mod alike;
 mod centroid;
 mod clip;
 mod interior;
@@ -17,6 +18,7 @@ pub mod path;
 pub use clip::{clip_to_rect, cut_to_box, CUT_MARGIN};
 pub use path::{arc_points, fill_even_odd, parse_svg_path, ring_polygon, rounded_rect};
 
+pub use alike::alike;
 pub use centroid::centroid;
 pub use interior::interior_point;
 pub use overlap::overlap_area;
