@@ -38,3 +38,26 @@ pub fn alike(locals: &[Vec<Region>]) -> (Vec<usize>, Vec<(f64, f64)>) {
     }
     (model, shift)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::{rect, region_of};
+
+    /// A group shifted whole is alike its first; one vertex moved by 2 nm is not, and
+    /// neither is the same shape with the other region in front.
+    #[test]
+    fn groups_equal_but_for_a_shift_share_the_first() {
+        let group = |x: f64, y: f64, w: f64| vec![region_of([rect(x, y, x + 1.0, y + 1.0)]), region_of([rect(x + 2.0, y, x + 2.0 + w, y + 0.5)])];
+        let swapped = {
+            let mut g = group(40.0, 0.0, 1.0);
+            g.reverse();
+            g
+        };
+        let locals = vec![group(0.0, 0.0, 1.0), group(12.5, -3.25, 1.0), group(25.0, 0.0, 1.0 + 2e-6), swapped];
+        let (model, shift) = alike(&locals);
+        assert_eq!(model, [0, 0, 2, 3]);
+        assert!((shift[1].0 - 12.5).abs() < 1e-12 && (shift[1].1 + 3.25).abs() < 1e-12, "{:?}", shift[1]);
+        assert_eq!(shift[0], (0.0, 0.0));
+    }
+}
