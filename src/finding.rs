@@ -66,6 +66,9 @@ pub enum Rule {
     MarkRoom,
     /// More pins than the fewest under multiplexing, and what keeps the spare places free.
     PinCount,
+    /// An icon or legend put on another common than the assignment first chose, because
+    /// on that one its common could not reach its transfer dot.
+    Reassigned,
 }
 
 impl Rule {
@@ -89,6 +92,7 @@ impl Rule {
             Rule::Registration => "registration",
             Rule::MarkRoom => "mark-room",
             Rule::PinCount => "pin-count",
+            Rule::Reassigned => "reassigned",
         }
     }
 }

@@ -27,6 +27,7 @@ pub mod glyph;
 pub mod layout;
 pub mod memory;
 pub mod pipeline;
+pub mod pipeline_moves;
 pub mod plan;
 pub mod plate;
 pub mod route;

@@ -58,6 +58,8 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     let electrodes = crate::electrode::build_electrodes(&layout, &elements, &assignment)?;
     lap("electrode", &mut t, None);
     let routes = crate::route::route_leads(&layout, &electrodes)?;
+    let routed = crate::pipeline_moves::Routed { layout, assignment, electrodes, routes };
+    let crate::pipeline_moves::Routed { layout, electrodes, routes, .. } = crate::pipeline_moves::move_cut_off(routed, &elements)?;
     // The routing grids' and searches' pages are small blocks scattered through the
     // heap, and the stages after routing allocated on top of them: the two-row benchmark
     // held 114 MB after routing of which 19 MB were live, and its peak came in the check

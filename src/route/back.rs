@@ -42,6 +42,8 @@ pub struct BackRoutes {
     pub leads: Vec<Lead>,
     /// The pieces of each common electrode that are kept (net, piece).
     pub kept: Vec<(String, Region)>,
+    /// The elements (indices) behind the pieces that could not be joined to their dot.
+    pub cut_off: Vec<usize>,
 }
 
 /// One common's islands and its dot.
@@ -124,8 +126,16 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     .unwrap_or_default();
     let (out, stuck) = if stuck.is_empty() { (out, stuck) } else { reserve_and_retry(layout, &commons, &base, &mut search, (out, stuck, order), notes.len()) };
     findings.extend(by_cause(layout, el, &commons, &stuck));
+    let mut cut_off: Vec<usize> = Vec::new();
+    for s in &stuck {
+        for e in elements_behind(el, s.common as u32, &commons[s.common].islands[s.island]) {
+            if !cut_off.contains(&e) {
+                cut_off.push(e);
+            }
+        }
+    }
     let kept = commons.iter().flat_map(|c| c.islands.iter().map(|r| (c.net.clone(), r.clone()))).collect();
-    BackRoutes { leads: out, kept }
+    BackRoutes { leads: out, kept, cut_off }
 }
 
 /// The pieces of a grown common that remain after the cuts and face one of its pixels.

@@ -108,6 +108,9 @@ pub struct Routes {
     pub common_pieces: Vec<(String, Region)>,
     /// Problems met while routing.
     pub findings: Vec<Finding>,
+    /// The elements (indices into the electrodes' elements) behind pieces of a common
+    /// the back plate could not join to its transfer dot.
+    pub cut_off: Vec<usize>,
 }
 
 /// Grid cell size ([`crate::layout::Rules::grid_step`]).
@@ -174,7 +177,7 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     let front_leads: Vec<&Lead> = leads.iter().filter(|l| l.plate == PlateId::Front).collect();
     let back = back::route_commons(layout, el, &front_leads, &transfers, &mut findings);
     leads.extend(back.leads);
-    Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings })
+    Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings, cut_off: back.cut_off })
 }
 
 /// The far tier's leads carried round the seal ([`ring::carry`]), or the located reason

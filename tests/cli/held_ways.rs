@@ -1,12 +1,33 @@
-//! A common fenced in by the others' leads in every order routes once a way is held for
+//! What segmask does when a common's piece cannot reach its transfer dot in any order of
+//! the commons. A common fenced in by the others' leads routes once a way is held for
 //! it (`route::reserve`): the coupons demo at 1/3 duty, whose three test lines lie side by
 //! side on three commons, came out with COM3's line cut off from its dot in all three
 //! orders the router tried. Through the real binary: no errors — drive truth, opens and
 //! shorts re-derived by the check from the drawn plates — and no warning but a back lead
 //! crossing a front lead under the bezel (allowed outside the window, reported).
 
+//! An icon whose common is shut in by SEG leads is moved to another common
+//! (`pipeline_moves`): the etch-test plate at 1/2 duty, whose 0.15 mm line's COM2 piece
+//! was cut off, checks clean with a `reassigned` note naming the line, its layout entry
+//! and the `drive.fixed` entry that keeps the choice.
+
 use std::path::PathBuf;
 use std::process::Command;
+
+fn check(name: &str) -> (Option<i32>, String) {
+    let layout = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures/reserve").join(name);
+    let o = Command::new(env!("CARGO_BIN_EXE_segmask")).arg("check").arg(&layout).output().unwrap();
+    (o.status.code(), String::from_utf8_lossy(&o.stderr).into_owned())
+}
+
+#[test]
+fn an_icon_shut_in_on_its_common_is_moved_to_one_that_routes() {
+    let (code, err) = check("etch-test-half-duty.yaml");
+    assert_eq!(code, Some(0), "{err}");
+    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
+    let note = err.lines().find(|l| l.contains("note[reassigned]")).unwrap_or_else(|| panic!("no reassigned note: {err}"));
+    assert!(note.contains("LINE_150 (`icons[7]` line 41) put on COM1") && note.contains("`LINE_150: {com: 1}` under `drive.fixed`"), "{note}");
+}
 
 #[test]
 fn a_line_fenced_in_every_order_routes_through_a_held_way() {
