@@ -22,6 +22,8 @@ use crate::Result;
 /// At most this many other commons are tried, all elements together: each try is one
 /// more pass through assignment, electrodes and routing.
 const MOST_TRIES: usize = 6;
+/// Moves are tried when at most this many elements lie behind cut-off pieces.
+const MOST_CUT_OFF: usize = 3;
 
 /// What the stages up to routing made of a layout.
 pub struct Routed {
@@ -46,7 +48,9 @@ fn score(r: &Routes) -> (usize, usize) {
 /// error, or else the one with the fewest; the note goes among the routes' findings.
 pub fn move_cut_off(routed: Routed, elements: &[Element]) -> Result<Routed> {
     let commons = routed.layout.drive.commons;
-    if routed.routes.cut_off.is_empty() || commons < 2 {
+    // Many elements cut off is no local fence that one move undoes, and each try routes
+    // the whole glass again.
+    if routed.routes.cut_off.is_empty() || routed.routes.cut_off.len() > MOST_CUT_OFF || commons < 2 {
         return Ok(routed);
     }
     let movable: Vec<usize> = routed

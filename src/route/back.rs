@@ -124,7 +124,14 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
         ((out, stuck, order.to_vec()), failed, notes)
     })
     .unwrap_or_default();
-    let (out, stuck) = if stuck.is_empty() { (out, stuck) } else { reserve_and_retry(layout, &commons, &base, &mut search, (out, stuck, order), notes.len()) };
+    // Ways are held only for a few cut-off islands (a local fence, as the three test
+    // lines): with many, no held way undoes what fences them, and each round is one more
+    // whole attempt with its floods on a layout that already took four.
+    let (out, stuck) = if stuck.is_empty() || stuck.len() > MOST_HELD_ISLANDS {
+        (out, stuck)
+    } else {
+        reserve_and_retry(layout, &commons, &base, &mut search, (out, stuck, order), notes.len())
+    };
     findings.extend(by_cause(layout, el, &commons, &stuck));
     let mut cut_off: Vec<usize> = Vec::new();
     for s in &stuck {
@@ -201,6 +208,8 @@ type AttemptResult = ((Vec<Lead>, Vec<Stuck>), Vec<usize>, Vec<Finding>);
 /// How many times the islands every order left cut off are given ways of their own
 /// ([`reserve_and_retry`]).
 const RESERVING_ROUNDS: usize = 3;
+/// Ways are held when at most this many islands are left cut off.
+const MOST_HELD_ISLANDS: usize = 3;
 
 /// When every order of the commons left islands cut off (`best`, its order last, with
 /// `findings` findings): the best order is run again asking each cut-off island for a
