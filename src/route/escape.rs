@@ -100,16 +100,27 @@ fn escape_in_strips(layout: &Layout, el: &Electrodes, frames: &Frames, nets: &[N
     // span the glass, and each strip touches one memory page of each array per row of
     // tiles, so a state per strip faulted in four times the pages (and the check, after
     // routing, faulted them in again).
+    // One strip that cannot be routed sends the whole glass to be routed as one, whatever
+    // the other strips give, so once a strip has failed the strips not yet begun are not
+    // routed at all (the escape of a layout whose SEG lines were shut in spent a third of
+    // its time routing strips after the first had failed).
+    let failed = std::sync::atomic::AtomicBool::new(false);
     let routed: Vec<Option<Escapes>> = strips
         .par_iter()
         .map_init(
             || None::<Kit>,
             |kit, strip| {
+                if failed.load(std::sync::atomic::Ordering::Relaxed) {
+                    return None;
+                }
                 let grid = base_grid(layout, el, frames, nets, Some(strip));
                 let mine: Vec<usize> = order.iter().copied().filter(|i| strip.nets.binary_search(i).is_ok()).collect();
                 let kit = kit.get_or_insert_with(|| Kit::new(&grid));
-                let (esc, notes) = super::retry::rip_up_and_retry(mine, ATTEMPTS, |order| attempt(layout, frames, nets, order, grid.clone(), kit))?;
-                notes.is_empty().then_some(esc)
+                let routed = super::retry::rip_up_and_retry(mine, ATTEMPTS, |order| attempt(layout, frames, nets, order, grid.clone(), kit)).and_then(|(esc, notes)| notes.is_empty().then_some(esc));
+                if routed.is_none() {
+                    failed.store(true, std::sync::atomic::Ordering::Relaxed);
+                }
+                routed
             },
         )
         .collect();
