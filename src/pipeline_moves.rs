@@ -1,15 +1,17 @@
-//! Icons and legends moved to another common when theirs cannot reach its dot.
+//! Icons, legends and colon dots moved to another common when theirs cannot reach its dot.
 //!
 //! Takes a layout, its elements and what the assignment, electrode and route stages made
-//! of them; gives the same four, with one icon or legend fixed on another common where
-//! that routes with fewer errors, and a `reassigned` note saying which and how to keep it.
+//! of them; gives the same four, with some icons, legends or colon dots fixed on another
+//! common where the check then finds fewer errors and warnings, and a `reassigned` note
+//! for each saying which and how to keep it.
 //!
-//! The assignment places an icon or legend on the common with a free place nearest it;
-//! whether that common's piece behind it can then reach its transfer dot is known only
-//! after routing (three test lines side by side on three commons: the line of the common
-//! laid last is fenced in by the other two's leads). Digit segments keep their
-//! template's commons, and the parts of a gauge and the steps of a bar graph share one
-//! common, so only a whole icon or legend is moved.
+//! The assignment places an icon, a legend or a colon's dot (when the digits' template
+//! names no common for it) on the common with a free place nearest it; whether that
+//! common's piece behind it can then reach its transfer dot is known only after routing
+//! (three test lines side by side on three commons: the line of the common laid last is
+//! fenced in by the other two's leads). Digit segments keep their template's commons,
+//! and the parts of a gauge and the steps of a bar graph share one common, so only these
+//! are moved.
 
 use crate::assign::Assignment;
 use crate::electrode::Electrodes;
@@ -37,15 +39,35 @@ pub struct Routed {
     pub routes: Routes,
 }
 
-/// (errors, warnings) among the routes' findings: fewer is better, errors first.
-fn score(r: &Routes) -> (usize, usize) {
-    let count = |s: Severity| r.findings.iter().filter(|f| f.severity == s).count();
-    (count(Severity::Error), count(Severity::Warning))
+/// (errors, warnings) the checks find in what the stages made: fewer is better, errors
+/// first. Scored by the check, not by the routes' own findings: a move can route without
+/// an error and still leave back leads crossing front leads in the liquid crystal (the
+/// `ghost` warnings only the check finds), and another move none.
+fn score(layout: &Layout, electrodes: &Electrodes, routes: &Routes) -> Result<(usize, usize)> {
+    let artwork = crate::plate::build_artwork(layout, electrodes, routes)?;
+    let ex = crate::check::Extraction::extract(&artwork);
+    let mut findings = artwork.generation_findings.clone();
+    findings.extend(crate::check::check_extracted(&artwork, &ex));
+    let findings = crate::check::causes::fold_opens_into_causes(findings);
+    let count = |s: Severity| findings.iter().filter(|f| f.severity == s).count();
+    Ok((count(Severity::Error), count(Severity::Warning)))
 }
 
-/// Tries each icon or legend behind a piece of a common cut off from its dot (not
-/// fixed by hand) on each other common, and keeps the first try that routes with no
-/// error, or else the one with the fewest; the note goes among the routes' findings.
+/// Whether element `e` may be moved to another common: an icon or legend, or a colon's
+/// dot (which the assignment places as it places an icon), not fixed by hand. Digit
+/// segments keep their template's commons, and the parts of a gauge and the steps of a
+/// bar graph share one.
+fn movable(layout: &Layout, e: &Element) -> bool {
+    let colon_dot = e.kind == ElementKind::Segment && crate::layout::COLON_DOTS.iter().any(|d| e.name.rsplit('.').next() == Some(*d));
+    let whole = matches!(e.kind, ElementKind::Icon | ElementKind::Legend) && !e.name.contains('.');
+    (whole || colon_dot) && !layout.fixed_lines.contains_key(&e.name)
+}
+
+/// Tries the icons, legends and colon dots behind pieces of commons cut off from their
+/// dots (not fixed by hand) on the other commons — all of them together on one common,
+/// then each alone — and keeps the first try the
+/// check finds clean, or else the one with the fewest errors and then warnings; the notes
+/// go among the routes' findings.
 pub fn move_cut_off(routed: Routed, elements: &[Element]) -> Result<Routed> {
     let commons = routed.layout.drive.commons;
     // Many elements cut off is no local fence that one move undoes, and each try routes
@@ -53,48 +75,48 @@ pub fn move_cut_off(routed: Routed, elements: &[Element]) -> Result<Routed> {
     if routed.routes.cut_off.is_empty() || routed.routes.cut_off.len() > MOST_CUT_OFF || commons < 2 {
         return Ok(routed);
     }
-    let movable: Vec<usize> = routed
-        .routes
-        .cut_off
-        .iter()
-        .copied()
-        .filter(|&i| {
-            let e = &elements[i];
-            matches!(e.kind, ElementKind::Icon | ElementKind::Legend) && !e.name.contains('.') && !routed.layout.fixed_lines.contains_key(&e.name)
-        })
-        .collect();
+    let movable: Vec<usize> = routed.routes.cut_off.iter().copied().filter(|&i| movable(&routed.layout, &elements[i])).collect();
+    if movable.is_empty() {
+        return Ok(routed);
+    }
     let first = routed.assignment.com.clone();
+    // All together on each common none of them is on first — two dots of a colon or
+    // icons side by side are fenced in together, and one moved alone leaves the other
+    // where the fence is (a colon at 1/3 duty: each dot alone left `ghost` warnings,
+    // both on COM2 checked clean) — then each alone on each other common.
+    let mut tries: Vec<Vec<(usize, u32)>> = Vec::new();
+    if movable.len() > 1 {
+        tries.extend((1..=commons).filter(|&c| movable.iter().all(|&i| first[i] + 1 != c)).map(|c| movable.iter().map(|&i| (i, c)).collect()));
+    }
+    for &i in &movable {
+        tries.extend((1..=commons).filter(|&c| c != first[i] + 1).map(|c| vec![(i, c)]));
+    }
+    let mut best_score = score(&routed.layout, &routed.electrodes, &routed.routes)?;
     let mut best = routed;
-    let mut best_score = score(&best.routes);
-    let mut moved: Option<(usize, u32)> = None;
-    let mut tries = 0;
-    'elements: for i in movable {
-        for com in (1..=commons).filter(|&c| c != first[i] + 1) {
-            if tries == MOST_TRIES {
-                break 'elements;
-            }
-            tries += 1;
-            let mut layout = best.layout.clone();
-            if let Some((m, _)) = moved {
-                layout.fixed_lines.remove(&elements[m].name);
-            }
+    let mut moved: Vec<(usize, u32)> = Vec::new();
+    for moves in tries.into_iter().take(MOST_TRIES) {
+        let mut layout = best.layout.clone();
+        for (m, _) in &moved {
+            layout.fixed_lines.remove(&elements[*m].name);
+        }
+        for &(i, com) in &moves {
             layout.fixed_lines.insert(elements[i].name.clone(), FixedLine { com: Some(com), seg: None });
-            // A try the stages refuse (a fixed choice they cannot keep) is no better.
-            let Ok(assignment) = crate::assign::assign(&layout, elements) else { continue };
-            let Ok(electrodes) = crate::electrode::build_electrodes(&layout, elements, &assignment) else { continue };
-            let Ok(routes) = crate::route::route_leads(&layout, &electrodes) else { continue };
-            let s = score(&routes);
-            if s < best_score {
-                best = Routed { layout, assignment, electrodes, routes };
-                best_score = s;
-                moved = Some((i, com));
-                if s.0 == 0 {
-                    break 'elements;
-                }
+        }
+        // A try the stages refuse (a fixed choice they cannot keep) is no better.
+        let Ok(assignment) = crate::assign::assign(&layout, elements) else { continue };
+        let Ok(electrodes) = crate::electrode::build_electrodes(&layout, elements, &assignment) else { continue };
+        let Ok(routes) = crate::route::route_leads(&layout, &electrodes) else { continue };
+        let Ok(s) = score(&layout, &electrodes, &routes) else { continue };
+        if s < best_score {
+            best = Routed { layout, assignment, electrodes, routes };
+            best_score = s;
+            moved = moves;
+            if s == (0, 0) {
+                break;
             }
         }
     }
-    if let Some((i, com)) = moved {
+    for &(i, com) in &moved {
         let note = reassigned_note(&best.layout, &elements[i], first[i] + 1, com);
         best.routes.findings.push(note);
     }

@@ -9,7 +9,10 @@
 //! An icon whose common is shut in by SEG leads is moved to another common
 //! (`pipeline_moves`): the etch-test plate at 1/2 duty, whose 0.15 mm line's COM2 piece
 //! was cut off, checks clean with a `reassigned` note naming the line, its layout entry
-//! and the `drive.fixed` entry that keeps the choice.
+//! and the `drive.fixed` entry that keeps the choice. The two dots of a colon shut in
+//! together are moved together: the irrigation timer at 1/3 duty checks clean with both
+//! on COM2 (each moved alone left `ghost` warnings; the binary before left an
+//! `unroutable` error).
 
 use std::path::PathBuf;
 use std::process::Command;
@@ -27,6 +30,18 @@ fn an_icon_shut_in_on_its_common_is_moved_to_one_that_routes() {
     assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
     let note = err.lines().find(|l| l.contains("note[reassigned]")).unwrap_or_else(|| panic!("no reassigned note: {err}"));
     assert!(note.contains("LINE_150 (`icons[7]` line 41) put on COM1") && note.contains("`LINE_150: {com: 1}` under `drive.fixed`"), "{note}");
+}
+
+#[test]
+fn a_colon_shut_in_on_its_common_is_moved_whole() {
+    let (code, err) = check("irrigation-colon-third-duty.yaml");
+    assert_eq!(code, Some(0), "{err}");
+    assert!(err.contains("0 error(s), 0 warning(s)"), "{err}");
+    let notes: Vec<&str> = err.lines().filter(|l| l.contains("note[reassigned]")).collect();
+    assert_eq!(notes.len(), 2, "{err}");
+    for dot in ["D2.col_top", "D2.col_bottom"] {
+        assert!(notes.iter().any(|n| n.contains(&format!("{dot} (`digits[0]` line 32) put on COM2")) && n.contains(&format!("`{dot}: {{com: 2}}` under `drive.fixed`"))), "{dot}: {notes:?}");
+    }
 }
 
 #[test]
