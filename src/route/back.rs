@@ -33,7 +33,7 @@ const HIDDEN_CROSSING_COST: f32 = 40.0;
 /// that shut in their neighbours' (eight demos and tests failed).
 const HEURISTIC_WEIGHT: f32 = 1.5;
 /// How many orders of the commons are tried.
-const ATTEMPTS: usize = 4;
+pub const ATTEMPTS: usize = 4;
 
 /// What the back plate routing gives.
 #[derive(Debug, Clone)]
@@ -68,8 +68,8 @@ struct Stuck {
     blockers: Vec<u32>,
 }
 
-/// Cuts and routes every common electrode.
-pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], findings: &mut Vec<Finding>) -> BackRoutes {
+/// Cuts and routes every common electrode, trying up to `orders` orders of the commons.
+pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], transfers: &[TransferSite], orders: usize, findings: &mut Vec<Finding>) -> BackRoutes {
     let tol = layout.tolerance;
     let electrodes = union_all(el.segs.iter().flat_map(|s| s.outline.0.iter().cloned()));
     let leads = union_all(front_leads.iter().flat_map(|l| l.outline.0.iter().cloned()));
@@ -119,7 +119,7 @@ pub fn route_commons(layout: &Layout, el: &Electrodes, front_leads: &[&Lead], tr
     // stacked icons at the end of a row, moved 5 mm left, left COM3 and COM4 shut in by
     // COM2 and every later order worse with COM3 first; with COM4 first it routed.
     let stuck_order = |stuck: &mut Vec<usize>| stuck.sort_unstable_by(|a, b| b.cmp(a));
-    let ((out, stuck, order), notes) = super::retry::rip_up_and_retry_arranged((0..commons.len()).collect(), ATTEMPTS, stuck_order, |order| {
+    let ((out, stuck, order), notes) = super::retry::rip_up_and_retry_arranged((0..commons.len()).collect(), orders, stuck_order, |order| {
         let (((out, stuck), failed, notes), _) = attempt(layout, &commons, order, &base, &[], false, &mut search);
         ((out, stuck, order.to_vec()), failed, notes)
     })
