@@ -74,8 +74,7 @@ pub fn move_cut_off(routed: Routed, elements: &[Element]) -> Result<Routed> {
     // the whole glass again.
     // Nor can a move help where the front left SEG lines unrouted: they come back in
     // every try.
-    let front_failed = routed.routes.findings.iter().any(|f| f.rule == Rule::Unroutable && f.plate == Some(crate::layout::PlateId::Front));
-    if routed.routes.cut_off.is_empty() || routed.routes.cut_off.len() > MOST_CUT_OFF || commons < 2 || front_failed {
+    if routed.routes.cut_off.is_empty() || routed.routes.cut_off.len() > MOST_CUT_OFF || commons < 2 || crate::route::front_unroutable(&routed.routes.findings) {
         return Ok(routed);
     }
     let movable: Vec<usize> = routed.routes.cut_off.iter().copied().filter(|&i| movable(&routed.layout, &elements[i])).collect();

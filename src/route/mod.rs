@@ -179,11 +179,15 @@ pub fn route_leads(layout: &Layout, el: &Electrodes) -> Result<Routes> {
     // with it: its commons are laid in one order only. Routed around SEG pieces that
     // never reach the pads, every order of a two-row layout left 70–146 islands cut off
     // and together took half of a failure's 40 s.
-    let front_failed = findings.iter().any(|f| f.rule == crate::finding::Rule::Unroutable && f.plate == Some(PlateId::Front));
-    let orders = if front_failed { 1 } else { back::ATTEMPTS };
+    let orders = if front_unroutable(&findings) { 1 } else { back::ATTEMPTS };
     let back = back::route_commons(layout, el, &front_leads, &transfers, orders, &mut findings);
     leads.extend(back.leads);
     Ok(Routes { leads, pads, transfers, common_pieces: back.kept, findings, cut_off: back.cut_off })
+}
+
+/// Whether `findings` hold a SEG line the front plate could not route.
+pub fn front_unroutable(findings: &[Finding]) -> bool {
+    findings.iter().any(|f| f.rule == Rule::Unroutable && f.plate == Some(PlateId::Front))
 }
 
 /// The far tier's leads carried round the seal ([`ring::carry`]), or the located reason
