@@ -73,9 +73,7 @@ pub fn build_layout(layout: Layout) -> Result<Built> {
     // rules give: it runs beside them (rayon), on the core the longest rule leaves idle. The check's lap ends when its rules are done; the plan's lap is what
     // it takes after that, so the laps still add up to the time of the build.
     let check = || {
-        let mut findings = artwork.generation_findings.clone();
-        findings.extend(crate::check::check_extracted(&artwork, &ex));
-        (crate::check::causes::fold_opens_into_causes(findings), Instant::now())
+        (crate::check::build_findings(&artwork, &ex), Instant::now())
     };
     let ((mut findings, check_done), plan) = rayon::join(check, || crate::plan::plan(&artwork, &ex));
     lap("check", &mut t, Some(check_done));

@@ -45,10 +45,7 @@ pub struct Routed {
 /// `ghost` warnings only the check finds), and another move none.
 fn score(layout: &Layout, electrodes: &Electrodes, routes: &Routes) -> Result<(usize, usize)> {
     let artwork = crate::plate::build_artwork(layout, electrodes, routes)?;
-    let ex = crate::check::Extraction::extract(&artwork);
-    let mut findings = artwork.generation_findings.clone();
-    findings.extend(crate::check::check_extracted(&artwork, &ex));
-    let findings = crate::check::causes::fold_opens_into_causes(findings);
+    let findings = crate::check::build_findings(&artwork, &crate::check::Extraction::extract(&artwork));
     let count = |s: Severity| findings.iter().filter(|f| f.severity == s).count();
     Ok((count(Severity::Error), count(Severity::Warning)))
 }

@@ -32,6 +32,14 @@ pub fn check_artwork(art: &Artwork) -> Vec<Finding> {
     check_extracted(art, &Extraction::extract(art))
 }
 
+/// What a build reports of an artwork: the findings made while generating it and every
+/// rule's, with the opens a blocked place explains folded into it.
+pub fn build_findings(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
+    let mut findings = art.generation_findings.clone();
+    findings.extend(check_extracted(art, ex));
+    causes::fold_opens_into_causes(findings)
+}
+
 /// Runs every rule on an artwork whose connectivity is already extracted.
 pub fn check_extracted(art: &Artwork, ex: &Extraction) -> Vec<Finding> {
     // The rules read the same geometry and nothing else: each runs on its own (rayon
